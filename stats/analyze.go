@@ -40,6 +40,17 @@ func Analyze(req Request) (*Report, error) {
 	if err != nil {
 		return nil, err
 	}
+	sum := sha256.Sum256([]byte(text))
+	return AnalyzeTable(tab, hex.EncodeToString(sum[:]), req)
+}
+
+// AnalyzeTable analyses a table the caller has already read (the page's
+// streaming path reads large files in chunks). fingerprint is the hex SHA-256
+// of the input bytes as read. Text and Cells in req are ignored.
+func AnalyzeTable(tab *ingest.Table, fingerprint string, req Request) (*Report, error) {
+	if tab == nil || len(tab.Columns) == 0 {
+		return nil, errors.New("no data: paste or drop a column of measurements")
+	}
 	col := tab.Columns[0]
 	xs := make([]float64, 0, col.Numbers)
 	for _, v := range col.Values {
@@ -47,11 +58,10 @@ func Analyze(req Request) (*Report, error) {
 			xs = append(xs, v)
 		}
 	}
-	sum := sha256.Sum256([]byte(text))
 	rep := &Report{
 		Schema: ReportSchema,
 		Input: Input{
-			Fingerprint: hex.EncodeToString(sum[:]),
+			Fingerprint: fingerprint,
 			Column:      col.Name,
 			Summary:     tab.Summary(),
 			Problems:    tab.Problems,
