@@ -1,0 +1,354 @@
+package chart
+
+import (
+	"encoding/xml"
+	"math"
+	"strconv"
+	"strings"
+	"testing"
+
+	"lotlens/stats"
+)
+
+// node is a generic XML element for inspecting the SVG.
+type node struct {
+	XMLName xml.Name
+	Attrs   []xml.Attr `xml:",any,attr"`
+	Nodes   []node     `xml:",any"`
+	Text    string     `xml:",chardata"`
+}
+
+func (n node) attr(k string) string {
+	for _, a := range n.Attrs {
+		if a.Name.Local == k {
+			return a.Value
+		}
+	}
+	return ""
+}
+
+func (n node) num(t *testing.T, k string) float64 {
+	t.Helper()
+	v, err := strconv.ParseFloat(n.attr(k), 64)
+	if err != nil {
+		t.Fatalf("<%s> attribute %s = %q is not a number", n.XMLName.Local, k, n.attr(k))
+	}
+	return v
+}
+
+func (n node) hasClass(c string) bool {
+	for _, f := range strings.Fields(n.attr("class")) {
+		if f == c {
+			return true
+		}
+	}
+	return false
+}
+
+// all returns every element (depth first) for which keep is true.
+func (n node) all(keep func(node) bool) []node {
+	var out []node
+	if keep(n) {
+		out = append(out, n)
+	}
+	for _, c := range n.Nodes {
+		out = append(out, c.all(keep)...)
+	}
+	return out
+}
+
+func (n node) title() string {
+	for _, c := range n.Nodes {
+		if c.XMLName.Local == "title" {
+			return c.Text
+		}
+	}
+	return ""
+}
+
+func parse(t *testing.T, svg string) node {
+	t.Helper()
+	if svg == "" {
+		t.Fatal("chart is empty")
+	}
+	var root node
+	if err := xml.Unmarshal([]byte(svg), &root); err != nil {
+		t.Fatalf("not well-formed XML: %v\n%s", err, svg)
+	}
+	if root.XMLName.Local != "svg" {
+		t.Fatalf("root element is <%s>, want <svg>", root.XMLName.Local)
+	}
+	return root
+}
+
+func byClass(c string) func(node) bool { return func(n node) bool { return n.hasClass(c) } }
+
+const xss = `<img src=x onerror=alert(1)>`
+
+func f64(v float64) *float64 { return &v }
+
+// sample is a hand-made report (invented numbers, consistent by construction:
+// 10 readings, two of them flagged). Nothing here is a statistical check
+// value: the tests check geometry and text against these inputs.
+func sample() *stats.Report {
+	return &stats.Report{
+		Input:    stats.Input{Column: xss, Unit: "g"},
+		Settings: stats.Settings{Target: f64(5.0), LSL: f64(4.8), USL: f64(5.4)},
+		Counts:   stats.Counts{Used: 10, Decimals: 2},
+		Centre:   &stats.Centre{Mean: 5.1, Median: 5.1},
+		Spread:   &stats.Spread{SD: 0.1},
+		Suspects: &stats.Suspects{Readings: []stats.Suspect{
+			{Reading: stats.Reading{Row: 12, Value: 6.0, Text: "6.00"}},
+			{Reading: stats.Reading{Row: 3, Value: 4.6, Text: "4.60"}},
+		}},
+		Charts: &stats.Charts{
+			Histogram: stats.Histogram{Rule: "sturges", Edges: []float64{4.9, 5.0, 5.1, 5.2, 5.3}, Counts: []int{1, 3, 4, 2}},
+			Box: stats.Box{Q1: 5.0, Median: 5.1, Q3: 5.2, LoWhisker: 4.95, HiWhisker: 5.28,
+				InnerLo: 4.7, InnerHi: 5.5, OuterLo: 4.4, OuterHi: 5.8},
+			ProbPlot: stats.ProbPlot{Positions: "Blom", Line: [2]float64{5.1, 0.1},
+				Points: []stats.ProbPt{{Z: -1, Y: 5.0, Row: 2}, {Z: 0, Y: 5.1, Row: 4}, {Z: 1, Y: 5.25, Row: 5}},
+				Band:   []stats.BandPt{{Z: -1, Lo: 4.9, Hi: 5.1}, {Z: 0, Lo: 5.05, Hi: 5.15}, {Z: 1, Lo: 5.1, Hi: 5.3}}},
+			Series: []stats.SeriesPt{{I: 0, Row: 2, Y: 5.0}, {I: 1, Row: 3, Y: 4.6}, {I: 2, Row: 4, Y: 5.1}, {I: 3, Row: 12, Y: 6.0}},
+		},
+	}
+}
+
+func TestTicks(t *testing.T) {
+	// Expected ticks: the 1-2-5 rule (Heckbert 1990), worked by hand.
+	for _, c := range []struct {
+		lo, hi float64
+		n      int
+		want   []float64
+		dec    int
+	}{
+		{0, 10, 6, []float64{0, 2, 4, 6, 8, 10}, 0},
+		{4.93, 5.31, 7, []float64{4.95, 5, 5.05, 5.1, 5.15, 5.2, 5.25, 5.3}, 2},
+		{-3, 3, 7, []float64{-3, -2, -1, 0, 1, 2, 3}, 0},
+		{120, 980, 5, []float64{200, 400, 600, 800}, 0},
+	} {
+		got, dec := Ticks(c.lo, c.hi, c.n)
+		if dec != c.dec || len(got) != len(c.want) {
+			t.Errorf("Ticks(%g, %g, %d) = %v (dec %d), want %v (dec %d)", c.lo, c.hi, c.n, got, dec, c.want, c.dec)
+			continue
+		}
+		for i := range got {
+			if math.Abs(got[i]-c.want[i]) > 1e-12 {
+				t.Errorf("Ticks(%g, %g, %d) = %v, want %v", c.lo, c.hi, c.n, got, c.want)
+				break
+			}
+		}
+	}
+	// A degenerate range still gets ticks around the value.
+	if got, _ := Ticks(5, 5, 5); len(got) == 0 || got[0] > 5 || got[len(got)-1] < 5 {
+		t.Errorf("Ticks(5, 5) = %v, want ticks around 5", got)
+	}
+}
+
+func TestFormat(t *testing.T) {
+	f := Format{DecimalComma: true, Unit: "g", Decimals: 2}
+	if got := f.Num(5.14, 2); got != "5,14" {
+		t.Errorf("decimal comma: got %q, want 5,14", got)
+	}
+	if got := f.Value(5.1); got != "5,10 g" {
+		t.Errorf("value at resolution: got %q, want \"5,10 g\"", got)
+	}
+	if got := (Format{}).Num(-0.0001, 2); got != "0.00" {
+		t.Errorf("negative zero: got %q, want 0.00", got)
+	}
+}
+
+func TestEscapesText(t *testing.T) {
+	r := sample()
+	for name, svg := range All(r) {
+		root := parse(t, svg)
+		if imgs := root.all(func(n node) bool { return n.XMLName.Local == "img" }); len(imgs) > 0 {
+			t.Errorf("%s: the column header became an <img> element", name)
+		}
+		if !strings.Contains(root.title(), xss) {
+			t.Errorf("%s: title %q does not show the header as text", name, root.title())
+		}
+	}
+	if len(All(r)) != 4 {
+		t.Errorf("All drew %d charts, want 4", len(All(r)))
+	}
+}
+
+func TestNilAndEmpty(t *testing.T) {
+	if got := All(nil); len(got) != 0 {
+		t.Errorf("All(nil) = %v", got)
+	}
+	if got := All(&stats.Report{}); len(got) != 0 {
+		t.Errorf("All(no charts) = %v", got)
+	}
+	r := sample()
+	r.Charts.Histogram.Edges = r.Charts.Histogram.Edges[:2] // inconsistent bins
+	if Histogram(r) != "" {
+		t.Error("histogram drawn from inconsistent bins")
+	}
+}
+
+func TestHistogramGeometry(t *testing.T) {
+	root := parse(t, Histogram(sample()))
+	bars := root.all(byClass("bar"))
+	if len(bars) != 4 {
+		t.Fatalf("%d bars, want 4", len(bars))
+	}
+	base := bars[0].num(t, "y") + bars[0].num(t, "height")
+	for i, b := range bars {
+		if got := b.num(t, "y") + b.num(t, "height"); math.Abs(got-base) > 0.2 {
+			t.Errorf("bar %d does not stand on the axis: bottom %g, want %g", i, got, base)
+		}
+	}
+	// heights proportional to counts 1, 3, 4, 2
+	unit := bars[0].num(t, "height")
+	for i, want := range []float64{1, 3, 4, 2} {
+		if got := bars[i].num(t, "height") / unit; math.Abs(got-want) > 0.05 {
+			t.Errorf("bar %d height ratio %g, want %g", i, got, want)
+		}
+		if !strings.Contains(bars[i].title(), strconv.Itoa(int(want))+" values") {
+			t.Errorf("bar %d title %q", i, bars[i].title())
+		}
+	}
+	// bars are adjacent: each starts where the last ended
+	for i := 1; i < 4; i++ {
+		end := bars[i-1].num(t, "x") + bars[i-1].num(t, "width")
+		if math.Abs(bars[i].num(t, "x")-end) > 0.2 {
+			t.Errorf("gap between bar %d and %d", i-1, i)
+		}
+	}
+	// target 5.0 sits on the edge between bars 0 and 1; LSL left of all bars, USL right
+	line := func(class string) node {
+		ls := root.all(func(n node) bool { return n.XMLName.Local == "line" && n.hasClass(class) })
+		if len(ls) != 1 {
+			t.Fatalf("%d %s lines, want 1", len(ls), class)
+		}
+		return ls[0]
+	}
+	if x := line("target").num(t, "x1"); math.Abs(x-bars[1].num(t, "x")) > 0.2 {
+		t.Errorf("target at x=%g, want the 5.0 bin edge at %g", x, bars[1].num(t, "x"))
+	}
+	if x := line("lsl").num(t, "x1"); x >= bars[0].num(t, "x") {
+		t.Errorf("LSL 4.8 at x=%g, not left of the first bin (4.9)", x)
+	}
+	if x := line("usl").num(t, "x1"); x <= bars[3].num(t, "x")+bars[3].num(t, "width") {
+		t.Errorf("USL 5.4 at x=%g, not right of the last bin (5.3)", x)
+	}
+	if fit := root.all(byClass("normal-fit")); len(fit) != 1 {
+		t.Errorf("%d normal curves, want 1", len(fit))
+	}
+	// the limits are labelled in text, not by colour only
+	labels := root.all(byClass("marker-label"))
+	var txt []string
+	for _, l := range labels {
+		txt = append(txt, l.Text)
+	}
+	if j := strings.Join(txt, "|"); !strings.Contains(j, "LSL 4.80") || !strings.Contains(j, "USL 5.40") || !strings.Contains(j, "target 5.00") {
+		t.Errorf("marker labels %q, want LSL 4.80, target 5.00, USL 5.40", j)
+	}
+}
+
+func TestBoxFlagsByRow(t *testing.T) {
+	root := parse(t, Box(sample()))
+	pts := root.all(byClass("pt"))
+	if len(pts) != 2 {
+		t.Fatalf("%d flagged points, want 2", len(pts))
+	}
+	rows := map[string]node{}
+	for _, p := range pts {
+		rows[p.attr("data-row")] = p
+	}
+	far, near := rows["12"], rows["3"]
+	if !far.hasClass("far") || far.XMLName.Local != "path" {
+		t.Errorf("row 12 (6.0, beyond the outer fence 5.8) drawn as <%s class=%q>, want a triangle of class far", far.XMLName.Local, far.attr("class"))
+	}
+	if !near.hasClass("near") || near.XMLName.Local != "circle" {
+		t.Errorf("row 3 (4.6, between fences) drawn as <%s class=%q>, want an open circle of class near", near.XMLName.Local, near.attr("class"))
+	}
+	if far.title() != "row 12: 6.00 g" {
+		t.Errorf("row 12 title %q", far.title())
+	}
+	var labels []string
+	for _, l := range root.all(byClass("row-label")) {
+		labels = append(labels, l.Text)
+	}
+	if strings.Join(labels, ",") != "row 3,row 12" {
+		t.Errorf("row labels %v, want row 3, row 12", labels)
+	}
+	box := root.all(byClass("box"))[0]
+	med := root.all(byClass("median"))[0]
+	x0, x1 := box.num(t, "x"), box.num(t, "x")+box.num(t, "width")
+	if mx := med.num(t, "x1"); !(mx > x0 && mx < x1) || math.Abs(mx-(x0+x1)/2) > 0.2 {
+		t.Errorf("median at %g, want the middle of the box %g..%g (Q1 5.0, median 5.1, Q3 5.2)", mx, x0, x1)
+	}
+	outer := root.all(func(n node) bool { return n.XMLName.Local == "line" && n.hasClass("outer") })
+	if len(outer) != 2 {
+		t.Fatalf("%d outer fences, want 2", len(outer))
+	}
+	if fx := outer[1].num(t, "x1"); fx >= pointX(t, far) {
+		t.Errorf("row 12 is not drawn beyond the outer fence")
+	}
+}
+
+// pointX returns the x of a marker (circle centre or the path's first vertex).
+func pointX(t *testing.T, n node) float64 {
+	if n.XMLName.Local == "circle" {
+		return n.num(t, "cx")
+	}
+	d := strings.TrimPrefix(n.attr("d"), "M")
+	x, err := strconv.ParseFloat(strings.Fields(d)[0], 64)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return x
+}
+
+func TestProbPlotOrder(t *testing.T) {
+	root := parse(t, ProbPlot(sample()))
+	pts := root.all(byClass("pt"))
+	if len(pts) != 3 {
+		t.Fatalf("%d points, want 3", len(pts))
+	}
+	for i := 1; i < 3; i++ {
+		if !(pts[i].num(t, "cx") > pts[i-1].num(t, "cx") && pts[i].num(t, "cy") < pts[i-1].num(t, "cy")) {
+			t.Errorf("point %d is not right of and above point %d", i, i-1)
+		}
+	}
+	// the middle point (z 0, 5.1) lies on the fitted line 5.1 + 0.1 z
+	fit := root.all(byClass("fit"))[0]
+	x1, y1, x2, y2 := fit.num(t, "x1"), fit.num(t, "y1"), fit.num(t, "x2"), fit.num(t, "y2")
+	cx, cy := pts[1].num(t, "cx"), pts[1].num(t, "cy")
+	if yl := y1 + (cx-x1)/(x2-x1)*(y2-y1); math.Abs(yl-cy) > 0.3 {
+		t.Errorf("point on the line drawn at y=%g, line at %g", cy, yl)
+	}
+	if pts[2].title() != "row 5: 5.25 g (z = 1.00)" {
+		t.Errorf("title %q", pts[2].title())
+	}
+	if b := root.all(byClass("band")); len(b) != 2 {
+		t.Errorf("%d band lines, want 2", len(b))
+	}
+}
+
+func TestRunChart(t *testing.T) {
+	root := parse(t, Run(sample()))
+	pts := root.all(byClass("pt"))
+	if len(pts) != 4 {
+		t.Fatalf("%d points, want 4", len(pts))
+	}
+	med := root.all(func(n node) bool { return n.XMLName.Local == "line" && n.hasClass("median") })[0]
+	// row 4 has the median value 5.1: its centre is on the median line
+	if got := pts[2].num(t, "cy"); math.Abs(got-med.num(t, "y1")) > 0.2 {
+		t.Errorf("row 4 (median value) at y=%g, median line at %g", got, med.num(t, "y1"))
+	}
+	// data order left to right; flagged rows 3 and 12 are triangles
+	for i, want := range []string{"2", "3", "4", "12"} {
+		if pts[i].attr("data-row") != want {
+			t.Errorf("point %d is row %s, want %s", i, pts[i].attr("data-row"), want)
+		}
+	}
+	if !pts[1].hasClass("suspect") || !pts[3].hasClass("suspect") || pts[0].hasClass("suspect") {
+		t.Error("flagged rows 3 and 12 are not marked (and only they)")
+	}
+	if x0, x1 := pts[0].num(t, "cx"), pts[2].num(t, "cx"); x1 <= x0 {
+		t.Error("points not in data order left to right")
+	}
+}

@@ -1,0 +1,446 @@
+package chart
+
+import (
+	"fmt"
+	"math"
+	"sort"
+
+	"lotlens/stats"
+)
+
+// Size of every chart's viewBox; the page scales it to its card.
+const (
+	Width  = 720.0
+	Height = 300.0
+)
+
+// FormatOf takes the number format from the report: the data's decimals,
+// decimal mark and unit.
+func FormatOf(r *stats.Report) Format {
+	return Format{Decimals: r.Counts.Decimals, DecimalComma: r.Input.DecimalComma, Unit: r.Input.Unit}
+}
+
+// All draws every chart the report has data for, keyed "histogram", "box",
+// "probplot" and "run". A chart without data is left out.
+func All(r *stats.Report) map[string]string {
+	out := map[string]string{}
+	if r == nil || r.Charts == nil {
+		return out
+	}
+	for k, f := range map[string]func(*stats.Report) string{
+		"histogram": Histogram, "box": Box, "probplot": ProbPlot, "run": Run,
+	} {
+		if s := f(r); s != "" {
+			out[k] = s
+		}
+	}
+	return out
+}
+
+func valueLabel(r *stats.Report) string {
+	name := r.Input.Column
+	if name == "" {
+		name = "value"
+	}
+	if r.Input.Unit != "" {
+		return name + " (" + r.Input.Unit + ")"
+	}
+	return name
+}
+
+// refLines are the target and specification limits, where given.
+type refLine struct {
+	v      float64
+	label  string
+	colour string
+	dash   string
+	class  string
+}
+
+func refLines(r *stats.Report, f Format) []refLine {
+	var out []refLine
+	s := r.Settings
+	if s.LSL != nil && finite(*s.LSL) {
+		out = append(out, refLine{*s.LSL, "LSL " + f.Num(*s.LSL, f.Decimals), Vermilion, "10 4 2 4", "lsl"})
+	}
+	if s.Target != nil && finite(*s.Target) {
+		out = append(out, refLine{*s.Target, "target " + f.Num(*s.Target, f.Decimals), Black, "8 4", "target"})
+	}
+	if s.USL != nil && finite(*s.USL) {
+		out = append(out, refLine{*s.USL, "USL " + f.Num(*s.USL, f.Decimals), Vermilion, "10 4 2 4", "usl"})
+	}
+	return out
+}
+
+// span returns the smallest interval holding every finite value.
+func span(vs ...float64) (lo, hi float64) {
+	lo, hi = math.Inf(1), math.Inf(-1)
+	for _, v := range vs {
+		if finite(v) {
+			lo, hi = math.Min(lo, v), math.Max(hi, v)
+		}
+	}
+	return
+}
+
+func pad(lo, hi, frac float64) (float64, float64) {
+	d := (hi - lo) * frac
+	if d == 0 {
+		d = math.Max(math.Abs(lo)*0.01, 1e-9)
+	}
+	return lo - d, hi + d
+}
+
+// Histogram draws the bins with the fitted normal curve (mean and SD of the
+// report) and the target and specification limits as labelled lines.
+func Histogram(r *stats.Report) string {
+	if r == nil || r.Charts == nil {
+		return ""
+	}
+	h := r.Charts.Histogram
+	if len(h.Counts) == 0 || len(h.Edges) != len(h.Counts)+1 || !finite(h.Edges...) {
+		return ""
+	}
+	f := FormatOf(r)
+	refs := refLines(r, f)
+	vals := append([]float64{}, h.Edges[0], h.Edges[len(h.Edges)-1])
+	for _, rl := range refs {
+		vals = append(vals, rl.v)
+	}
+	lo, hi := span(vals...)
+	lo, hi = pad(lo, hi, 0.03)
+	n, maxc := 0, 0
+	for _, k := range h.Counts {
+		n += k
+		maxc = max(maxc, k)
+	}
+	// fitted normal curve, scaled to counts per bin
+	var mean, sd float64
+	fit := r.Centre != nil && r.Spread != nil && r.Spread.SD > 0 && finite(r.Centre.Mean, r.Spread.SD)
+	width := (h.Edges[len(h.Edges)-1] - h.Edges[0]) / float64(len(h.Counts))
+	peak := float64(maxc)
+	if fit {
+		mean, sd = r.Centre.Mean, r.Spread.SD
+		peak = math.Max(peak, float64(n)*width/(sd*math.Sqrt(2*math.Pi)))
+	}
+	yt, ydec := Ticks(0, peak, 5)
+	ytop := math.Max(peak, yt[len(yt)-1])
+	xs := scale{lo, hi, marginL, Width - marginR}
+	ys := scale{0, ytop, Height - marginB, marginT + 12}
+	xt, xdec := Ticks(lo, hi, 7)
+	xdec = max(xdec, 0)
+	desc := fmt.Sprintf("%d values in %d bins (%s rule)", n, len(h.Counts), h.Rule)
+	if fit {
+		desc += fmt.Sprintf("; normal curve with mean %s and SD %s", f.Num(mean, f.Decimals+2), f.Num(sd, f.Decimals+2))
+	}
+	c := newCanvas(Width, Height, "histogram", "Histogram of "+valueLabel(r), desc)
+	c.yAxis(ys, yt, ydec, f, "count", marginL, Width-marginR)
+	c.printf(`<g class="bars">`)
+	for i, k := range h.Counts {
+		x0, x1 := xs.at(h.Edges[i]), xs.at(h.Edges[i+1])
+		y := ys.at(float64(k))
+		c.printf(`<rect x="%.1f" y="%.1f" width="%.1f" height="%.1f" fill="%s" stroke="%s" stroke-width="1" class="bar" data-bin="%d" data-count="%d"><title>%s</title></rect>`,
+			x0, y, math.Max(x1-x0, 0.5), ys.at(0)-y, SkyBlue, Black, i, k,
+			esc(fmt.Sprintf("%s to %s: %d values", f.Num(h.Edges[i], f.Decimals+1), f.Num(h.Edges[i+1], f.Decimals+1), k)))
+	}
+	c.printf(`</g>`)
+	items := []legendItem{{"bar", SkyBlue, "", "count per bin"}}
+	if fit {
+		c.printf(`<path class="normal-fit" fill="none" stroke="%s" stroke-width="2.5" d="`, Blue)
+		const steps = 160
+		for i := 0; i <= steps; i++ {
+			x := lo + (hi-lo)*float64(i)/steps
+			z := (x - mean) / sd
+			y := float64(n) * width * math.Exp(-z*z/2) / (sd * math.Sqrt(2*math.Pi))
+			cmd := "L"
+			if i == 0 {
+				cmd = "M"
+			}
+			c.printf("%s%.1f %.1f", cmd, xs.at(x), ys.at(y))
+		}
+		c.printf(`"/>`)
+		items = append(items, legendItem{"line", Blue, "", "normal curve"})
+	}
+	for i, rl := range refs {
+		x := xs.at(rl.v)
+		c.vMarker(x, ys.at(0), marginT+26, rl.colour, rl.dash, rl.label, rl.class, marginT+10+float64(i%2)*13)
+	}
+	if len(refs) > 0 {
+		items = append(items, legendItem{"line", Black, "8 4", "target"})
+		if len(refs) > 1 || refs[0].class != "target" {
+			items = append(items, legendItem{"line", Vermilion, "10 4 2 4", "spec limits"})
+		}
+	}
+	c.xAxis(xs, xt, xdec, f, valueLabel(r), Height-marginB)
+	c.legend(items)
+	return c.done()
+}
+
+// suspectKind sorts a flagged reading by how far out it lies.
+func suspectKind(v float64, b stats.Box) (shape, colour, class string) {
+	switch {
+	case v < b.OuterLo || v > b.OuterHi:
+		return "triangle", Vermilion, "far"
+	case v < b.InnerLo || v > b.InnerHi:
+		return "open-circle", Orange, "near"
+	default:
+		return "diamond", Purple, "other"
+	}
+}
+
+// Box draws a horizontal box plot: the box from Q1 to Q3 with the median,
+// whiskers to the last values inside the inner fences, the inner (1.5 IQR)
+// and outer (3 IQR) fences (Tukey 1977), and every flagged reading labelled
+// by its row.
+func Box(r *stats.Report) string {
+	if r == nil || r.Charts == nil {
+		return ""
+	}
+	b := r.Charts.Box
+	if !finite(b.Q1, b.Median, b.Q3, b.LoWhisker, b.HiWhisker, b.InnerLo, b.InnerHi) || b.Q3 < b.Q1 {
+		return ""
+	}
+	f := FormatOf(r)
+	var sus []stats.Suspect
+	if r.Suspects != nil {
+		sus = r.Suspects.Readings
+	}
+	vals := []float64{b.LoWhisker, b.HiWhisker, b.InnerLo, b.InnerHi}
+	far := false
+	for _, s := range sus {
+		vals = append(vals, s.Value)
+		if s.Value < b.InnerLo || s.Value > b.InnerHi {
+			far = true
+		}
+	}
+	if far && finite(b.OuterLo, b.OuterHi) {
+		vals = append(vals, b.OuterLo, b.OuterHi)
+	}
+	lo, hi := span(vals...)
+	lo, hi = pad(lo, hi, 0.04)
+	const h = 240.0
+	xs := scale{lo, hi, marginL, Width - marginR}
+	xt, xdec := Ticks(lo, hi, 7)
+	mid := 130.0
+	desc := fmt.Sprintf("Q1 %s, median %s, Q3 %s; inner fences %s and %s; %d flagged readings",
+		f.Num(b.Q1, f.Decimals+1), f.Num(b.Median, f.Decimals+1), f.Num(b.Q3, f.Decimals+1),
+		f.Num(b.InnerLo, f.Decimals+1), f.Num(b.InnerHi, f.Decimals+1), len(sus))
+	c := newCanvas(Width, h, "box", "Box plot of "+valueLabel(r), desc)
+	c.vMarker(xs.at(b.InnerLo), 40, h-marginB, Orange, "6 4", "inner fence", "fence inner", 52)
+	c.vMarker(xs.at(b.InnerHi), 40, h-marginB, Orange, "6 4", "inner fence", "fence inner", 52)
+	if far && finite(b.OuterLo, b.OuterHi) {
+		c.vMarker(xs.at(b.OuterLo), 40, h-marginB, Vermilion, "2 3", "outer fence", "fence outer", 66)
+		c.vMarker(xs.at(b.OuterHi), 40, h-marginB, Vermilion, "2 3", "outer fence", "fence outer", 66)
+	}
+	// whiskers
+	c.line(xs.at(b.LoWhisker), mid, xs.at(b.Q1), mid, Black, 1.5, "", "whisker")
+	c.line(xs.at(b.Q3), mid, xs.at(b.HiWhisker), mid, Black, 1.5, "", "whisker")
+	c.line(xs.at(b.LoWhisker), mid-12, xs.at(b.LoWhisker), mid+12, Black, 1.5, "", "whisker-cap")
+	c.line(xs.at(b.HiWhisker), mid-12, xs.at(b.HiWhisker), mid+12, Black, 1.5, "", "whisker-cap")
+	c.printf(`<rect class="box" x="%.1f" y="%.1f" width="%.1f" height="44" fill="%s" fill-opacity="0.45" stroke="%s" stroke-width="1.5"><title>%s</title></rect>`,
+		xs.at(b.Q1), mid-22, math.Max(xs.at(b.Q3)-xs.at(b.Q1), 1), SkyBlue, Black,
+		esc("Q1 "+f.Num(b.Q1, f.Decimals+1)+" to Q3 "+f.Num(b.Q3, f.Decimals+1)))
+	c.line(xs.at(b.Median), mid-22, xs.at(b.Median), mid+22, Black, 3.5, "", "median")
+	// flagged readings, labels staggered so they do not overlap
+	sort.SliceStable(sus, func(i, j int) bool { return sus[i].Value < sus[j].Value })
+	lastX := []float64{-1e9, -1e9, -1e9}
+	for i, s := range sus {
+		shape, colour, class := suspectKind(s.Value, b)
+		x := xs.at(s.Value)
+		// small vertical jitter by position in list keeps ties visible
+		y := mid + float64((i%3)-1)*8
+		c.marker(shape, x, y, 6, colour, s.Row, fmt.Sprintf("row %d: %s", s.Row, f.Value(s.Value)), "suspect "+class)
+		if i < 40 {
+			lane := 0
+			for lane < 2 && x-lastX[lane] < 52 {
+				lane++
+			}
+			lastX[lane] = x
+			c.text(x, mid+40+float64(lane)*15, "middle", "row-label", fmt.Sprintf("row %d", s.Row))
+		}
+	}
+	c.xAxis(xs, xt, xdec, f, valueLabel(r), h-marginB)
+	items := []legendItem{{"line", Orange, "6 4", "inner fence"}}
+	if far {
+		items = append(items, legendItem{"line", Vermilion, "2 3", "outer fence"})
+	}
+	if len(sus) > 0 {
+		items = append(items, legendItem{"open-circle", Orange, "", "beyond inner"})
+		if far {
+			items = append(items, legendItem{"triangle", Vermilion, "", "beyond outer"})
+		}
+		items = append(items, legendItem{"diamond", Purple, "", "other rules"})
+	}
+	c.legend(items)
+	return c.done()
+}
+
+// ProbPlot draws the normal probability plot: each ordered value against its
+// normal quantile, the fitted line (intercept mean, slope SD) and the
+// pointwise band.
+func ProbPlot(r *stats.Report) string {
+	if r == nil || r.Charts == nil || len(r.Charts.ProbPlot.Points) == 0 {
+		return ""
+	}
+	p := r.Charts.ProbPlot
+	f := FormatOf(r)
+	var zs, ys []float64
+	for _, pt := range p.Points {
+		zs = append(zs, pt.Z)
+		ys = append(ys, pt.Y)
+	}
+	for _, bp := range p.Band {
+		zs = append(zs, bp.Z)
+		ys = append(ys, bp.Lo, bp.Hi)
+	}
+	zlo, zhi := span(zs...)
+	ylo, yhi := span(ys...)
+	if !finite(zlo, zhi, ylo, yhi) {
+		return ""
+	}
+	zlo, zhi = pad(zlo, zhi, 0.05)
+	ylo, yhi = pad(ylo, yhi, 0.05)
+	xs := scale{zlo, zhi, marginL, Width - marginR}
+	ysc := scale{ylo, yhi, Height - marginB, marginT + 12}
+	xt, xdec := Ticks(zlo, zhi, 7)
+	yt, ydec := Ticks(ylo, yhi, 6)
+	c := newCanvas(Width, Height, "probplot", "Normal probability plot of "+valueLabel(r),
+		fmt.Sprintf("%d points; plotting positions %s; straight line = normal", len(p.Points), p.Positions))
+	c.yAxis(ysc, yt, ydec, f, valueLabel(r), marginL, Width-marginR)
+	band := func(get func(stats.BandPt) float64, class string) {
+		if len(p.Band) < 2 {
+			return
+		}
+		c.printf(`<path class="band %s" fill="none" stroke="%s" stroke-width="1.5" stroke-dasharray="6 4" d="`, class, Orange)
+		for i, bp := range p.Band {
+			cmd := "L"
+			if i == 0 {
+				cmd = "M"
+			}
+			c.printf("%s%.1f %.1f", cmd, xs.at(bp.Z), ysc.at(get(bp)))
+		}
+		c.printf(`"/>`)
+	}
+	band(func(b stats.BandPt) float64 { return b.Lo }, "lo")
+	band(func(b stats.BandPt) float64 { return b.Hi }, "hi")
+	a, s := p.Line[0], p.Line[1]
+	if finite(a, s) {
+		c.line(xs.at(zlo), ysc.at(a+s*zlo), xs.at(zhi), ysc.at(a+s*zhi), Black, 1.5, "", "fit")
+	}
+	c.printf(`<g class="points">`)
+	rad := 4.0
+	if len(p.Points) > 300 {
+		rad = 2.5
+	}
+	for _, pt := range p.Points {
+		c.marker("circle", xs.at(pt.Z), ysc.at(pt.Y), rad, Blue, pt.Row,
+			fmt.Sprintf("row %d: %s (z = %s)", pt.Row, f.Value(pt.Y), f.Num(pt.Z, 2)), "")
+	}
+	c.printf(`</g>`)
+	c.xAxis(xs, xt, xdec, f, "normal quantile (z)", Height-marginB)
+	c.legend([]legendItem{{"circle", Blue, "", "reading"}, {"line", Black, "", "normal line"}, {"line", Orange, "6 4", "band"}})
+	return c.done()
+}
+
+// Run draws the values in data order joined by a thin line, with the median
+// as a horizontal reference, the target and limits where given, and flagged
+// readings marked.
+func Run(r *stats.Report) string {
+	if r == nil || r.Charts == nil || len(r.Charts.Series) == 0 {
+		return ""
+	}
+	pts := r.Charts.Series
+	f := FormatOf(r)
+	med, hasMed := 0.0, false
+	if r.Centre != nil && finite(r.Centre.Median) {
+		med, hasMed = r.Centre.Median, true
+	}
+	refs := refLines(r, f)
+	vals := make([]float64, 0, len(pts)+4)
+	ilo, ihi := math.Inf(1), math.Inf(-1)
+	for _, p := range pts {
+		vals = append(vals, p.Y)
+		ilo, ihi = math.Min(ilo, float64(p.I)), math.Max(ihi, float64(p.I))
+	}
+	for _, rl := range refs {
+		vals = append(vals, rl.v)
+	}
+	ylo, yhi := span(vals...)
+	if !finite(ylo, yhi) {
+		return ""
+	}
+	ylo, yhi = pad(ylo, yhi, 0.06)
+	ilo, ihi = pad(ilo, ihi, 0.02)
+	xs := scale{ilo, ihi, marginL, Width - marginR}
+	ys := scale{ylo, yhi, Height - marginB, marginT + 12}
+	xt, _ := Ticks(math.Max(ilo, 0)+1, ihi+1, 7) // positions shown 1-based
+	yt, ydec := Ticks(ylo, yhi, 6)
+	desc := fmt.Sprintf("%d values in data order", len(pts))
+	if r.Charts.Thinned {
+		desc += " (thinned for drawing)"
+	}
+	if hasMed {
+		desc += "; median " + f.Num(med, f.Decimals+1)
+	}
+	c := newCanvas(Width, Height, "run", "Run chart of "+valueLabel(r), desc)
+	c.yAxis(ys, yt, ydec, f, valueLabel(r), marginL, Width-marginR)
+	for _, rl := range refs {
+		y := ys.at(rl.v)
+		c.line(marginL, y, Width-marginR, y, rl.colour, 1.5, rl.dash, "marker "+rl.class)
+		c.text(Width-marginR-4, y-4, "end", "marker-label "+rl.class, rl.label)
+	}
+	if hasMed {
+		y := ys.at(med)
+		c.line(marginL, y, Width-marginR, y, Green, 2, "12 5", "median")
+		c.text(marginL+4, y-5, "start", "marker-label median", "median "+f.Num(med, f.Decimals+1))
+	}
+	c.printf(`<path class="trace" fill="none" stroke="#888888" stroke-width="1" d="`)
+	for i, p := range pts {
+		cmd := "L"
+		if i == 0 {
+			cmd = "M"
+		}
+		c.printf("%s%.1f %.1f", cmd, xs.at(float64(p.I)), ys.at(p.Y))
+	}
+	c.printf(`"/>`)
+	flagged := map[int]bool{}
+	if r.Suspects != nil {
+		for _, s := range r.Suspects.Readings {
+			flagged[s.Row] = true
+		}
+	}
+	rad := 3.5
+	if len(pts) > 300 {
+		rad = 2
+	}
+	c.printf(`<g class="points">`)
+	for _, p := range pts {
+		title := fmt.Sprintf("row %d: %s (position %d)", p.Row, f.Value(p.Y), p.I+1)
+		if flagged[p.Row] {
+			c.marker("triangle", xs.at(float64(p.I)), ys.at(p.Y), 6, Vermilion, p.Row, title+", flagged", "suspect")
+		} else {
+			c.marker("circle", xs.at(float64(p.I)), ys.at(p.Y), rad, Blue, p.Row, title, "")
+		}
+	}
+	c.printf(`</g>`)
+	// x ticks are 1-based positions
+	c.line(xs.p0, Height-marginB, xs.p1, Height-marginB, Black, 1, "", "axis x")
+	for _, t := range xt {
+		if t != math.Trunc(t) {
+			continue
+		}
+		x := xs.at(t - 1)
+		c.line(x, Height-marginB, x, Height-marginB+5, Black, 1, "", "tick x")
+		c.text(x, Height-marginB+19, "middle", "tick-label x", f.Num(t, 0))
+	}
+	c.text((xs.p0+xs.p1)/2, Height-8, "middle", "axis-label x", "position in data order")
+	items := []legendItem{{"circle", Blue, "", "reading"}}
+	if hasMed {
+		items = append(items, legendItem{"line", Green, "12 5", "median"})
+	}
+	if len(flagged) > 0 {
+		items = append(items, legendItem{"triangle", Vermilion, "", "flagged"})
+	}
+	c.legend(items)
+	return c.done()
+}
