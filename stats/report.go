@@ -119,7 +119,13 @@ type Counts struct {
 	Distinct int `json:"distinct"`
 	// Resolution is the smallest decimal step as typed (0.01 for "12.31").
 	Resolution float64 `json:"resolution,omitempty"`
-	Decimals   int     `json:"decimals"`
+	// Decimals is the largest number of decimals as typed; -1 when some
+	// value was not plain decimal text (exponent form).
+	Decimals int `json:"decimals"`
+	// Step is the step the values actually move in: the greatest common
+	// divisor of their differences as typed (0.5 for data typed to 0.1 but
+	// recorded in half units). 0 when unknown (exponent form, one distinct value).
+	Step float64 `json:"step,omitempty"`
 }
 
 // Reading identifies one value: where it is and how it was typed.
@@ -185,8 +191,8 @@ type Mode struct {
 // Spread: dispersion statistics.
 type Spread struct {
 	Range    float64   `json:"range"`
-	Variance float64   `json:"variance"` // divisor n-1
-	SD       float64   `json:"sd"`       // divisor n-1
+	Variance *float64  `json:"variance,omitempty"` // divisor n-1; omitted (with a Note) only when it exceeds the float64 range
+	SD       float64   `json:"sd"`                 // divisor n-1
 	SDCI     *Interval `json:"sdCI,omitempty"`
 	PopSD    *float64  `json:"popSD,omitempty"` // divisor n, on request
 	CV       *float64  `json:"cv,omitempty"`    // SD / |mean|, omitted when the mean is 0 or values change sign
@@ -198,6 +204,7 @@ type Spread struct {
 // Quantiles under the chosen definition, and the quartiles under all of them.
 type Quantiles struct {
 	Method      string        `json:"method"`
+	Name        string        `json:"name"` // the definition in words
 	Min         float64       `json:"min"`
 	Q1          float64       `json:"q1"`
 	Median      float64       `json:"median"`

@@ -1,0 +1,187 @@
+package stats
+
+import (
+	"math"
+	"sort"
+)
+
+// maxBins bounds the histogram (heavy tails can ask the Freedman-Diaconis
+// rule for thousands of bins).
+const maxBins = 200
+
+// histogram bins the data. The bin width follows Freedman and Diaconis
+// (1981): 2·IQR·n^(-1/3); when the IQR is 0 it falls back to Sturges (1926):
+// ceil(log2 n) + 1 bins over the range. When the values move in a known step
+// the width is rounded up to a whole number of steps and the edges sit half a
+// step off the values, so that no value lies on an edge and no bin is empty
+// only because of the recording grid.
+func histogram(sorted []float64, iqr, step float64) Histogram {
+	n := len(sorted)
+	lo, hi := sorted[0], sorted[n-1]
+	h := Histogram{Rule: "freedman-diaconis"}
+	if lo == hi {
+		w := step
+		if !(w > 0) {
+			w = math.Abs(lo) * 0.01
+			if w == 0 {
+				w = 1
+			}
+		}
+		h.Rule = "single-value"
+		h.Edges = []float64{lo - w/2, lo + w/2}
+		h.Counts = []int{n}
+		return h
+	}
+	width := 2 * iqr / math.Cbrt(float64(n))
+	if !(width > 0) || !(iqr > 0) {
+		h.Rule = "sturges"
+		k := math.Ceil(math.Log2(float64(n))) + 1
+		width = (hi - lo) / k
+	}
+	start := lo
+	if step > 0 {
+		width = math.Max(step, math.Ceil(width/step*(1-1e-12))*step)
+		start = lo - step/2
+	}
+	k := int(math.Ceil((hi - start) / width))
+	if float64(k) > maxBins || k < 1 {
+		k = maxBins
+		width = (hi - start) / float64(k)
+		if step > 0 {
+			width = math.Max(step, math.Ceil(width/step)*step)
+			k = int(math.Ceil((hi - start) / width))
+		}
+	}
+	if start+float64(k)*width < hi {
+		k++
+	}
+	h.Edges = make([]float64, k+1)
+	for i := range h.Edges {
+		h.Edges[i] = start + float64(i)*width
+	}
+	if h.Edges[k] < hi {
+		h.Edges[k] = hi
+	}
+	h.Counts = make([]int, k)
+	// values are sorted: walk the edges once
+	b := 0
+	for _, x := range sorted {
+		for b < k-1 && x >= h.Edges[b+1] {
+			b++
+		}
+		h.Counts[b]++
+	}
+	return h
+}
+
+// modalClass is the histogram bin holding the most values (the first when
+// several tie).
+func modalClass(h Histogram) [2]float64 {
+	best := 0
+	for i, c := range h.Counts {
+		if c > h.Counts[best] {
+			best = i
+		}
+	}
+	if len(h.Counts) == 0 {
+		return [2]float64{}
+	}
+	return [2]float64{h.Edges[best], h.Edges[best+1]}
+}
+
+// boxElements are the box plot of Tukey (1977): box from Q1 to Q3, whiskers
+// to the most extreme values within the inner fences (1.5 IQR beyond the
+// quartiles), outer fences at 3 IQR.
+func boxElements(sorted []float64, q1, med, q3 float64) Box {
+	iqr := q3 - q1
+	b := Box{Q1: q1, Median: med, Q3: q3,
+		InnerLo: q1 - 1.5*iqr, InnerHi: q3 + 1.5*iqr,
+		OuterLo: q1 - 3*iqr, OuterHi: q3 + 3*iqr}
+	i := sort.SearchFloat64s(sorted, b.InnerLo) // first value >= inner fence
+	if i >= len(sorted) {
+		i = len(sorted) - 1
+	}
+	b.LoWhisker = math.Min(sorted[i], q1)
+	j := sort.Search(len(sorted), func(k int) bool { return sorted[k] > b.InnerHi }) - 1
+	if j < 0 {
+		j = 0
+	}
+	b.HiWhisker = math.Max(sorted[j], q3)
+	return b
+}
+
+// fenceCounts counts values beyond the inner and the outer fences.
+func fenceCounts(sorted []float64, b Box) (inner, outer int) {
+	n := len(sorted)
+	below := func(f float64) int { return sort.SearchFloat64s(sorted, f) }
+	above := func(f float64) int { return n - sort.Search(n, func(i int) bool { return sorted[i] > f }) }
+	return below(b.InnerLo) + above(b.InnerHi), below(b.OuterLo) + above(b.OuterHi)
+}
+
+// series is the data-order series of the used values. Above maxChartPoints
+// values it is thinned: the series is cut into maxChartPoints/2 consecutive
+// blocks and each block keeps its smallest and largest value in data order,
+// so extremes and shifts stay visible (the min-max decimation of plotting
+// practice).
+func series(cv *colView, excl map[int32]bool) ([]SeriesPt, bool) {
+	used := func(i int) bool {
+		x := cv.vals[i]
+		return x == x && !math.IsInf(x, 0) && !(excl != nil && excl[cv.rows[i]])
+	}
+	n := 0
+	for i := range cv.vals {
+		if used(i) {
+			n++
+		}
+	}
+	if n <= maxChartPoints {
+		out := make([]SeriesPt, 0, n)
+		k := 0
+		for i := range cv.vals {
+			if used(i) {
+				out = append(out, SeriesPt{I: k, Row: int(cv.rows[i]), Y: cv.vals[i]})
+				k++
+			}
+		}
+		return out, false
+	}
+	blocks := maxChartPoints / 2
+	out := make([]SeriesPt, 0, maxChartPoints)
+	k := 0
+	var bmin, bmax SeriesPt
+	cur := -1
+	flush := func() {
+		if cur < 0 {
+			return
+		}
+		if bmin.I == bmax.I {
+			out = append(out, bmin)
+		} else if bmin.I < bmax.I {
+			out = append(out, bmin, bmax)
+		} else {
+			out = append(out, bmax, bmin)
+		}
+	}
+	for i := range cv.vals {
+		if !used(i) {
+			continue
+		}
+		blk := int(int64(k) * int64(blocks) / int64(n))
+		p := SeriesPt{I: k, Row: int(cv.rows[i]), Y: cv.vals[i]}
+		if blk != cur {
+			flush()
+			cur = blk
+			bmin, bmax = p, p
+		} else {
+			if p.Y < bmin.Y {
+				bmin = p
+			}
+			if p.Y > bmax.Y {
+				bmax = p
+			}
+		}
+		k++
+	}
+	flush()
+	return out, true
+}

@@ -1,0 +1,93 @@
+package stats
+
+import (
+	"fmt"
+	"math"
+	"reflect"
+)
+
+// guardFinite is the last line of defence for the promise that a successful
+// report holds no NaN or Inf: any section that still holds one is removed
+// and a Note says so. The computations avoid them; this catches what an
+// extreme input (values near 1e308) still pushes out of range.
+func guardFinite(rep *Report) {
+	drop := func(field string, bad string) {
+		rep.Notes = append(rep.Notes, Note{Field: field, Text: fmt.Sprintf("omitted: %s is beyond the range of double-precision numbers for these values", bad)})
+	}
+	if p, bad := nonFinite(reflect.ValueOf(rep.Centre), "centre"); bad {
+		rep.Centre = nil
+		drop("centre", p)
+	}
+	if p, bad := nonFinite(reflect.ValueOf(rep.Spread), "spread"); bad {
+		rep.Spread = nil
+		drop("spread", p)
+	}
+	if p, bad := nonFinite(reflect.ValueOf(rep.Quantile), "quantiles"); bad {
+		rep.Quantile = nil
+		drop("quantiles", p)
+	}
+	if p, bad := nonFinite(reflect.ValueOf(rep.Shape), "shape"); bad {
+		rep.Shape = nil
+		drop("shape", p)
+	}
+	if p, bad := nonFinite(reflect.ValueOf(rep.Suspects), "suspects"); bad {
+		rep.Suspects = nil
+		drop("suspects", p)
+	}
+	if p, bad := nonFinite(reflect.ValueOf(rep.Target), "target"); bad {
+		rep.Target = nil
+		drop("target", p)
+	}
+	if p, bad := nonFinite(reflect.ValueOf(rep.Charts), "charts"); bad {
+		rep.Charts = nil
+		drop("charts", p)
+	}
+	if p, bad := nonFinite(reflect.ValueOf(&rep.Verdict), "verdict"); bad {
+		rep.Verdict.Reasons = []Reason{{Code: "out-of-range", Text: "The values are too large or too small for the verdict's figures; see the notes."}}
+		rep.Verdict.Warnings = nil
+		drop("verdict", p)
+	}
+	if p, bad := nonFinite(reflect.ValueOf(&rep.Counts), "counts"); bad {
+		rep.Counts.Resolution, rep.Counts.Step = 0, 0
+		drop("counts", p)
+	}
+}
+
+// nonFinite reports the path of the first NaN or Inf inside v.
+func nonFinite(v reflect.Value, path string) (string, bool) {
+	switch v.Kind() {
+	case reflect.Float32, reflect.Float64:
+		f := v.Float()
+		if math.IsNaN(f) || math.IsInf(f, 0) {
+			return path, true
+		}
+	case reflect.Pointer, reflect.Interface:
+		if !v.IsNil() {
+			return nonFinite(v.Elem(), path)
+		}
+	case reflect.Struct:
+		t := v.Type()
+		for i := 0; i < v.NumField(); i++ {
+			if !t.Field(i).IsExported() {
+				continue
+			}
+			if p, bad := nonFinite(v.Field(i), path+"."+t.Field(i).Name); bad {
+				return p, true
+			}
+		}
+	case reflect.Slice, reflect.Array:
+		for i := 0; i < v.Len(); i++ {
+			if p, bad := nonFinite(v.Index(i), fmt.Sprintf("%s[%d]", path, i)); bad {
+				return p, true
+			}
+		}
+	case reflect.Map:
+		it := v.MapRange()
+		for it.Next() {
+			if p, bad := nonFinite(it.Value(), path+"."+fmt.Sprint(it.Key().Interface())); bad {
+				return p, true
+			}
+		}
+	}
+	return "", false
+}

@@ -1,0 +1,11 @@
+package stats
+
+// The methods (shape, probability plot, outlier rules, target tests) live in
+// their own files. Until each lands, its hook is nil and its report section
+// is left out.
+var (
+	hookShape    func(sorted []float64, mean, sd float64) (*Shape, []Note)
+	hookProbPlot func(sorted []float64, mean, sd, conf float64, maxPoints int) ProbPlot
+	hookOutliers func(sorted []float64, q1, q3, median float64, alpha float64) ([]Rule, map[int][]Flag)
+	hookTarget   func(sorted []float64, mean, sd float64, target, conf float64) *Target
+)

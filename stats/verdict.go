@@ -1,0 +1,161 @@
+package stats
+
+import (
+	"fmt"
+	"strconv"
+)
+
+// Verdict thresholds (common practice; documented in the help page).
+const (
+	// skewStrong: |G1| at or above this is skewed whatever the test says
+	// (Bulmer 1979, Principles of Statistics: |skewness| > 1 is "highly skewed").
+	skewStrong = 1.0
+	// skewModerate: |G1| at or above this is skewed when D'Agostino's test
+	// on G1 also rejects symmetry at skewAlpha (Bulmer 1979: 0.5 to 1 is
+	// "moderately skewed").
+	skewModerate = 0.5
+	skewAlpha    = 0.05
+	// smallN: below this the shape cannot be judged and intervals are rough
+	// (common practice).
+	smallN = 20
+	// tinyN: below this no shape test runs; the verdict rests on the fences.
+	tinyN = 8
+	// manyOutlierShare: more than this share of readings beyond the inner
+	// fences (with at least manyOutlierMin of them) is far more than a normal
+	// distribution gives (about 0.7%): common practice.
+	manyOutlierShare = 0.02
+	manyOutlierMin   = 3
+	// minStepsTolerance: at least ten resolution steps across the
+	// tolerance (common practice, the "10 to 1" rule of gauge selection).
+	minStepsTolerance = 10
+	// minStepsSD: the SD should span at least two resolution steps, or the
+	// recorded values cannot show the spread (common practice).
+	minStepsSD = 2
+)
+
+func g3(x float64) string { return strconv.FormatFloat(x, 'g', 3, 64) }
+
+func pText(p float64) string {
+	if p < 0.001 {
+		return "p < 0.001"
+	}
+	return "p = " + strconv.FormatFloat(p, 'f', 3, 64)
+}
+
+// verdict decides which pair of figures to quote, by these rules, in order:
+//
+//  1. one value, or all values equal: mean and SD (there is nothing else).
+//  2. skewed: |G1| >= 1, or |G1| >= 0.5 with D'Agostino's skewness test
+//     (D'Agostino 1970) significant at 5% -> median and IQR.
+//  3. any reading beyond Tukey's outer fence (3 IQR beyond the quartiles,
+//     Tukey 1977) -> median and IQR.
+//  4. more than 2% of readings (and at least 3) beyond the inner fences
+//     (1.5 IQR) -> median and IQR.
+//  5. otherwise mean and SD; below 8 values the shape cannot be tested and
+//     the report says that the choice rests on the fences alone.
+//
+// Warnings: fewer than 20 values; a resolution too coarse for the
+// tolerance (fewer than 10 steps across it) or for the spread (SD below 2
+// steps); heavy ties (fewer than 10 distinct values among 20 or more, or
+// one value holding more than a quarter of the readings); constant data.
+func verdict(rep *Report, opts Options, n int, constant bool, maxRun, distinct int, step float64, inner, outer int) {
+	v := &rep.Verdict
+	v.Reasons = nil
+	s := rep.Spread
+	switch {
+	case n == 1:
+		v.Quote = "mean-sd"
+		v.Reasons = append(v.Reasons, Reason{Code: "single-value", Text: "Only one value: it is the mean and the median; no spread can be estimated."})
+	case constant:
+		v.Quote = "mean-sd"
+		v.Reasons = append(v.Reasons, Reason{Code: "constant", Text: fmt.Sprintf("All %d values are equal (%s): the SD and IQR are 0.", n, g3(rep.Quantile.Min)), Vals: map[string]float64{"n": float64(n)}})
+	default:
+		var why []Reason
+		if sh := rep.Shape; sh != nil && sh.Skewness != nil {
+			g1 := sh.Skewness.Value
+			side := "right"
+			if g1 < 0 {
+				side = "left"
+			}
+			var p float64 = -1
+			if sh.Skewness.Test != nil {
+				p = sh.Skewness.Test.P
+			}
+			if abs(g1) >= skewStrong || (abs(g1) >= skewModerate && p >= 0 && p < skewAlpha) {
+				vals := map[string]float64{"g1": g1}
+				txt := fmt.Sprintf("the data are %s-skewed (G1 = %s", side, g3(g1))
+				if p >= 0 {
+					vals["p"] = p
+					txt += ", " + pText(p)
+				}
+				txt += ")"
+				why = append(why, Reason{Code: side + "-skewed", Text: txt, Vals: vals})
+			}
+		}
+		if outer > 0 {
+			why = append(why, Reason{Code: "beyond-outer-fence", Text: fmt.Sprintf("%d reading%s beyond the outer fence (3 IQR beyond the quartiles)", outer, plural(outer, " lies", "s lie")), Vals: map[string]float64{"count": float64(outer)}})
+		}
+		innerOnly := inner - outer
+		if inner > manyOutlierMin-1 && float64(inner) > manyOutlierShare*float64(n) && innerOnly > 0 {
+			why = append(why, Reason{Code: "many-beyond-inner-fence", Text: fmt.Sprintf("%d readings (%s of %d) lie beyond the inner fences (1.5 IQR), far more than normal data give", inner, pct(float64(inner)/float64(n)), n), Vals: map[string]float64{"count": float64(inner), "share": float64(inner) / float64(n)}})
+		}
+		if len(why) > 0 {
+			v.Quote = "median-iqr"
+			v.Reasons = why
+			break
+		}
+		v.Quote = "mean-sd"
+		if sh := rep.Shape; sh != nil && sh.Skewness != nil && n >= tinyN {
+			vals := map[string]float64{"g1": sh.Skewness.Value}
+			txt := fmt.Sprintf("the data are roughly symmetric (G1 = %s", g3(sh.Skewness.Value))
+			if sh.Skewness.Test != nil {
+				vals["p"] = sh.Skewness.Test.P
+				txt += ", " + pText(sh.Skewness.Test.P)
+			}
+			v.Reasons = append(v.Reasons, Reason{Code: "symmetric", Text: txt + ")", Vals: vals})
+		} else if n < tinyN {
+			v.Reasons = append(v.Reasons, Reason{Code: "small-sample", Text: fmt.Sprintf("with %d values the shape cannot be tested; the choice rests on the fences alone", n), Vals: map[string]float64{"n": float64(n)}})
+		} else {
+			v.Reasons = append(v.Reasons, Reason{Code: "shape-unknown", Text: "the shape statistics are not available; the choice rests on the fences alone"})
+		}
+		v.Reasons = append(v.Reasons, Reason{Code: "no-far-out", Text: "no reading lies beyond the outer fences"})
+	}
+
+	// Warnings.
+	if n < smallN {
+		v.Warnings = append(v.Warnings, Reason{Code: "small-sample", Text: fmt.Sprintf("Only %d values: intervals are wide and the shape is hard to judge; collect %d or more where you can.", n, smallN), Vals: map[string]float64{"n": float64(n)}})
+	}
+	if constant && n > 1 {
+		v.Warnings = append(v.Warnings, Reason{Code: "constant", Text: "All values are equal: check that the gauge resolves the variation (or that the right column was read).", Vals: map[string]float64{"n": float64(n)}})
+	}
+	res := step
+	if !(res > 0) {
+		res = rep.Counts.Resolution
+	}
+	if res > 0 && opts.LSL != nil && opts.USL != nil {
+		steps := (*opts.USL - *opts.LSL) / res
+		if steps < minStepsTolerance {
+			v.Warnings = append(v.Warnings, Reason{Code: "coarse-for-tolerance", Text: fmt.Sprintf("The values move in steps of %s: only %s steps across the tolerance (at least %d are usual). Measure with a finer resolution.", g3(res), g3(steps), minStepsTolerance), Vals: map[string]float64{"step": res, "steps": steps}})
+		}
+	}
+	if res > 0 && !constant && s != nil && n >= 2 && s.SD/res < minStepsSD {
+		v.Warnings = append(v.Warnings, Reason{Code: "coarse-for-spread", Text: fmt.Sprintf("The SD (%s) is only %s resolution steps (%s): the recorded values cannot show the spread well. Measure with a finer resolution.", g3(s.SD), g3(s.SD/res), g3(res)), Vals: map[string]float64{"step": res, "sd": s.SD, "steps": s.SD / res}})
+	}
+	if n >= smallN && !constant && (distinct < 10 || maxRun*4 > n) {
+		v.Warnings = append(v.Warnings, Reason{Code: "heavy-ties", Text: fmt.Sprintf("Heavy ties: %d distinct values among %d readings, the most common one %d times. Normality tests reject such data readily and rank methods lose power.", distinct, n, maxRun), Vals: map[string]float64{"distinct": float64(distinct), "maxCount": float64(maxRun)}})
+	}
+}
+
+func plural(k int, one, many string) string {
+	if k == 1 {
+		return one
+	}
+	return many
+}
+
+func abs(x float64) float64 {
+	if x < 0 {
+		return -x
+	}
+	return x
+}
