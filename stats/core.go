@@ -14,6 +14,10 @@ import (
 // 0.135 and 99.865 are the ±3σ points of a normal distribution.
 var percentilePoints = []float64{0.135, 1, 5, 95, 99, 99.865}
 
+// percentileProbs are the same points as probabilities, written out so that
+// no rounding of p/100 changes which order statistics are used.
+var percentileProbs = []float64{0.00135, 0.01, 0.05, 0.95, 0.99, 0.99865}
+
 // analyzeColumn fills every section of rep from the value column.
 func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	// Exclusions: the user's choice, listed, never deleted.
@@ -131,8 +135,8 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	qs := &Quantiles{Method: method, Name: quantileNames[method], Min: lo, Max: hi}
 	qset := quartiles(sorted, method)
 	qs.Q1, qs.Median, qs.Q3 = qset.Q1, qset.Median, qset.Q3
-	for _, p := range percentilePoints {
-		qs.Percentiles = append(qs.Percentiles, Percentile{P: p, Value: quantile(sorted, p/100, method)})
+	for i, p := range percentilePoints {
+		qs.Percentiles = append(qs.Percentiles, Percentile{P: p, Value: quantile(sorted, percentileProbs[i], method)})
 	}
 	for _, m := range QuantileMethods {
 		qs.All = append(qs.All, quartiles(sorted, m))
