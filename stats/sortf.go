@@ -1,19 +1,23 @@
 package stats
 
 import (
+	"math/bits"
 	"slices"
 	"unsafe"
 )
 
-// radixMin is the size below which a comparison sort is faster.
-const radixMin = 2048
+// radixMin is the size below which a comparison sort is used.
+const radixMin = 256
 
-// sortFloats sorts xs ascending (no NaN allowed). For large inputs it uses
-// an LSD radix sort on the IEEE 754 bit patterns, mapped so that unsigned
-// order equals numeric order (the usual sign-flip mapping; Knuth, TAOCP
-// vol. 3, 5.2.5), 11 bits a pass, skipping passes in which all keys share
-// the digit. It needs one scratch slice of len(xs) and returns the sorted
-// slice, which is xs or the scratch.
+// sortFloats sorts xs ascending in place (no NaN allowed) and returns it.
+// Large inputs use an in-place most-significant-digit radix sort (the
+// "American flag sort" of McIlroy, Bostic and McIlroy 1993, Computing
+// Systems 6) on the IEEE 754 bit patterns, mapped so that unsigned order is
+// numeric order (flip all bits of negatives, the sign bit of the rest).
+// Each pass takes its digit just below the highest bit in which the keys of
+// that bucket differ, so data that share their leading bits (every value near
+// 500.0) cost no wasted passes. No scratch memory: the engine's peak stays at
+// one float64 per value.
 func sortFloats(xs []float64) []float64 {
 	n := len(xs)
 	if n < radixMin {
@@ -21,42 +25,94 @@ func sortFloats(xs []float64) []float64 {
 		return xs
 	}
 	keys := unsafe.Slice((*uint64)(unsafe.Pointer(unsafe.SliceData(xs))), n)
-	const bitsPer = 11
-	const buckets = 1 << bitsPer
-	const passes = (64 + bitsPer - 1) / bitsPer
-	var hist [passes][buckets]uint32
 	for i, k := range keys {
-		// flip: negative numbers invert all bits, positive set the sign bit
-		k ^= uint64(int64(k)>>63) | 1<<63
-		keys[i] = k
-		for p := 0; p < passes; p++ {
-			hist[p][(k>>(p*bitsPer))&(buckets-1)]++
+		keys[i] = k ^ (uint64(int64(k)>>63) | 1<<63)
+	}
+	flagSort(keys)
+	for i, k := range keys {
+		keys[i] = k ^ (uint64(int64(^k)>>63) | 1<<63)
+	}
+	return xs
+}
+
+// flagSort sorts keys in place by their highest differing bits.
+func flagSort(keys []uint64) {
+	if len(keys) < 64 {
+		insertionSort(keys)
+		return
+	}
+	k0 := keys[0]
+	var diff uint64
+	for _, k := range keys {
+		diff |= k ^ k0
+	}
+	if diff == 0 {
+		return // all equal
+	}
+	top := 64 - bits.LeadingZeros64(diff) // bits 0..top-1 vary
+	digit := 11
+	if len(keys) < 4096 {
+		digit = 8
+	}
+	shift := top - digit
+	if shift < 0 {
+		shift = 0
+		digit = top
+	}
+	nb := 1 << digit
+	mask := uint64(nb - 1)
+	var countArr, nextArr [1 << 11]int
+	count, next := countArr[:nb], nextArr[:nb]
+	for _, k := range keys {
+		count[(k>>shift)&mask]++
+	}
+	sum := 0
+	for b := range count {
+		next[b] = sum
+		sum += count[b]
+	}
+	// ends[b] = start of b + count[b]; permute in place, cycle by cycle
+	var endArr [1 << 11]int
+	end := endArr[:nb]
+	for b := range count {
+		end[b] = next[b] + count[b]
+	}
+	for b := 0; b < nb; b++ {
+		for next[b] < end[b] {
+			k := keys[next[b]]
+			d := int((k >> shift) & mask)
+			for d != b {
+				// put k in its bucket, take the key that was there
+				j := next[d]
+				next[d]++
+				k, keys[j] = keys[j], k
+				d = int((k >> shift) & mask)
+			}
+			keys[next[b]] = k
+			next[b]++
 		}
 	}
-	tmp := make([]uint64, n)
-	src, dst := keys, tmp
-	for p := 0; p < passes; p++ {
-		h := &hist[p]
-		shift := uint(p * bitsPer)
-		if h[(src[0]>>shift)&(buckets-1)] == uint32(n) {
-			continue // every key has the same digit here
-		}
-		var sum uint32
-		for i := range h {
-			c := h[i]
-			h[i] = sum
-			sum += c
-		}
-		for _, k := range src {
-			d := (k >> shift) & (buckets - 1)
-			dst[h[d]] = k
-			h[d]++
-		}
-		src, dst = dst, src
+	if shift == 0 {
+		return
 	}
-	for i, k := range src {
-		// unflip: keys with the top bit set were positive
-		src[i] = k ^ (uint64(int64(^k)>>63) | 1<<63)
+	start := 0
+	for b := 0; b < nb; b++ {
+		c := count[b]
+		if c > 1 {
+			flagSort(keys[start : start+c])
+		}
+		start += c
 	}
-	return unsafe.Slice((*float64)(unsafe.Pointer(unsafe.SliceData(src))), n)
+}
+
+func insertionSort(a []uint64) {
+	for i := 1; i < len(a); i++ {
+		k := a[i]
+		j := i
+		for j > 0 && a[j-1] > k {
+			a[j] = a[j-1]
+			j--
+		}
+		a[j] = k
+	}
 }

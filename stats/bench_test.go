@@ -1,0 +1,167 @@
+package stats
+
+import (
+	"math/rand/v2"
+	"runtime"
+	"runtime/debug"
+	"slices"
+	"strconv"
+	"strings"
+	"sync"
+	"testing"
+
+	"lotlens/stats/ingest"
+)
+
+// Speed goals (issue 3): the full analysis of 1,000,000 values from text in
+// at most 0.15 s natively and 10,000,000 in at most 1.5 s; peak memory
+// beyond the input text at most 24 bytes per value. Run:
+//
+//	go test -run '^$' -bench 'Analyze|Baseline|Core' -benchtime 5x ./stats/
+//
+// BenchmarkBaseline* is a plain parse + sum + sort of the same text, measured
+// in the same run, so the engine can be reported as a ratio to it.
+
+var benchText = map[int]string{}
+var benchMu sync.Mutex
+
+// benchData is n invented fill weights with 2 decimals, one a line.
+func benchData(n int) string {
+	benchMu.Lock()
+	defer benchMu.Unlock()
+	if s, ok := benchText[n]; ok {
+		return s
+	}
+	r := rand.New(rand.NewPCG(11, 12))
+	var b strings.Builder
+	b.Grow(n * 7)
+	for i := 0; i < n; i++ {
+		x := 500 + 1.5*r.NormFloat64()
+		b.WriteString(strconv.FormatFloat(x, 'f', 2, 64))
+		b.WriteByte('\n')
+	}
+	benchText[n] = b.String()
+	return benchText[n]
+}
+
+// allocPerValue measures the bytes allocated by f with the collector off:
+// an upper bound of its peak memory.
+func allocPerValue(n int, f func()) float64 {
+	runtime.GC()
+	old := debug.SetGCPercent(-1)
+	var m0, m1 runtime.MemStats
+	runtime.ReadMemStats(&m0)
+	f()
+	runtime.ReadMemStats(&m1)
+	debug.SetGCPercent(old)
+	return float64(m1.TotalAlloc-m0.TotalAlloc) / float64(n)
+}
+
+func benchAnalyze(b *testing.B, n int) {
+	text := benchData(n)
+	b.SetBytes(int64(len(text)))
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if _, err := Analyze(Request{Text: text}); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.StopTimer()
+	b.ReportMetric(allocPerValue(n, func() { Analyze(Request{Text: text}) }), "allocB/value")
+	var tab *ingest.Table
+	readB := allocPerValue(n, func() { tab, _ = ingest.Read(text) })
+	b.ReportMetric(readB, "readerB/value")
+	b.ReportMetric(allocPerValue(n, func() { AnalyzeTable(tab, "", Request{}) }), "engineB/value")
+}
+
+func BenchmarkAnalyze1M(b *testing.B)  { benchAnalyze(b, 1_000_000) }
+func BenchmarkAnalyze10M(b *testing.B) { benchAnalyze(b, 10_000_000) }
+
+// BenchmarkCore1M is the engine alone on a table already read.
+func BenchmarkCore1M(b *testing.B) {
+	text := benchData(1_000_000)
+	tab, err := ingest.Read(text)
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if _, err := AnalyzeTable(tab, "", Request{}); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkRead1M is the reader alone.
+func BenchmarkRead1M(b *testing.B) {
+	text := benchData(1_000_000)
+	b.SetBytes(int64(len(text)))
+	for i := 0; i < b.N; i++ {
+		if _, err := ingest.Read(text); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+func baseline(text string) float64 {
+	xs := make([]float64, 0, len(text)/6)
+	for len(text) > 0 {
+		j := strings.IndexByte(text, '\n')
+		if j < 0 {
+			j = len(text)
+		}
+		v, err := strconv.ParseFloat(text[:j], 64)
+		if err == nil {
+			xs = append(xs, v)
+		}
+		if j == len(text) {
+			break
+		}
+		text = text[j+1:]
+	}
+	var s float64
+	for _, x := range xs {
+		s += x
+	}
+	slices.Sort(xs)
+	return s + xs[len(xs)/2]
+}
+
+// BenchmarkBaseline1M: parse + sum + slices.Sort of the same text.
+func BenchmarkBaseline1M(b *testing.B) {
+	text := benchData(1_000_000)
+	b.SetBytes(int64(len(text)))
+	for i := 0; i < b.N; i++ {
+		baseline(text)
+	}
+}
+
+func BenchmarkBaseline10M(b *testing.B) {
+	text := benchData(10_000_000)
+	b.SetBytes(int64(len(text)))
+	for i := 0; i < b.N; i++ {
+		baseline(text)
+	}
+}
+
+// BenchmarkSort1M: the radix sort against slices.Sort on the same keys.
+func BenchmarkSort1M(b *testing.B) {
+	r := rand.New(rand.NewPCG(1, 1))
+	src := make([]float64, 1_000_000)
+	for i := range src {
+		src[i] = 500 + r.NormFloat64()
+	}
+	xs := make([]float64, len(src))
+	b.Run("radix", func(b *testing.B) {
+		for i := 0; i < b.N; i++ {
+			copy(xs, src)
+			sortFloats(xs)
+		}
+	})
+	b.Run("slices.Sort", func(b *testing.B) {
+		for i := 0; i < b.N; i++ {
+			copy(xs, src)
+			slices.Sort(xs)
+		}
+	})
+}
