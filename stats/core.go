@@ -166,7 +166,17 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	rep.Centre = c
 
 	// Spread.
-	s := &Spread{Range: hi - lo, SD: mo.sd, IQR: qs.Q3 - qs.Q1, MAD: 1.4826 * madRaw(sorted, median)}
+	rng := hi - lo
+	if mo.exact {
+		// exact on the decimal mantissas: 0.3 - 0.1 is 0.2, not 0.19999999999999998
+		p := pow10tab[mo.decMax]
+		if ml, okl := mantissa(lo, int8(mo.decMax)); okl {
+			if mh, okh := mantissa(hi, int8(mo.decMax)); okh {
+				rng = float64(mh-ml) / p
+			}
+		}
+	}
+	s := &Spread{Range: rng, SD: mo.sd, IQR: qs.Q3 - qs.Q1, MAD: 1.4826 * madRaw(sorted, median)}
 	if mo.varInf {
 		rep.Notes = append(rep.Notes, Note{Field: "spread.variance", Text: "the variance exceeds the largest double-precision number (1.8e308) and is omitted; the SD is given"})
 	} else {
@@ -234,6 +244,7 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	ch.Box = boxElements(sorted, qs.Q1, qs.Median, qs.Q3)
 	if hookProbPlot != nil && n >= 3 && !constant {
 		ch.ProbPlot = hookProbPlot(sorted, mo.mean, mo.sd, opts.Confidence, maxChartPoints)
+		probPlotRows(ch.ProbPlot.Points, cv)
 	} else {
 		ch.ProbPlot = ProbPlot{Points: []ProbPt{}, Band: []BandPt{}}
 	}
@@ -506,4 +517,28 @@ func mapFlags(sorted []float64, flags map[int][]Flag, cv *colView) []Suspect {
 	}
 	sort.SliceStable(out, func(a, b int) bool { return out[a].Row < out[b].Row })
 	return out
+}
+
+// probPlotRows fills the row of each probability-plot point: readings that
+// hold the same value are handed out in data order, one per point.
+func probPlotRows(pts []ProbPt, cv *colView) {
+	if len(pts) == 0 {
+		return
+	}
+	want := make(map[float64][]int32, len(pts))
+	need := make(map[float64]int, len(pts))
+	for _, p := range pts {
+		need[p.Y]++
+	}
+	for i, x := range cv.vals {
+		if k, ok := need[x]; ok && len(want[x]) < k && !cv.excludedByUser[cv.rows[i]] {
+			want[x] = append(want[x], cv.rows[i])
+		}
+	}
+	for i := range pts {
+		if rows := want[pts[i].Y]; len(rows) > 0 {
+			pts[i].Row = int(rows[0])
+			want[pts[i].Y] = rows[1:]
+		}
+	}
 }

@@ -334,3 +334,11 @@ func mustRead(t testing.TB, path string) string {
 	}
 	return string(b)
 }
+
+func TestExactRange(t *testing.T) {
+	// from memory: 0.3 - 0.1 = 0.2 in decimal; binary floating point gives 0.19999999999999998
+	rep, _ := Analyze(Request{Text: lines("0.1", "0.2", "0.3")})
+	if rep.Spread.Range != 0.2 {
+		t.Errorf("range %v, want 0.2", rep.Spread.Range)
+	}
+}
