@@ -1,36 +1,62 @@
 package site
 
 // Browser tests: the built site (dist/, made by `make dist`) served with the
-// worker's headers, driven in headless Chromium through chromedp. `make test`
-// runs them; `go test -short` skips them.
+// edge worker's headers, driven in headless Chromium through chromedp.
+// `make test` runs them; `go test -short` skips them. Screenshots of the main
+// states go to testdata/artefacts/ (gitignored).
 
 import (
+	"bytes"
 	"context"
+	"crypto/sha256"
+	"encoding/hex"
+	"encoding/json"
 	"fmt"
 	"math"
+	"net/http"
 	"net/http/httptest"
+	"net/http/httputil"
+	"net/url"
 	"os"
 	"os/exec"
+	"path/filepath"
 	"strconv"
+	"strings"
+	"sync"
 	"testing"
 	"time"
 
+	"github.com/chromedp/cdproto/emulation"
+	"github.com/chromedp/cdproto/network"
+	"github.com/chromedp/cdproto/page"
+	"github.com/chromedp/cdproto/runtime"
 	"github.com/chromedp/chromedp"
 
 	"lotlens/build/dist"
 	"lotlens/stats"
 )
 
-const distDir = "../dist"
+const (
+	distDir   = "../dist"
+	artefacts = "../testdata/artefacts"
+)
 
-// browser serves dist/ and starts headless Chromium; it returns a chromedp
-// context and the site's base URL.
-func browser(t *testing.T) (context.Context, string) {
+func awaitPromise(p *runtime.EvaluateParams) *runtime.EvaluateParams { return p.WithAwaitPromise(true) }
+
+// session is one served dist/ and one headless Chromium.
+type session struct {
+	ctx  context.Context
+	base string
+	srv  *httptest.Server
+}
+
+// browser serves dist/ and starts headless Chromium.
+func browser(t *testing.T, extra ...chromedp.ExecAllocatorOption) *session {
 	t.Helper()
 	if testing.Short() {
 		t.Skip("browser tests skipped with -short")
 	}
-	if _, err := os.Stat(distDir + "/lotlens.wasm"); err != nil {
+	if _, err := os.Stat(distDir + "/index.html"); err != nil {
 		t.Fatalf("dist/ is not built: run `make dist` first (%v)", err)
 	}
 	exe := os.Getenv("CHROMIUM")
@@ -42,27 +68,137 @@ func browser(t *testing.T) (context.Context, string) {
 	}
 	srv := httptest.NewServer(dist.Handler(distDir))
 	t.Cleanup(srv.Close)
-	opts := []chromedp.ExecAllocatorOption{
-		chromedp.ExecPath(exe),
-		chromedp.Headless, chromedp.NoSandbox, chromedp.DisableGPU, chromedp.NoFirstRun,
-		chromedp.Flag("disable-background-networking", true),
-		chromedp.Flag("disable-component-update", true),
-		chromedp.Flag("disable-sync", true),
-		chromedp.Flag("disable-quic", true),
-		chromedp.UserDataDir(t.TempDir()),
-		chromedp.WindowSize(1024, 768),
+	// The profile is removed after Chromium exits (t.TempDir's own cleanup
+	// can race Chromium's last writes).
+	profile, err := os.MkdirTemp("", "lotlens-chromium-")
+	if err != nil {
+		t.Fatal(err)
 	}
+	t.Cleanup(func() { os.RemoveAll(profile) })
+	opts := append([]chromedp.ExecAllocatorOption{}, chromedp.DefaultExecAllocatorOptions[:]...)
+	opts = append(opts,
+		chromedp.ExecPath(exe),
+		chromedp.NoSandbox, chromedp.DisableGPU,
+		chromedp.Flag("disable-component-update", true),
+		chromedp.Flag("disable-quic", true),
+		chromedp.Flag("disable-domain-reliability", true),
+		chromedp.Flag("no-pings", true),
+		chromedp.UserDataDir(profile),
+		chromedp.WindowSize(1024, 768),
+	)
+	opts = append(opts, extra...)
 	actx, cancelA := chromedp.NewExecAllocator(context.Background(), opts...)
 	ctx, cancelC := chromedp.NewContext(actx)
 	ctx, cancelT := context.WithTimeout(ctx, 60*time.Second)
 	t.Cleanup(func() { cancelT(); cancelC(); cancelA() })
-	return ctx, srv.URL
+	// Any alert() would mean script injection: fail and dismiss it.
+	chromedp.ListenTarget(ctx, func(ev any) {
+		if d, ok := ev.(*page.EventJavascriptDialogOpening); ok {
+			t.Errorf("a JavaScript dialog opened: %q (script injection?)", d.Message)
+			go chromedp.Run(ctx, page.HandleJavaScriptDialog(false))
+		}
+	})
+	return &session{ctx: ctx, base: srv.URL, srv: srv}
 }
 
-// TestPasteShowsEngineNumbers pastes values into the page and checks that the
-// figures shown equal the engine's own (run natively here).
+// open loads the page and waits for the engine.
+func (s *session) open(t *testing.T) {
+	t.Helper()
+	if err := chromedp.Run(s.ctx,
+		chromedp.Navigate(s.base+"/"),
+		chromedp.WaitVisible(`body[data-ready="1"]`, chromedp.ByQuery),
+	); err != nil {
+		t.Fatal(err)
+	}
+}
+
+// analysed waits until the page has shown its n-th report (or an error).
+func analysed(n int) chromedp.Action {
+	return chromedp.Poll(fmt.Sprintf(`(document.body.dataset.analysed|0) >= %d || document.body.dataset.state === "error"`, n), nil,
+		chromedp.WithPollingTimeout(30*time.Second))
+}
+
+func (s *session) state(t *testing.T) string {
+	var st string
+	if err := chromedp.Run(s.ctx, chromedp.Evaluate(`document.body.dataset.state || ""`, &st)); err != nil {
+		t.Fatal(err)
+	}
+	if st == "error" {
+		var msg string
+		chromedp.Run(s.ctx, chromedp.Text("#status", &msg, chromedp.ByID))
+		t.Fatalf("the page shows an error: %s", msg)
+	}
+	return st
+}
+
+// paste puts text in the box and sends the paste event the page listens to.
+func paste(text string) chromedp.Action {
+	js, _ := json.Marshal(text)
+	return chromedp.Evaluate(fmt.Sprintf(`(() => { const d = document.getElementById("data"); d.value = %s;
+		d.dispatchEvent(new ClipboardEvent("paste", {bubbles: true})); return true })()`, js), nil)
+}
+
+// shot saves a PNG screenshot of the whole page under testdata/artefacts.
+func (s *session) shot(t *testing.T, name string) {
+	t.Helper()
+	var buf []byte
+	if err := chromedp.Run(s.ctx, chromedp.FullScreenshot(&buf, 100)); err != nil {
+		t.Logf("screenshot %s: %v", name, err)
+		return
+	}
+	save(t, name, buf)
+}
+
+func save(t *testing.T, name string, b []byte) {
+	if err := os.MkdirAll(artefacts, 0o755); err != nil {
+		t.Log(err)
+		return
+	}
+	p := filepath.Join(artefacts, name)
+	if err := os.WriteFile(p, b, 0o644); err != nil {
+		t.Log(err)
+	}
+}
+
+// fields reads every number the page shows with its exact value.
+func (s *session) fields(t *testing.T) map[string][2]string {
+	t.Helper()
+	var got map[string][2]string
+	if err := chromedp.Run(s.ctx, chromedp.Evaluate(`(() => { const o = {};
+		for (const e of document.querySelectorAll("#cards [data-field]")) if (!(e.dataset.field in o)) o[e.dataset.field] = [e.textContent, e.dataset.value];
+		return o })()`, &got)); err != nil {
+		t.Fatal(err)
+	}
+	return got
+}
+
+// checkShown compares a number on the page with the engine's: the exact
+// value carried by the element, and the text rounded from it.
+func checkShown(t *testing.T, got map[string][2]string, field string, want float64) {
+	t.Helper()
+	f, ok := got[field]
+	if !ok {
+		t.Errorf("the page shows no %s", field)
+		return
+	}
+	exact, err := strconv.ParseFloat(f[1], 64)
+	if err != nil || exact != want {
+		t.Errorf("%s: page carries %q, engine says %v", field, f[1], want)
+	}
+	shown, err := strconv.ParseFloat(strings.Replace(f[0], ",", ".", 1), 64)
+	dec := 0
+	if i := strings.IndexAny(f[0], ".,"); i >= 0 {
+		dec = len(f[0]) - i - 1
+	}
+	if err != nil || math.Abs(shown-want) > 0.5*math.Pow(10, -float64(dec))*(1+1e-9) {
+		t.Errorf("%s: page shows %q, engine says %v", field, f[0], want)
+	}
+}
+
+// TestPasteShowsEngineNumbers pastes values and checks that the figures shown
+// equal the engine's own (stats.Analyze run natively here).
 func TestPasteShowsEngineNumbers(t *testing.T) {
-	ctx, base := browser(t)
+	s := browser(t)
 	// NIST StRD Michelso (testdata/nist): the engine's native answer is the check value.
 	data, err := os.ReadFile("../testdata/nist/Michelso.dat")
 	if err != nil {
@@ -72,43 +208,396 @@ func TestPasteShowsEngineNumbers(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	var n, mean, median, sd string
-	err = chromedp.Run(ctx,
-		chromedp.Navigate(base+"/"),
-		chromedp.WaitVisible(`body[data-ready="1"]`, chromedp.ByQuery),
-		chromedp.SetValue("#data", string(data), chromedp.ByID),
-		chromedp.Click("#analyse", chromedp.ByID),
-		chromedp.WaitVisible(`#report`, chromedp.ByID),
-		chromedp.Text("#n", &n, chromedp.ByID),
-		chromedp.Text("#mean", &mean, chromedp.ByID),
-		chromedp.Text("#median", &median, chromedp.ByID),
-		chromedp.Text("#sd", &sd, chromedp.ByID),
+	s.open(t)
+	s.shot(t, "01-start-1024.png")
+	if err := chromedp.Run(s.ctx, paste(string(data)), analysed(1)); err != nil {
+		t.Fatal(err)
+	}
+	s.state(t)
+	got := s.fields(t)
+	checkShown(t, got, "used", float64(want.Counts.Used))
+	if want.Centre != nil {
+		checkShown(t, got, "mean-all", want.Centre.Mean)
+		checkShown(t, got, "median-all", want.Centre.Median)
+		// NIST's certified mean for Michelso, to 12 digits.
+		v, _ := strconv.ParseFloat(got["mean-all"][1], 64)
+		if math.Abs(v-299.852400000000) > 1e-12*299.8524 {
+			t.Errorf("page mean %v, NIST certifies 299.852400000000", v)
+		}
+	}
+	if want.Spread != nil {
+		checkShown(t, got, "sd-all", want.Spread.SD)
+		// NIST's certified SD for Michelso.
+		v, _ := strconv.ParseFloat(got["sd-all"][1], 64)
+		if math.Abs(v-0.0790105478190518) > 1e-12*0.079 {
+			t.Errorf("page SD %v, NIST certifies 0.0790105478190518", v)
+		}
+		if want.Spread.IQR != 0 {
+			checkShown(t, got, "iqr-all", want.Spread.IQR)
+		}
+	}
+	var fp string
+	if err := chromedp.Run(s.ctx, chromedp.Text(".fp", &fp, chromedp.ByQuery)); err != nil {
+		t.Fatal(err)
+	}
+	if fp != want.Input.Fingerprint {
+		t.Errorf("fingerprint shown %q, engine %q", fp, want.Input.Fingerprint)
+	}
+	s.shot(t, "02-report-paste-1024.png")
+	// The automation entry point gives the same report.
+	var rep stats.Report
+	js, _ := json.Marshal(string(data))
+	if err := chromedp.Run(s.ctx, chromedp.Evaluate(`lotlens.analyse({text: `+string(js)+`})`, &rep,
+		awaitPromise)); err != nil {
+		t.Fatal(err)
+	}
+	a, _ := json.Marshal(rep)
+	b, _ := json.Marshal(want)
+	if !bytes.Equal(a, b) {
+		t.Errorf("lotlens.analyse differs from stats.Analyze:\n%s\n%s", a, b)
+	}
+	// Full precision on request.
+	if err := chromedp.Run(s.ctx, chromedp.Click("#precision", chromedp.ByID)); err != nil {
+		t.Fatal(err)
+	}
+	if want.Centre != nil {
+		if got := s.fields(t)["mean-all"]; got[0] != got[1] {
+			t.Errorf("full precision: shown %q, exact %q", got[0], got[1])
+		}
+	}
+}
+
+// TestDropFile drops a file (made in the page) and checks the report, the
+// fingerprint of the bytes and the problem rows in the preview.
+func TestDropFile(t *testing.T) {
+	s := browser(t)
+	var b strings.Builder
+	b.WriteString("weight\n")
+	for i := 0; i < 300; i++ { // invented values for the page test
+		fmt.Fprintf(&b, "%.2f\n", 5+0.01*float64(i%17)-0.003*float64(i%5))
+		if i == 6 {
+			b.WriteString("n/a\n")
+		}
+	}
+	text := b.String()
+	want, err := stats.Analyze(stats.Request{Text: text})
+	if err != nil {
+		t.Fatal(err)
+	}
+	sum := sha256.Sum256([]byte(text))
+	js, _ := json.Marshal(text)
+	s.open(t)
+	err = chromedp.Run(s.ctx,
+		chromedp.Evaluate(`(() => { const dt = new DataTransfer();
+			dt.items.add(new File([`+string(js)+`], "fill-weights.csv", {type: "text/csv"}));
+			const t = document.getElementById("input");
+			t.dispatchEvent(new DragEvent("dragover", {bubbles: true, cancelable: true, dataTransfer: dt}));
+			t.dispatchEvent(new DragEvent("drop", {bubbles: true, cancelable: true, dataTransfer: dt}));
+			return true })()`, nil),
+		analysed(1))
+	if err != nil {
+		t.Fatal(err)
+	}
+	s.state(t)
+	got := s.fields(t)
+	checkShown(t, got, "used", float64(want.Counts.Used))
+	if want.Centre != nil {
+		checkShown(t, got, "mean-all", want.Centre.Mean)
+	}
+	var fp string
+	var problemRows []int
+	if err := chromedp.Run(s.ctx,
+		chromedp.Text(".fp", &fp, chromedp.ByQuery),
+		chromedp.Evaluate(`Array.from(document.querySelectorAll("#preview tr.problem th")).map((e) => +e.textContent)`, &problemRows),
+	); err != nil {
+		t.Fatal(err)
+	}
+	if fp != hex.EncodeToString(sum[:]) {
+		t.Errorf("fingerprint %s, want SHA-256 of the file's bytes %x", fp, sum)
+	}
+	// "n/a" is on line 9 of the file (header, 7 values, then it).
+	found := false
+	for _, r := range problemRows {
+		found = found || r == 9
+	}
+	if !found {
+		t.Errorf("preview marks rows %v as problems, want row 9 (n/a) among them", problemRows)
+	}
+	s.shot(t, "03-report-drop-1024.png")
+}
+
+// TestExclusionRecomputes leaves a reading out and checks the page shows the
+// engine's figures for the data without it, and lists the exclusion.
+func TestExclusionRecomputes(t *testing.T) {
+	s := browser(t)
+	text := "5.02\n5.04\n4.98\n5.01\n6.40\n5.00\n4.99\n5.03\n5.02\n4.97\n5.01\n5.00\n" // invented: row 5 is far out
+	full, err := stats.Analyze(stats.Request{Text: text})
+	if err != nil {
+		t.Fatal(err)
+	}
+	without, err := stats.Analyze(stats.Request{Text: text, Options: stats.Options{Exclude: []int{5}}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if without.Counts.Used != full.Counts.Used-1 {
+		t.Fatalf("the engine does not honour Options.Exclude (used %d, then %d)", full.Counts.Used, without.Counts.Used)
+	}
+	s.open(t)
+	if err := chromedp.Run(s.ctx, paste(text), analysed(1)); err != nil {
+		t.Fatal(err)
+	}
+	s.state(t)
+	// Use the suspect reading's switch when the engine flags row 5, the
+	// leave-out box otherwise.
+	var hasToggle bool
+	if err := chromedp.Run(s.ctx, chromedp.Evaluate(`!!document.querySelector('button.toggle[data-row="5"]')`, &hasToggle)); err != nil {
+		t.Fatal(err)
+	}
+	act := chromedp.Action(chromedp.Click(`button.toggle[data-row="5"]`, chromedp.ByQuery))
+	if !hasToggle {
+		act = chromedp.SendKeys("#leave-out", "5", chromedp.ByID)
+	}
+	if err := chromedp.Run(s.ctx, act, analysed(2)); err != nil {
+		t.Fatal(err)
+	}
+	s.state(t)
+	got := s.fields(t)
+	checkShown(t, got, "used", float64(without.Counts.Used))
+	checkShown(t, got, "mean-all", without.Centre.Mean)
+	checkShown(t, got, "sd-all", without.Spread.SD)
+	var listed string
+	if err := chromedp.Run(s.ctx, chromedp.Text("#exclusion-list", &listed, chromedp.ByID)); err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(listed, "Row 5") {
+		t.Errorf("exclusion list %q does not name row 5", listed)
+	}
+	s.shot(t, "04-exclusion-1024.png")
+}
+
+// TestPrintView renders the print stylesheet: the input panel is hidden, the
+// print header carries title, date, fingerprint, settings and exclusions, and
+// Chromium prints a one- or two-page A4 PDF.
+func TestPrintView(t *testing.T) {
+	s := browser(t)
+	s.open(t)
+	if err := chromedp.Run(s.ctx, chromedp.Click("#demo", chromedp.ByID), analysed(1)); err != nil {
+		t.Fatal(err)
+	}
+	s.state(t)
+	var head string
+	var panelShown, headShown bool
+	var pdf []byte
+	err := chromedp.Run(s.ctx,
+		emulation.SetEmulatedMedia().WithMedia("print"),
+		chromedp.Evaluate(`getComputedStyle(document.getElementById("input")).display !== "none"`, &panelShown),
+		chromedp.Evaluate(`getComputedStyle(document.getElementById("print-head")).display !== "none"`, &headShown),
+		chromedp.Text("#print-head", &head, chromedp.ByID),
+		chromedp.ActionFunc(func(ctx context.Context) error {
+			var err error
+			pdf, _, err = page.PrintToPDF().WithPaperWidth(8.27).WithPaperHeight(11.69).Do(ctx)
+			return err
+		}),
+		emulation.SetEmulatedMedia().WithMedia(""),
 	)
 	if err != nil {
 		t.Fatal(err)
 	}
-	for _, c := range []struct {
-		name, got string
-		want      float64
-	}{
-		{"n", n, float64(want.Counts.Used)},
-		{"mean", mean, want.Centre.Mean},
-		{"median", median, want.Centre.Median},
-		{"sd", sd, want.Spread.SD},
-	} {
-		got, err := strconv.ParseFloat(c.got, 64)
-		if err != nil || got != c.want {
-			t.Errorf("page shows %s = %q, engine says %s", c.name, c.got, fmt.Sprint(c.want))
+	if panelShown || !headShown {
+		t.Errorf("print media: input panel shown %v, print header shown %v", panelShown, headShown)
+	}
+	for _, want := range []string{"Lotlens report", "fingerprint", "Settings:", "Confidence level", "left out"} {
+		if !strings.Contains(head, want) {
+			t.Errorf("print header lacks %q:\n%s", want, head)
 		}
 	}
-	// And against NIST's certified values for Michelso, to 12 digits.
-	for _, c := range []struct {
-		name, got string
-		want      float64
-	}{{"mean", mean, 299.852400000000}, {"sd", sd, 0.0790105478190518}} {
-		got, _ := strconv.ParseFloat(c.got, 64)
-		if math.Abs(got-c.want) > 1e-12*math.Abs(c.want) {
-			t.Errorf("page shows %s = %q, NIST certifies %.15g", c.name, c.got, c.want)
+	if !bytes.HasPrefix(pdf, []byte("%PDF")) || len(pdf) < 2000 {
+		t.Fatalf("PrintToPDF gave %d bytes, not a PDF", len(pdf))
+	}
+	pages := bytes.Count(pdf, []byte("/Type /Page")) - bytes.Count(pdf, []byte("/Type /Pages"))
+	t.Logf("print: %d bytes, %d A4 pages", len(pdf), pages)
+	if pages < 1 || pages > 2 {
+		t.Errorf("the report prints on %d A4 pages, want 1 or 2", pages)
+	}
+	save(t, "05-print-a4.pdf", pdf)
+}
+
+// TestOfflineReload loads the page once (the service worker caches the app),
+// then stops the server, turns the network off, reloads and analyses.
+func TestOfflineReload(t *testing.T) {
+	s := browser(t)
+	s.open(t)
+	var controlled bool
+	err := chromedp.Run(s.ctx,
+		chromedp.Evaluate(`navigator.serviceWorker.ready.then(() => true)`, nil,
+			awaitPromise),
+		chromedp.Poll(`!!navigator.serviceWorker.controller`, &controlled, chromedp.WithPollingTimeout(15*time.Second)),
+	)
+	if err != nil {
+		t.Fatalf("the service worker did not take control: %v", err)
+	}
+	s.srv.CloseClientConnections()
+	s.srv.Close()
+	err = chromedp.Run(s.ctx,
+		network.Enable(),
+		network.EmulateNetworkConditions(true, 0, -1, -1),
+		chromedp.Reload(),
+		chromedp.WaitVisible(`body[data-ready="1"]`, chromedp.ByQuery),
+		paste("12.1\n12.4\n11.9\n12.0\n12.2\n"),
+		analysed(1),
+	)
+	if err != nil {
+		t.Fatalf("offline reload: %v", err)
+	}
+	s.state(t)
+	got := s.fields(t)
+	want, _ := stats.Analyze(stats.Request{Text: "12.1\n12.4\n11.9\n12.0\n12.2\n"})
+	checkShown(t, got, "used", float64(want.Counts.Used))
+	s.shot(t, "06-offline-1024.png")
+}
+
+// TestNoRequestLeavesOrigin sends all of Chromium's traffic (page, worker
+// and service worker alike, loopback included) through a recording proxy
+// while the page loads, analyses the demo and makes a share link, and checks
+// that every request went to the page's own origin. A fetch to elsewhere must
+// also be refused by the Content-Security-Policy.
+func TestNoRequestLeavesOrigin(t *testing.T) {
+	var mu sync.Mutex
+	var seen []string
+	var origin *url.URL
+	proxy := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		mu.Lock()
+		seen = append(seen, r.Method+" "+r.Host+" "+r.URL.Path)
+		o := origin
+		mu.Unlock()
+		if r.Method == http.MethodConnect || o == nil || r.Host != o.Host {
+			http.Error(w, "refused by the test proxy", http.StatusForbidden)
+			return
 		}
+		httputil.NewSingleHostReverseProxy(o).ServeHTTP(w, r)
+	}))
+	defer proxy.Close()
+	s := browser(t,
+		chromedp.ProxyServer(proxy.URL),
+		chromedp.Flag("proxy-bypass-list", "<-loopback>"))
+	mu.Lock()
+	origin, _ = url.Parse(s.base)
+	mu.Unlock()
+	var blocked bool
+	err := chromedp.Run(s.ctx,
+		chromedp.Navigate(s.base+"/"),
+		chromedp.WaitVisible(`body[data-ready="1"]`, chromedp.ByQuery),
+		chromedp.Click("#demo", chromedp.ByID),
+		analysed(1),
+		chromedp.Click("#share", chromedp.ByID),
+		chromedp.WaitVisible("#share-box", chromedp.ByID),
+		chromedp.Evaluate(`fetch("https://example.invalid/x").then(() => false, () => true)`, &blocked, awaitPromise),
+		chromedp.Sleep(300*time.Millisecond),
+	)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s.state(t)
+	if !blocked {
+		t.Error("a fetch to another origin was not refused")
+	}
+	mu.Lock()
+	defer mu.Unlock()
+	sawWasm := false
+	browserOwn := 0
+	for _, r := range seen {
+		f := append(strings.Fields(r), "", "")
+		host := strings.Split(f[1], ":")[0]
+		switch {
+		case f[1] == origin.Host:
+		case chromiumService(host):
+			// Chromium's own update, clock and sign-in checks: browser
+			// traffic, not the page's (the page's CSP refuses these hosts,
+			// as the fetch above shows).
+			browserOwn++
+		default:
+			t.Errorf("request leaves the origin: %s", r)
+		}
+		sawWasm = sawWasm || strings.HasSuffix(f[2], ".wasm")
+	}
+	if browserOwn > 0 {
+		t.Logf("%d requests by Chromium itself to its own services (not the page)", browserOwn)
+	}
+	if !sawWasm || len(seen) < 5 {
+		t.Errorf("the proxy saw %d requests (engine among them: %v): the log is not working", len(seen), sawWasm)
+	}
+	t.Logf("%d requests, all to %s", len(seen), origin.Host)
+}
+
+// chromiumService reports whether host is one of the services Chromium itself
+// calls (component updates, network time, sign-in, autofill hints).
+func chromiumService(host string) bool {
+	for _, d := range []string{"google.com", "googleapis.com", "gstatic.com", "gvt1.com"} {
+		if host == d || strings.HasSuffix(host, "."+d) {
+			return true
+		}
+	}
+	return false
+}
+
+// TestHeaderShownAsText pastes data whose header is HTML: it must appear as
+// text, never become an element or run.
+func TestHeaderShownAsText(t *testing.T) {
+	s := browser(t)
+	const header = `<img src=x onerror=alert(1)>`
+	text := header + "\n5.1\n5.3\n5.2\n5.4\n5.2\n"
+	s.open(t)
+	var imgs int
+	var body string
+	err := chromedp.Run(s.ctx, paste(text), analysed(1),
+		chromedp.Evaluate(`document.querySelectorAll('img[src="x"], #cards img, #preview img, svg img').length`, &imgs),
+		chromedp.Evaluate(`document.body.innerText`, &body),
+	)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s.state(t)
+	if imgs != 0 {
+		t.Errorf("%d <img> elements made from the header", imgs)
+	}
+	if !strings.Contains(body, header) {
+		t.Errorf("the header is not shown as text")
+	}
+	time.Sleep(300 * time.Millisecond) // give a stray onerror a moment to fire
+	s.shot(t, "07-header-as-text.png")
+}
+
+// TestNarrowScreens takes screenshots at phone and tablet-portrait widths
+// and checks that every control is at least 44 px tall and nothing scrolls
+// sideways.
+func TestNarrowScreens(t *testing.T) {
+	s := browser(t)
+	s.open(t)
+	if err := chromedp.Run(s.ctx, chromedp.Click("#demo", chromedp.ByID), analysed(1)); err != nil {
+		t.Fatal(err)
+	}
+	s.state(t)
+	for _, w := range []int64{768, 390} {
+		var small []string
+		var overflow bool
+		err := chromedp.Run(s.ctx,
+			chromedp.EmulateViewport(w, 1024),
+			chromedp.Sleep(150*time.Millisecond),
+			chromedp.Evaluate(`Array.from(document.querySelectorAll("button, select, input:not([type=file]), textarea, summary"))
+				.map((e) => e.type === "checkbox" ? e.closest("label") : e)
+				.filter((e) => e.offsetParent !== null && e.getBoundingClientRect().height < 43.5)
+				.map((e) => (e.id || e.textContent.trim().slice(0, 30)) + " " + Math.round(e.getBoundingClientRect().height))`, &small),
+			chromedp.Evaluate(`document.documentElement.scrollWidth > window.innerWidth + 1`, &overflow),
+		)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(small) > 0 {
+			t.Errorf("width %d: controls under 44 px: %v", w, small)
+		}
+		if overflow {
+			t.Errorf("width %d: the page scrolls sideways", w)
+		}
+		s.shot(t, fmt.Sprintf("08-demo-%d.png", w))
 	}
 }

@@ -1,12 +1,91 @@
-// Web Worker: runs the Go engine (lotlens.wasm) off the page's main thread.
-// Messages in: {id, request}. Messages out: {type:"ready"} once, then
-// {id, report} where report is the engine's JSON text.
+// Web Worker: runs the Go engine (lotlens.wasm) off the page's main thread,
+// so the page never freezes. Messages in (from app.js):
+//   {type:"run", id, request, useTable}  analyse; reply {type:"result", id, json}
+//   {type:"analyse", id, request}        automation; reply {type:"report", id, json}
+//   {type:"file", id, file}              read a File in chunks; replies
+//        {type:"progress", id, read, total} and then {type:"file-read", id, json, preview}
+//   {type:"cancel"}                      stop reading; reply {type:"cancelled", id}
+//   {type:"forget"}                      drop the kept file table
+// Out, once: {type:"ready"} (posted by the Go side) or {type:"error", error}.
+"use strict";
 importScripts("wasm_exec.js");
+
 const go = new Go();
-WebAssembly.instantiateStreaming(fetch("lotlens.wasm"), go.importObject)
+async function load() {
+  const url = "lotlens.wasm";
+  try {
+    return await WebAssembly.instantiateStreaming(fetch(url), go.importObject);
+  } catch (e) {
+    // a server without the application/wasm type: compile from bytes
+    const buf = await (await fetch(url)).arrayBuffer();
+    return WebAssembly.instantiate(buf, go.importObject);
+  }
+}
+load()
   .then((r) => go.run(r.instance))
-  .catch((e) => postMessage({ type: "error", error: "the engine did not load: " + e }));
+  .catch((e) => postMessage({ type: "error", error: "The engine did not load (" + e + "). Reload the page; if it persists, the browser may block WebAssembly." }));
+
+let reading = null; // {id, cancelled}
+
+async function readFile(id, file) {
+  const job = { id, cancelled: false };
+  reading = job;
+  self.lotlensBegin(file.name || "file");
+  const total = file.size;
+  let read = 0, last = 0;
+  let preview = "";
+  const dec = new TextDecoder("utf-8", { fatal: false });
+  const rd = file.stream().getReader();
+  try {
+    for (;;) {
+      const { done, value } = await rd.read();
+      if (job.cancelled) {
+        rd.cancel().catch(() => {});
+        self.lotlensCancel();
+        postMessage({ type: "cancelled", id });
+        return;
+      }
+      if (done) break;
+      if (preview.length < 65536) preview += dec.decode(value.subarray(0, 65536), { stream: true });
+      const r = self.lotlensChunk(value);
+      if (typeof r === "string") {
+        postMessage({ type: "file-read", id, json: JSON.stringify({ error: r }) });
+        return;
+      }
+      read = r;
+      const now = performance.now();
+      if (now - last > 50) {
+        last = now;
+        postMessage({ type: "progress", id, read, total });
+      }
+    }
+    postMessage({ type: "progress", id, read, total });
+    postMessage({ type: "file-read", id, json: self.lotlensEnd(), preview });
+  } catch (e) {
+    self.lotlensCancel();
+    postMessage({ type: "file-read", id, json: JSON.stringify({ error: "Could not read " + file.name + ": " + e }) });
+  } finally {
+    if (reading === job) reading = null;
+  }
+}
+
 onmessage = (ev) => {
-  const { id, request } = ev.data;
-  postMessage({ id, report: self.lotlensAnalyze(JSON.stringify(request)) });
+  const m = ev.data;
+  switch (m.type) {
+    case "run":
+      postMessage({ type: "result", id: m.id, json: self.lotlensRun(JSON.stringify(m.request), !!m.useTable) });
+      break;
+    case "analyse":
+      postMessage({ type: "report", id: m.id, json: self.lotlensAnalyze(JSON.stringify(m.request)) });
+      break;
+    case "file":
+      readFile(m.id, m.file);
+      break;
+    case "cancel":
+      if (reading) reading.cancelled = true;
+      break;
+    case "forget":
+      self.lotlensForget();
+      break;
+  }
 };

@@ -1,23 +1,82 @@
 //go:build js && wasm
 
-// Command wasm is the only package that imports syscall/js. It is a thin JSON
-// bridge: the page's Web Worker calls lotlensAnalyze(requestJSON) and gets the
-// report JSON back. No logic lives here.
+// Command wasm is the only package that imports syscall/js. It binds the
+// engine's calls to JavaScript names inside the page's Web Worker
+// (site/engine.js); the logic is in package bridge, which tests natively.
+//
+//	lotlensAnalyze(requestJSON) -> reportJSON          the automation entry point
+//	lotlensRun(requestJSON, useTable) -> resultJSON    report + charts as SVG
+//	lotlensBegin(name)                                 start reading a file
+//	lotlensChunk(uint8Array) -> bytes so far | error   feed the next chunk
+//	lotlensEnd() -> JSON                               finish: fingerprint, columns
+//	lotlensCancel()                                    abandon the read
+//	lotlensForget()                                    drop the kept file table
 package main
 
 import (
 	"syscall/js"
 
 	"lotlens/stats"
+	"lotlens/wasm/bridge"
 )
 
 func main() {
-	js.Global().Set("lotlensAnalyze", js.FuncOf(func(this js.Value, args []js.Value) any {
-		if len(args) != 1 || args[0].Type() != js.TypeString {
+	var s bridge.Session
+	var buf []byte
+	g := js.Global()
+	str := func(args []js.Value, i int) (string, bool) {
+		if len(args) <= i || args[i].Type() != js.TypeString {
+			return "", false
+		}
+		return args[i].String(), true
+	}
+	g.Set("lotlensAnalyze", js.FuncOf(func(this js.Value, args []js.Value) any {
+		req, ok := str(args, 0)
+		if !ok {
 			return `{"error":"lotlensAnalyze takes one argument: the request as a JSON string"}`
 		}
-		return string(stats.AnalyzeJSON([]byte(args[0].String())))
+		return string(stats.AnalyzeJSON([]byte(req)))
 	}))
-	js.Global().Call("postMessage", map[string]any{"type": "ready"})
+	g.Set("lotlensRun", js.FuncOf(func(this js.Value, args []js.Value) any {
+		req, ok := str(args, 0)
+		if !ok {
+			return `{"error":"lotlensRun takes the request as a JSON string"}`
+		}
+		useTable := len(args) > 1 && args[1].Truthy()
+		return string(s.Analyze([]byte(req), useTable))
+	}))
+	g.Set("lotlensBegin", js.FuncOf(func(this js.Value, args []js.Value) any {
+		name, _ := str(args, 0)
+		s.Begin(name)
+		return nil
+	}))
+	g.Set("lotlensChunk", js.FuncOf(func(this js.Value, args []js.Value) any {
+		if len(args) != 1 || args[0].Type() != js.TypeObject {
+			return "lotlensChunk takes one Uint8Array"
+		}
+		n := args[0].Get("length").Int()
+		if cap(buf) < n {
+			buf = make([]byte, n)
+		}
+		buf = buf[:n]
+		js.CopyBytesToGo(buf, args[0])
+		read, err := s.Write(buf)
+		if err != nil {
+			return err.Error()
+		}
+		return float64(read)
+	}))
+	g.Set("lotlensEnd", js.FuncOf(func(this js.Value, args []js.Value) any {
+		return string(s.End())
+	}))
+	g.Set("lotlensCancel", js.FuncOf(func(this js.Value, args []js.Value) any {
+		s.Cancel()
+		return nil
+	}))
+	g.Set("lotlensForget", js.FuncOf(func(this js.Value, args []js.Value) any {
+		s.Forget()
+		return nil
+	}))
+	g.Call("postMessage", map[string]any{"type": "ready"})
 	select {}
 }

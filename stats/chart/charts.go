@@ -10,7 +10,7 @@ import (
 
 // Size of every chart's viewBox; the page scales it to its card.
 const (
-	Width  = 720.0
+	Width  = 640.0
 	Height = 300.0
 )
 
@@ -226,11 +226,11 @@ func Box(r *stats.Report) string {
 		f.Num(b.Q1, f.Decimals+1), f.Num(b.Median, f.Decimals+1), f.Num(b.Q3, f.Decimals+1),
 		f.Num(b.InnerLo, f.Decimals+1), f.Num(b.InnerHi, f.Decimals+1), len(sus))
 	c := newCanvas(Width, h, "box", "Box plot of "+valueLabel(r), desc)
-	c.vMarker(xs.at(b.InnerLo), 40, h-marginB, Orange, "6 4", "inner fence", "fence inner", 52)
-	c.vMarker(xs.at(b.InnerHi), 40, h-marginB, Orange, "6 4", "inner fence", "fence inner", 52)
+	c.line(xs.at(b.InnerLo), 34, xs.at(b.InnerLo), h-marginB, Orange, 2, "6 4", "fence inner")
+	c.line(xs.at(b.InnerHi), 34, xs.at(b.InnerHi), h-marginB, Orange, 2, "6 4", "fence inner")
 	if far && finite(b.OuterLo, b.OuterHi) {
-		c.vMarker(xs.at(b.OuterLo), 40, h-marginB, Vermilion, "2 3", "outer fence", "fence outer", 66)
-		c.vMarker(xs.at(b.OuterHi), 40, h-marginB, Vermilion, "2 3", "outer fence", "fence outer", 66)
+		c.line(xs.at(b.OuterLo), 34, xs.at(b.OuterLo), h-marginB, Vermilion, 2, "2 3", "fence outer")
+		c.line(xs.at(b.OuterHi), 34, xs.at(b.OuterHi), h-marginB, Vermilion, 2, "2 3", "fence outer")
 	}
 	// whiskers
 	c.line(xs.at(b.LoWhisker), mid, xs.at(b.Q1), mid, Black, 1.5, "", "whisker")
@@ -256,7 +256,7 @@ func Box(r *stats.Report) string {
 				lane++
 			}
 			lastX[lane] = x
-			c.text(x, mid+40+float64(lane)*15, "middle", "row-label", fmt.Sprintf("row %d", s.Row))
+			c.text(x, mid-32-float64(lane)*16, "middle", "row-label", fmt.Sprintf("row %d", s.Row))
 		}
 	}
 	c.xAxis(xs, xt, xdec, f, valueLabel(r), h-marginB)

@@ -143,7 +143,7 @@ const (
 
 func newCanvas(w, h float64, id, title, desc string) *canvas {
 	c := &canvas{w: w, h: h}
-	fmt.Fprintf(&c.b, `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 %g %g" width="%g" height="%g" role="img" aria-labelledby="%s-t %s-d" class="chart" data-chart="%s" font-family="system-ui, sans-serif" font-size="13">`,
+	fmt.Fprintf(&c.b, `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 %g %g" width="%g" height="%g" role="img" aria-labelledby="%s-t %s-d" class="chart" data-chart="%s" font-family="system-ui, sans-serif" font-size="15">`,
 		w, h, w, h, id, id, id)
 	fmt.Fprintf(&c.b, `<title id="%s-t">%s</title><desc id="%s-d">%s</desc>`, id, esc(title), id, esc(desc))
 	fmt.Fprintf(&c.b, `<rect x="0" y="0" width="%g" height="%g" fill="#ffffff"/>`, w, h)
@@ -245,7 +245,7 @@ func (c *canvas) legend(items []legendItem) {
 			c.markerPlain(it.kind, x+11, y-4, 5, it.colour)
 		}
 		c.text(x+27, y, "start", "legend-label", it.label)
-		x += 27 + 7.5*float64(len([]rune(it.label))) + 16
+		x += 27 + 8*float64(len([]rune(it.label))) + 18
 	}
 	c.printf(`</g>`)
 }

@@ -1,0 +1,115 @@
+package bridge
+
+import (
+	"bytes"
+	"encoding/json"
+	"os"
+	"strings"
+	"testing"
+
+	"lotlens/stats"
+)
+
+type result struct {
+	Report *stats.Report     `json:"report"`
+	SVG    map[string]string `json:"svg"`
+	Error  string            `json:"error"`
+}
+
+func decode(t *testing.T, b []byte) result {
+	t.Helper()
+	var r result
+	if err := json.Unmarshal(b, &r); err != nil {
+		t.Fatalf("not JSON: %v: %s", err, b)
+	}
+	return r
+}
+
+func feed(t *testing.T, s *Session, data []byte, chunk int) {
+	t.Helper()
+	s.Begin("test.txt")
+	for i := 0; i < len(data); i += chunk {
+		j := min(i+chunk, len(data))
+		n, err := s.Write(data[i:j])
+		if err != nil {
+			t.Fatal(err)
+		}
+		if n != int64(j) {
+			t.Fatalf("bytes read %d, want %d", n, j)
+		}
+	}
+}
+
+func TestFingerprintWhileStreaming(t *testing.T) {
+	data := []byte("5.12\n5.08\n5.10\n")
+	var s Session
+	feed(t, &s, data, 4) // chunk edges fall inside values
+	var end struct {
+		Fingerprint string `json:"fingerprint"`
+		Bytes       int64  `json:"bytes"`
+		Error       string `json:"error"`
+	}
+	if err := json.Unmarshal(s.End(), &end); err != nil || end.Error != "" {
+		t.Fatalf("end: %v %s", err, end.Error)
+	}
+	// sha256sum (GNU coreutils 9.1) of the same 15 bytes.
+	if want := "31f51fd5706103f52a2d313c1446945b0b7d9d39a16d18368e6698640ee0fde3"; end.Fingerprint != want {
+		t.Errorf("fingerprint %s, want %s", end.Fingerprint, want)
+	}
+	if end.Bytes != 15 {
+		t.Errorf("bytes %d, want 15", end.Bytes)
+	}
+}
+
+// A file read in chunks gives the same report as the same text pasted.
+func TestChunkedEqualsPasted(t *testing.T) {
+	data, err := os.ReadFile("../../testdata/nist/Michelso.dat")
+	if err != nil {
+		t.Fatal(err)
+	}
+	req, _ := json.Marshal(stats.Request{Text: string(data)})
+	pasted := decode(t, new(Session).Analyze(req, false))
+	if pasted.Error != "" {
+		t.Fatal(pasted.Error)
+	}
+	for _, chunk := range []int{1, 7, 4096, len(data)} {
+		var s Session
+		feed(t, &s, data, chunk)
+		s.End()
+		got := decode(t, s.Analyze([]byte(`{"options":{}}`), true))
+		if got.Error != "" {
+			t.Fatalf("chunk %d: %s", chunk, got.Error)
+		}
+		a, _ := json.Marshal(got.Report)
+		b, _ := json.Marshal(pasted.Report)
+		if !bytes.Equal(a, b) {
+			t.Errorf("chunk size %d: report differs from the pasted one\n%s\n%s", chunk, a, b)
+		}
+		// settings change: the kept table is analysed again, nothing re-read
+		again := decode(t, s.Analyze([]byte(`{"options":{"confidence":0.99}}`), true))
+		if again.Error != "" || again.Report.Counts.Used != pasted.Report.Counts.Used {
+			t.Errorf("re-analysis of the kept table failed: %+v", again.Error)
+		}
+	}
+}
+
+func TestCancelAndErrors(t *testing.T) {
+	var s Session
+	if _, err := s.Write([]byte("1\n")); err == nil {
+		t.Error("write without begin accepted")
+	}
+	feed(t, &s, []byte("1\n2\n3\n"), 2)
+	s.Cancel()
+	if r := decode(t, s.End()); r.Error == "" {
+		t.Error("end after cancel gave no error")
+	}
+	if r := decode(t, s.Analyze([]byte(`{}`), true)); !strings.Contains(r.Error, "no file") {
+		t.Errorf("analysis without a file: error %q", r.Error)
+	}
+	if r := decode(t, s.Analyze([]byte(`{not json`), false)); !strings.Contains(r.Error, "not valid JSON") {
+		t.Errorf("bad JSON: error %q", r.Error)
+	}
+	if r := decode(t, s.Analyze([]byte(`{"text":"   "}`), false)); r.Error == "" {
+		t.Error("empty text gave no error")
+	}
+}
