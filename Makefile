@@ -18,7 +18,7 @@ run: dist ## build dist/ and serve it on http://127.0.0.1:$(PORT)
 dist: ## compile the wasm and write the site into dist/
 	$(GO) run ./build dist -out dist
 
-test: vet test-go test-wasm test-browser ## everything CI runs
+test: vet test-go test-wasm test-browser test-worker ## everything CI runs
 	@echo "make test: all passed"
 
 vet:
@@ -46,8 +46,30 @@ deps-browser:
 	  fi; \
 	fi
 
+test-worker: deps-node dist ## the edge worker under workerd (wrangler dev) checked over HTTP; the reproducible-build and local-server tests
+	$(GO) run ./build worker -dir dist
+	LOTLENS_WORKER_TEST=1 $(GO) test -count=1 ./build/...
+
+deps-node: ## Node.js (Debian's packages, as root) and wrangler (pinned by package-lock.json, installed locally by npm ci)
+	@if ! command -v node >/dev/null || ! command -v npm >/dev/null; then \
+	  if [ "$$(id -u)" = 0 ] && command -v apt-get >/dev/null; then \
+	    echo "installing Node.js and npm from Debian's packages"; \
+	    apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq nodejs npm >/dev/null; \
+	  else \
+	    echo "Node.js 20 and npm are needed for the edge worker: run  sudo apt-get install nodejs npm"; exit 1; \
+	  fi; \
+	fi
+	@major=$$(node -p 'process.versions.node.split(".")[0]'); if [ "$$major" -lt 20 ]; then \
+	  echo "wrangler 4.86.0 needs Node.js 20 or later; this machine has $$(node --version). Install Node.js 20 (e.g. from NodeSource) and rerun."; exit 1; fi
+	@if ! [ -x node_modules/.bin/wrangler ] || [ package-lock.json -nt node_modules/.package-lock.json ]; then \
+	  npm ci --no-audit --no-fund; fi
+
+deploy: deps-node dist ## deploy the edge worker to your own Cloudflare account (README: Deployment)
+	$(GO) run ./build worker -dir dist
+	node_modules/.bin/wrangler deploy --config build/worker/wrangler.jsonc
+
 bench: ## engine and reader benchmarks
 	$(GO) test -run '^$$' -bench . -benchmem ./stats/...
 
 clean:
-	rm -rf dist
+	rm -rf dist build/worker/dist build/worker/build

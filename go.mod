@@ -3,7 +3,9 @@ module lotlens
 go 1.26.8
 
 require (
+	github.com/andybalholm/brotli v1.3.0
 	github.com/chromedp/chromedp v0.14.2
+	github.com/syumai/workers v0.31.0
 	github.com/yuin/goldmark v1.8.7
 )
 

@@ -2,6 +2,7 @@
 //
 //	go run ./build dist [-out dist]              compile the wasm and write the site into dist/
 //	go run ./build serve [-dir dist] [-port N]   serve dist/ on 127.0.0.1 with the worker's headers
+//	go run ./build worker [-dir dist]            prepare the edge worker in build/worker from dist/
 package main
 
 import (
@@ -15,7 +16,7 @@ import (
 
 func main() {
 	if len(os.Args) < 2 {
-		fmt.Fprintln(os.Stderr, "usage: go run ./build dist|serve [flags]")
+		fmt.Fprintln(os.Stderr, "usage: go run ./build dist|serve|worker [flags]")
 		os.Exit(2)
 	}
 	fs := flag.NewFlagSet(os.Args[1], flag.ExitOnError)
@@ -30,6 +31,11 @@ func main() {
 			os.Exit(1)
 		}
 		fmt.Println("wrote", *out)
+	case "worker":
+		if err := buildWorker(*dir); err != nil {
+			fmt.Fprintln(os.Stderr, "worker:", err)
+			os.Exit(1)
+		}
 	case "serve":
 		addr := "127.0.0.1:" + *port
 		fmt.Printf("Lotlens is at http://%s/ (Ctrl-C stops it)\n", addr)
@@ -38,7 +44,7 @@ func main() {
 			os.Exit(1)
 		}
 	default:
-		fmt.Fprintf(os.Stderr, "unknown command %q: use dist or serve\n", os.Args[1])
+		fmt.Fprintf(os.Stderr, "unknown command %q: use dist, serve or worker\n", os.Args[1])
 		os.Exit(2)
 	}
 }
