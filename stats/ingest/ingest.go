@@ -2,37 +2,107 @@
 // every cell's identity (row as the user sees it in a spreadsheet, column)
 // and listing every cell that is not a usable number, with the reason.
 //
-// This is the foundation slice: one value per line, decimal point only. The
-// full reader (separators, encodings, headers, units, decimal commas,
-// streaming) replaces the body of Read, keeping these types.
+// What it reads:
+//
+//   - Separators: tab (spreadsheet clipboard, TSV), comma, semicolon, pipe,
+//     runs of spaces, or none (one value per line). One line of values
+//     ("12.1 12.3 12.2") is read as one column.
+//   - Quoted fields (RFC 4180) with separators and line breaks inside; quoted
+//     records are split by encoding/csv.
+//   - UTF-8 with or without BOM, UTF-16 LE/BE (with BOM, or detected from its
+//     zero bytes), and a Windows-1252 (Latin-1) fallback for lines that are
+//     not valid UTF-8; LF, CRLF and CR line ends.
+//   - Numbers with a decimal point or comma, decided per column from the
+//     cells (a lone "1,234" is ambiguous: the column is flagged and read by
+//     ReadOptions.DecimalMark, default decimal comma); a single "1.234" is
+//     taken as a decimal point unless the column uses decimal commas.
+//     Thousands separators: space, no-break and thin spaces, apostrophe, and
+//     the other mark when the grouping is valid. Leading plus, the Unicode
+//     minus sign, exponents, a trailing % or known unit ("12.31 g", "0.5mm").
+//   - Missing markers: empty, NA, N/A, n/a, -, --, ?, #N/A, #VALUE! and the
+//     other spreadsheet errors, NaN, null.
+//   - A header row (detected), units in it ("Weight (g)", "Weight [g]",
+//     "Weight/g"), note lines above it (skipped and reported).
+//   - Date/time columns (see timefmt.go) and text (group label) columns.
+//
+// Rows are numbered as a spreadsheet shows the file: 1-based, every line
+// counted (note lines, the header, empty lines), and a quoted field holding
+// line breaks keeps its record in one row, so rows after it follow the record
+// count, not the physical line count.
+//
+// The reader streams: NewStream, Write chunks (split anywhere), Finish. The
+// layout (encoding, separator, header, column kinds, decimal marks) is decided
+// from the first SniffBytes of text, so a chunked read gives the same table
+// as a whole one.
 package ingest
 
 import (
 	"fmt"
 	"math"
-	"strconv"
 	"strings"
 )
 
-// Problem is one cell (or line) that was not used as a number.
+// Problem is one cell (or line) that was not used as a number, or a remark
+// about the whole input (Row 0).
 type Problem struct {
 	Row    int    `json:"row"`              // 1-based, header row counted; 0 = the whole input
+	Col    int    `json:"col,omitempty"`    // 1-based column position as in a spreadsheet; 0 = whole row
 	Column string `json:"column,omitempty"` // column name as reported
-	Text   string `json:"text,omitempty"`   // the cell as typed
-	Kind   string `json:"kind"`             // "missing", "not-a-number", ...
+	Text   string `json:"text,omitempty"`   // the cell as typed (long lines are shortened)
+	Kind   string `json:"kind"`             // see the Kind* constants
 	Reason string `json:"reason"`           // plain words
 	Action string `json:"action"`           // what was done, e.g. "counted as missing"
 }
 
+// Problem kinds.
+const (
+	KindMissing     = "missing"        // empty or marked missing
+	KindNotNumber   = "not-a-number"   // text in a number column
+	KindDecimalMark = "decimal-mark"   // the other decimal mark than the column's
+	KindUnit        = "unit"           // a unit that differs from the column's
+	KindNotTime     = "not-a-time"     // a cell in a date/time column that is not one
+	KindExtra       = "extra-cell"     // a cell to the right of the last column
+	KindNote        = "note-line"      // a line above the header, skipped
+	KindHeader      = "header"         // a column name made unique or given
+	KindEncoding    = "encoding"       // text decoded with the fallback
+	KindQuote       = "unclosed-quote" // a quoted field never closed
+	KindAmbiguous   = "ambiguous"      // decimal mark or date order unclear (Row 0)
+	KindMixed       = "mixed-marks"    // a column with both decimal marks (Row 0)
+	KindMore        = "more-problems"  // the list was capped (Row 0)
+)
+
 // ColumnInfo describes one column for pickers and the report.
 type ColumnInfo struct {
-	Name    string `json:"name"`
-	Unit    string `json:"unit,omitempty"`
-	Numbers int    `json:"numbers"` // cells read as numbers
-	Missing int    `json:"missing"`
-	Bad     int    `json:"bad"` // cells neither numbers nor missing
+	Name     string `json:"name"`
+	Unit     string `json:"unit,omitempty"`
+	Position int    `json:"position"`         // 1-based column number in the input
+	Header   string `json:"header,omitempty"` // the header cell as typed
+	// Kind is "number", "text" (labels), "time" (dates/times; Values are
+	// seconds since 1970-01-01, or since midnight for times of day) or
+	// "empty".
+	Kind string `json:"kind"`
+	// Role is the reader's guess: "value", "group", "order" or "subgroup"
+	// ("" when none fits). The user decides.
+	Role    string `json:"role,omitempty"`
+	Numbers int    `json:"numbers"` // cells read as numbers (or times)
+	Missing int    `json:"missing"` // empty or marked missing
+	Empty   int    `json:"empty"`   // of Missing: empty cells
+	Bad     int    `json:"bad"`     // cells neither numbers nor missing
+	Labels  int    `json:"labels,omitempty"`
 	// DecimalComma is set when the column's numbers use a decimal comma.
 	DecimalComma bool `json:"decimalComma,omitempty"`
+	// AmbiguousDecimal: every decimal in the column looks like "1,234", which
+	// is 1.234 with a decimal comma or 1234 with a thousands comma. The
+	// column was read by ReadOptions.DecimalMark (default: decimal comma);
+	// the page asks the user.
+	AmbiguousDecimal bool `json:"ambiguousDecimal,omitempty"`
+	// MixedDecimal: the column uses both marks; cells with the minority mark
+	// were left out and listed.
+	MixedDecimal bool `json:"mixedDecimal,omitempty"`
+	// DateOrder is "day-first" or "month-first" for time columns with dates
+	// like 03/04/2026; DateAmbiguous when no cell decided it.
+	DateOrder     string `json:"dateOrder,omitempty"`
+	DateAmbiguous bool   `json:"dateAmbiguous,omitempty"`
 }
 
 // Column holds one column's cells in input order. Values is NaN where the
@@ -40,73 +110,268 @@ type ColumnInfo struct {
 // value was not plain fixed-point decimal text, e.g. with an exponent).
 type Column struct {
 	ColumnInfo
-	Rows   []int32
+	Rows   []int32 // spreadsheet row of each cell; shared by the table's columns
 	Values []float64
 	Dec    []int8
-	texts  []string
+	// Cols is the 1-based spreadsheet column of each cell; nil except when
+	// one line of values was read as a column.
+	Cols []int32
+
+	mark byte // '.' or ','
+	// sparse texts: cells whose typed form is not the canonical form of
+	// their value (or that are not numbers), in cell order
+	spIdx []int32
+	spOff []uint32
+	spBuf []byte
+	// text columns: label index per cell (-1 = missing), interned labels
+	lab    []int32
+	labels []string
+	labMap map[string]int32
 }
 
-// Text returns cell i as typed.
-func (c *Column) Text(i int) string { return c.texts[i] }
+// Text returns cell i as typed (trimmed of surrounding spaces).
+func (c *Column) Text(i int) string {
+	if k, ok := c.sparse(i); ok {
+		return string(c.spBuf[c.spOff[k]:c.spOff[k+1]])
+	}
+	if c.lab != nil {
+		if l := c.lab[i]; l >= 0 {
+			return c.labels[l]
+		}
+		return ""
+	}
+	v := c.Values[i]
+	if math.IsNaN(v) {
+		return ""
+	}
+	var buf [32]byte
+	return string(formatValue(buf[:0], v, c.Dec[i], c.mark))
+}
+
+// Label returns the label index of cell i in a text column (-1 when the
+// cell is missing or the column is not a text column), and Labels the
+// labels in order of first appearance.
+func (c *Column) Label(i int) int {
+	if c.lab == nil {
+		return -1
+	}
+	return int(c.lab[i])
+}
+
+// LabelNames returns the distinct labels of a text column in order of first appearance.
+func (c *Column) LabelNames() []string { return c.labels }
+
+func (c *Column) sparse(i int) (int, bool) {
+	idx := c.spIdx
+	lo, hi := 0, len(idx)
+	for lo < hi {
+		m := int(uint(lo+hi) >> 1)
+		if int(idx[m]) < i {
+			lo = m + 1
+		} else {
+			hi = m
+		}
+	}
+	return lo, lo < len(idx) && int(idx[lo]) == i
+}
+
+func (c *Column) keep(i int, b []byte) {
+	if len(c.spOff) == 0 {
+		c.spOff = append(c.spOff, 0)
+	}
+	c.spIdx = append(c.spIdx, int32(i))
+	c.spBuf = append(c.spBuf, b...)
+	c.spOff = append(c.spOff, uint32(len(c.spBuf)))
+}
+
+// Len is the number of cells.
+func (c *Column) Len() int { return len(c.Values) }
+
+// Format says how the input was written, as detected.
+type Format struct {
+	Encoding  string `json:"encoding"`  // "utf-8", "utf-8 with BOM", "utf-16le", "utf-16be", "windows-1252"
+	Separator string `json:"separator"` // "tab", "comma", "semicolon", "pipe", "spaces", "none"
+	LineEnds  string `json:"lineEnds"`  // "lf", "crlf", "cr" (the first seen)
+	Bytes     int64  `json:"bytes"`
+	Rows      int    `json:"rows"` // the last row number as a spreadsheet shows it
+	// Transposed is set when one line of values was read as one column.
+	Transposed bool `json:"transposed,omitempty"`
+}
 
 // Table is what the reader found.
 type Table struct {
 	Columns   []*Column `json:"-"`
 	HeaderRow int       // 0 when there is no header
 	Problems  []Problem
+	// Unlisted counts problems beyond the listing cap (MaxProblems); the
+	// last listed problem says so.
+	Unlisted int
+	Format   Format
+	// Shape is the reader's guess: "single" (one value column), "wide"
+	// (several value columns), "long" (a group column and one value column).
+	Shape string
+	notes int
+	extra int
 }
 
-// Summary is the one-line account of what was read.
+// Infos returns the columns' descriptions.
+func (t *Table) Infos() []ColumnInfo {
+	out := make([]ColumnInfo, len(t.Columns))
+	for i, c := range t.Columns {
+		out[i] = c.ColumnInfo
+	}
+	return out
+}
+
+// Column returns the column with this name, or nil.
+func (t *Table) Column(name string) *Column {
+	for _, c := range t.Columns {
+		if c.Name == name {
+			return c
+		}
+	}
+	return nil
+}
+
+// ValueColumn returns the first column with the role "value" (the default
+// for the analysis), or nil when there is none.
+func (t *Table) ValueColumn() *Column {
+	for _, c := range t.Columns {
+		if c.Role == "value" {
+			return c
+		}
+	}
+	for _, c := range t.Columns {
+		if c.Kind == "number" && c.Numbers > 0 {
+			return c
+		}
+	}
+	return nil
+}
+
+// Summary is the one-line account of what was read, over the number
+// columns, e.g. "498 values read; 2 cells not numbers (rows 17, 203); 1 empty".
 func (t *Table) Summary() string {
-	if len(t.Columns) == 0 {
+	var cols []*Column
+	for _, c := range t.Columns {
+		if c.Kind == "number" || c.Kind == "empty" {
+			cols = append(cols, c)
+		}
+	}
+	if len(cols) == 0 {
 		return "no data read"
 	}
-	c := t.Columns[0]
-	return fmt.Sprintf("%d values read; %d cells not numbers; %d empty", c.Numbers, c.Bad, c.Missing)
+	return t.summary(cols)
 }
 
-// Read reads text with one value per line.
-func Read(text string) (*Table, error) {
-	t := &Table{}
-	c := &Column{ColumnInfo: ColumnInfo{Name: "value"}}
-	lines := strings.Split(strings.ReplaceAll(text, "\r\n", "\n"), "\n")
-	if n := len(lines); n > 0 && strings.TrimSpace(lines[n-1]) == "" {
-		lines = lines[:n-1]
+// ColumnSummary is Summary for one column.
+func (t *Table) ColumnSummary(c *Column) string { return t.summary([]*Column{c}) }
+
+func (t *Table) summary(cols []*Column) string {
+	var nums, bad, empty, marked int
+	for _, c := range cols {
+		nums += c.Numbers
+		bad += c.Bad
+		empty += c.Empty
+		marked += c.Missing - c.Empty
 	}
-	for i, ln := range lines {
-		row := i + 1
-		s := ln
-		if j := strings.LastIndexByte(s, '\t'); j >= 0 { // slice: last column of tab-separated text
-			s = s[j+1:]
-		}
-		s = strings.TrimSpace(s)
-		v, err := strconv.ParseFloat(s, 64)
-		switch {
-		case s == "":
-			c.Missing++
-			t.Problems = append(t.Problems, Problem{Row: row, Column: c.Name, Kind: "missing", Reason: "empty cell", Action: "counted as missing"})
-			v = math.NaN()
-		case err != nil || math.IsInf(v, 0) || math.IsNaN(v):
-			c.Bad++
-			t.Problems = append(t.Problems, Problem{Row: row, Column: c.Name, Text: s, Kind: "not-a-number", Reason: "not a number", Action: "left out"})
-			v = math.NaN()
-		default:
-			c.Numbers++
-		}
-		dec := int8(-1)
-		if j := strings.IndexByte(s, '.'); j >= 0 && !strings.ContainsAny(s, "eE") {
-			dec = int8(len(s) - j - 1)
-		} else if err == nil && !strings.ContainsAny(s, "eE") {
-			dec = 0
-		}
-		c.Rows = append(c.Rows, int32(row))
-		c.Values = append(c.Values, v)
-		c.Dec = append(c.Dec, dec)
-		c.texts = append(c.texts, s)
+	var b strings.Builder
+	fmt.Fprintf(&b, "%d %s read", nums, plural(nums, "value", "values"))
+	if len(cols) > 1 {
+		fmt.Fprintf(&b, " in %d columns", len(cols))
 	}
-	if c.Numbers == 0 {
-		return nil, fmt.Errorf("no numbers found: paste one value per line")
+	if bad > 0 {
+		fmt.Fprintf(&b, "; %d %s (%s)", bad, plural(bad, "cell not a number", "cells not numbers"), t.badRows(cols, bad))
 	}
-	t.Columns = []*Column{c}
-	return t, nil
+	if empty > 0 {
+		fmt.Fprintf(&b, "; %d empty", empty)
+	}
+	if marked > 0 {
+		fmt.Fprintf(&b, "; %d marked missing", marked)
+	}
+	if t.notes > 0 {
+		fmt.Fprintf(&b, "; %d note %s above the table skipped", t.notes, plural(t.notes, "line", "lines"))
+	}
+	if t.extra > 0 {
+		fmt.Fprintf(&b, "; %d %s beyond the last column left out", t.extra, plural(t.extra, "cell", "cells"))
+	}
+	for _, c := range cols {
+		if c.AmbiguousDecimal {
+			mark := "decimal comma"
+			if !c.DecimalComma {
+				mark = "decimal point (comma as thousands separator)"
+			}
+			fmt.Fprintf(&b, "; decimal mark unclear in %q, read as %s", c.Name, mark)
+		}
+		if c.MixedDecimal {
+			fmt.Fprintf(&b, "; %q mixes decimal points and commas", c.Name)
+		}
+	}
+	return b.String()
+}
+
+// badRows lists the rows of cells not used as numbers, capped.
+func (t *Table) badRows(cols []*Column, total int) string {
+	const show = 5
+	var rows []string
+	in := map[string]bool{}
+	for _, c := range cols {
+		in[c.Name] = true
+	}
+	for _, p := range t.Problems {
+		if len(rows) == show {
+			break
+		}
+		if p.Row > 0 && in[p.Column] && p.Kind != KindMissing && p.Kind != KindExtra {
+			rows = append(rows, fmt.Sprint(p.Row))
+		}
+	}
+	s := plural(len(rows), "row ", "rows ") + strings.Join(rows, ", ")
+	if total > len(rows) {
+		s += fmt.Sprintf(" ... and %d more", total-len(rows))
+	}
+	return s
+}
+
+func plural(n int, one, many string) string {
+	if n == 1 {
+		return one
+	}
+	return many
+}
+
+// ReadOptions are the user's decisions about the input.
+type ReadOptions struct {
+	// DecimalMark decides columns whose decimal mark is ambiguous ("1,234"):
+	// "" (default: decimal comma), "comma" or "point".
+	DecimalMark string `json:"decimalMark,omitempty"`
+	// DateOrder decides dates like 03/04/2026 when no cell shows the order:
+	// "" (default: day-first), "day" or "month".
+	DateOrder string `json:"dateOrder,omitempty"`
+	// SizeHint is the expected input size in bytes (e.g. File.size), used to
+	// size the columns once and keep peak memory near the parsed data.
+	SizeHint int64 `json:"sizeHint,omitempty"`
+}
+
+// Read reads a whole text with the default options.
+func Read(text string) (*Table, error) { return ReadWith(text, ReadOptions{}) }
+
+// ReadWith reads a whole text.
+func ReadWith(text string, opt ReadOptions) (*Table, error) {
+	if opt.SizeHint == 0 {
+		opt.SizeHint = int64(len(text))
+	}
+	s := NewStream(opt)
+	s.writeString(text)
+	return s.Finish()
+}
+
+// ReadBytes reads file bytes.
+func ReadBytes(b []byte, opt ReadOptions) (*Table, error) {
+	if opt.SizeHint == 0 {
+		opt.SizeHint = int64(len(b))
+	}
+	s := NewStream(opt)
+	_, _ = s.Write(b)
+	return s.Finish()
 }

@@ -1,0 +1,955 @@
+package ingest
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"sort"
+	"strings"
+	"unicode"
+	"unicode/utf8"
+)
+
+// layout is what the sniffing decided.
+type layout struct {
+	brk           byte
+	sep           byte // '\t', ',', ';', '|', ' ' (runs of spaces), 0 (none)
+	headerRow     int
+	dataStart     int
+	transpose     bool
+	transposeName bool
+}
+
+// cell classes in the sniffing window
+type cls uint8
+
+const (
+	cMissing cls = iota
+	cNumber
+	cTime
+	cText
+)
+
+type sniffCell struct {
+	text string
+	cls  cls
+	ev   markEvidence
+	unit string
+	date dateCell
+}
+
+type sniffRec struct {
+	row   int
+	cells []sniffCell
+	blank bool
+}
+
+func classify(s string) sniffCell {
+	c := sniffCell{text: s}
+	if _, ok := missingToken(s); ok {
+		c.cls = cMissing
+		return c
+	}
+	if p, ok := splitNumber(s); ok {
+		unit, uok := "", true
+		if p.suffix != "" {
+			unit, uok = unitOf(p.suffix)
+		}
+		if uok {
+			ev := evidence(p.body)
+			mark := byte('.')
+			if ev == evComma || ev == evAmbig {
+				mark = ','
+			}
+			var buf [64]byte
+			if _, _, reason, _ := parseBody(p.body, mark, buf[:0]); reason == "" {
+				c.cls, c.ev, c.unit = cNumber, ev, unit
+				return c
+			}
+		}
+	}
+	if d, ok := parseDate(s); ok {
+		c.cls, c.date = cTime, d
+		return c
+	}
+	c.cls = cText
+	return c
+}
+
+// Errors for inputs that are not tables of text.
+func notText(what, todo string) error {
+	return fmt.Errorf("this is %s, not text: %s", what, todo)
+}
+
+const pasteInstead = "open it, select the cells with the measurements, copy and paste them here, or save the data as CSV or text and drop that file"
+
+func magic(raw []byte) error {
+	switch {
+	case bytes.HasPrefix(raw, []byte("%PDF-")):
+		return notText("a PDF document", "open it, select the table of measurements, copy and paste it here, or ask for the data as CSV")
+	case bytes.HasPrefix(raw, []byte("PK\x03\x04")):
+		return notText("a spreadsheet file (.xlsx or .ods) or another zip archive", "Lotlens does not open spreadsheet files; "+pasteInstead)
+	case bytes.HasPrefix(raw, []byte{0xD0, 0xCF, 0x11, 0xE0, 0xA1, 0xB1, 0x1A, 0xE1}):
+		return notText("an older spreadsheet or document file (.xls or .doc)", "Lotlens does not open spreadsheet files; "+pasteInstead)
+	case bytes.HasPrefix(raw, []byte("\x89PNG")), bytes.HasPrefix(raw, []byte{0xFF, 0xD8, 0xFF}), bytes.HasPrefix(raw, []byte("GIF8")):
+		return notText("an image", "Lotlens reads measurements as text: copy the values from their source and paste them here")
+	case bytes.HasPrefix(raw, []byte{0x1F, 0x8B}):
+		return notText("a compressed (gzip) file", "unpack it first and drop the text file inside")
+	case bytes.HasPrefix(raw, []byte(`{\rtf`)):
+		return notText("a rich-text document (RTF)", "open it, copy the measurements and paste them here")
+	}
+	return nil
+}
+
+func markupError(text []byte) error {
+	t := bytes.TrimLeftFunc(text[:min(len(text), 512)], unicode.IsSpace)
+	low := bytes.ToLower(t[:min(len(t), 16)])
+	for _, p := range []string{"<!doctype html", "<html", "<head", "<body", "<table", "<meta", "<div"} {
+		if bytes.HasPrefix(low, []byte(p)) {
+			return errors.New("this is a web page (HTML), not a table of data: open it in a browser, select the table, copy it and paste it here")
+		}
+	}
+	if bytes.HasPrefix(low, []byte("<?xml")) {
+		return errors.New("this is an XML file, not a table of data: export the measurements as CSV or text, or copy and paste them here")
+	}
+	return nil
+}
+
+// binaryError looks at the first 4 KB of decoded text for control bytes.
+func binaryError(text []byte) error {
+	sample := text[:min(len(text), 4096)]
+	ctl, nul := 0, 0
+	for _, c := range sample {
+		switch {
+		case c == 0:
+			nul++
+		case c < 0x20 && c != '\t' && c != '\n' && c != '\r' && c != '\f' && c != '\v' && c != 0x1a, c == 0x7f:
+			ctl++
+		}
+	}
+	if nul > 0 || ctl*50 > len(sample) {
+		return fmt.Errorf("this does not look like text (%d control bytes in the first %d bytes): it may be a binary file; export the measurements as CSV or text, or copy and paste them here", nul+ctl, len(sample))
+	}
+	return nil
+}
+
+// detectEncoding chooses the encoding from a BOM or the pattern of zero bytes.
+func detectEncoding(raw []byte) (encoding, int) {
+	switch {
+	case bytes.HasPrefix(raw, []byte{0xEF, 0xBB, 0xBF}):
+		return encUTF8BOM, 3
+	case bytes.HasPrefix(raw, []byte{0xFF, 0xFE}):
+		return encUTF16LE, 2
+	case bytes.HasPrefix(raw, []byte{0xFE, 0xFF}):
+		return encUTF16BE, 2
+	}
+	sample := raw[:min(len(raw), 4096)]
+	ze, zo := 0, 0
+	for i, c := range sample {
+		if c == 0 {
+			if i%2 == 0 {
+				ze++
+			} else {
+				zo++
+			}
+		}
+	}
+	pairs := len(sample) / 2
+	if pairs >= 2 {
+		if zo*10 >= pairs*3 && ze*10 <= zo {
+			return encUTF16LE, 0
+		}
+		if ze*10 >= pairs*3 && zo*10 <= ze {
+			return encUTF16BE, 0
+		}
+	}
+	return encUTF8, 0
+}
+
+func isBreak(c byte) bool { return c == '\n' || c == '\r' }
+
+// sniff decides the layout from the start of the input.
+func (s *Stream) sniff(raw []byte, eof bool) {
+	s.sniffed = true
+	if err := magic(raw); err != nil {
+		s.err = err
+		return
+	}
+	s.enc, s.skip = detectEncoding(raw)
+	var text []byte
+	switch s.enc {
+	case encUTF16LE, encUTF16BE:
+		text = decode16All(raw[s.skip:], s.enc == encUTF16LE)
+	default:
+		text = raw[s.skip:]
+	}
+	if len(bytes.TrimFunc(text, unicode.IsSpace)) == 0 {
+		s.err = errors.New("the input is empty: paste a column of measurements, or drop a text file (CSV, tab-separated, or one value per line)")
+		return
+	}
+	if err := markupError(text); err != nil {
+		s.err = err
+		return
+	}
+	if err := binaryError(text); err != nil {
+		s.err = err
+		return
+	}
+	// the window: whole lines within the first L bytes, or the first line
+	const L = SniffBytes/2 - 8
+	win := text
+	whole := eof && len(text) <= L
+	if len(text) > L {
+		k := bytes.LastIndexFunc(text[:L], func(r rune) bool { return r == '\n' || r == '\r' })
+		if k < 0 {
+			k = bytes.IndexFunc(text, func(r rune) bool { return r == '\n' || r == '\r' })
+		}
+		if k >= 0 {
+			win = text[:k+1]
+		}
+		whole = eof && len(bytes.TrimFunc(text[len(win):], unicode.IsSpace)) == 0
+	}
+	s.tab.Format.Encoding = map[encoding]string{encUTF8: "utf-8", encUTF8BOM: "utf-8 with BOM", encUTF16LE: "utf-16le", encUTF16BE: "utf-16be"}[s.enc]
+	// line ends
+	s.lay.brk, s.tab.Format.LineEnds = '\n', "lf"
+	if k := bytes.IndexFunc(win, func(r rune) bool { return r == '\n' || r == '\r' }); k >= 0 && win[k] == '\r' {
+		s.tab.Format.LineEnds = "cr"
+		if k+1 < len(win) && win[k+1] == '\n' {
+			s.tab.Format.LineEnds = "crlf"
+		} else if bytes.IndexByte(win, '\n') < 0 {
+			s.lay.brk = '\r'
+		}
+	}
+	other := byte('\r')
+	if s.lay.brk == '\r' {
+		other = '\n'
+	}
+	s.lay.sep = chooseSep(win, s.lay.brk, other)
+	s.tab.Format.Separator = map[byte]string{'\t': "tab", ',': "comma", ';': "semicolon", '|': "pipe", ' ': "spaces", 0: "none"}[s.lay.sep]
+
+	// records of the window, split as the main pass will split them
+	var recs []sniffRec
+	var conv []byte
+	row := 0
+	tmp := splitter{brk: s.lay.brk, other: other, sep: s.lay.sep}
+	var fields [][]byte
+	tmp.emit = func(rec []byte, quoted bool) {
+		row++
+		if tmp.unclosed && !whole {
+			return
+		}
+		if !utf8.Valid(rec) {
+			conv = fromWindows1252(conv[:0], rec)
+			rec = conv
+		}
+		if quoted {
+			fields = splitQuoted(rec, s.lay.sep, fields)
+		} else {
+			fields = splitPlain(rec, s.lay.sep, fields)
+		}
+		r := sniffRec{row: row, blank: blankFields(fields)}
+		if !r.blank {
+			for _, f := range fields {
+				r.cells = append(r.cells, classify(trimCell(string(f))))
+			}
+		}
+		recs = append(recs, r)
+	}
+	tmp.feed(win)
+	tmp.finish()
+	s.sp = splitter{brk: s.lay.brk, other: other, sep: s.lay.sep, emit: s.onRecord}
+	s.plan(recs, whole, len(win))
+}
+
+// chooseSep picks the separator from the window's lines.
+func chooseSep(win []byte, brk, other byte) byte {
+	// records under a separator (quotes decide where records end)
+	records := func(sep byte) (counts []int, lines [][]byte) {
+		var fs [][]byte
+		sp := splitter{brk: brk, other: other, sep: sep}
+		sp.emit = func(rec []byte, quoted bool) {
+			if blank(rec) {
+				return
+			}
+			if quoted {
+				fs = splitQuoted(rec, sep, fs)
+			} else {
+				fs = splitPlain(rec, sep, fs)
+			}
+			counts = append(counts, len(fs))
+			if sep == 0 {
+				lines = append(lines, append([]byte(nil), rec...))
+			}
+		}
+		sp.feed(win)
+		sp.finish()
+		return counts, lines
+	}
+	_, lines := records(0)
+	if len(lines) == 0 {
+		return 0
+	}
+	tail := lines[len(lines)/2:]
+	consistent := func(sep byte) bool {
+		counts, _ := records(sep)
+		if len(counts) == 0 {
+			return false
+		}
+		freq := map[int]int{}
+		for _, c := range counts[len(counts)/2:] {
+			freq[c]++
+		}
+		m, best := 0, 0
+		for c, f := range freq {
+			if f > best || (f == best && c > m) {
+				m, best = c, f
+			}
+		}
+		if m < 2 {
+			return false
+		}
+		// the longest block at the end where 80% of lines have m fields
+		hit := 0
+		for start := len(counts) - 1; start >= 0; start-- {
+			if counts[start] == m {
+				hit++
+			}
+			n := len(counts) - start
+			if hit*5 >= 4*n && (n >= 2 || len(counts) == 1) && hit*2 >= len(counts) {
+				return true
+			}
+		}
+		// small inputs with note lines: at least two consistent lines at the end
+		n := 0
+		for i := len(counts) - 1; i >= 0 && counts[i] == m; i-- {
+			n++
+		}
+		return n >= 2
+	}
+	for _, sep := range []byte{'\t', ';', '|'} {
+		if consistent(sep) {
+			return sep
+		}
+	}
+	single := 0
+	for _, l := range tail {
+		c := classify(trimCell(string(l)))
+		if c.cls == cNumber || c.cls == cMissing {
+			single++
+		}
+	}
+	if single*5 >= 4*len(tail) {
+		return 0
+	}
+	for _, sep := range []byte{',', ' '} {
+		if consistent(sep) {
+			return sep
+		}
+	}
+	return 0
+}
+
+// colPlan is the decision for one column.
+type colPlan struct {
+	name, unit, header string
+}
+
+// plan decides header, notes, columns and their kinds from the window.
+func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
+	lay := &s.lay
+	lay.dataStart = 1
+	var nonEmpty []int // indexes into recs
+	for i, r := range recs {
+		if !r.blank {
+			nonEmpty = append(nonEmpty, i)
+		}
+	}
+	hasNumber := func(r sniffRec) bool {
+		for _, c := range r.cells {
+			if c.cls == cNumber {
+				return true
+			}
+		}
+		return false
+	}
+	headerLike := func(r sniffRec) bool {
+		text := 0
+		for _, c := range r.cells {
+			switch c.cls {
+			case cNumber:
+				return false
+			case cText:
+				text++
+			}
+		}
+		return text > 0
+	}
+	// one line of values
+	if whole && len(nonEmpty) == 1 && lay.sep != 0 {
+		r := recs[nonEmpty[0]]
+		nums := 0
+		for _, c := range r.cells {
+			if c.cls == cNumber {
+				nums++
+			}
+		}
+		if nums >= 2 {
+			lay.transpose = true
+			s.tab.Format.Transposed = true
+			lay.dataStart = r.row
+			name, unit, header := "Column 1", "", ""
+			if r.cells[0].cls == cText {
+				lay.transposeName = true
+				header = r.cells[0].text
+				name, unit = headerName(header)
+			}
+			var cells []sniffCell
+			for i, c := range r.cells {
+				if i > 0 || !lay.transposeName {
+					cells = append(cells, c)
+				}
+			}
+			c := s.newColumn(colPlan{name: name, unit: unit, header: header}, 1, cells, markHint(lay.sep, [][]sniffCell{cells}))
+			s.cols = []*Column{c}
+			return
+		}
+	}
+	m := 1
+	if lay.sep != 0 {
+		freq := map[int]int{}
+		for _, i := range nonEmpty[len(nonEmpty)/2:] {
+			freq[len(recs[i].cells)]++
+		}
+		best := 0
+		for c, f := range freq {
+			if f > best || (f == best && c > m) {
+				m, best = c, f
+			}
+		}
+	}
+	first := -1
+	for _, i := range nonEmpty {
+		r := recs[i]
+		if hasNumber(r) && (lay.sep == 0 || len(r.cells) == m) {
+			first = i
+			break
+		}
+	}
+	if first < 0 {
+		for _, i := range nonEmpty {
+			if hasNumber(recs[i]) {
+				first = i
+				break
+			}
+		}
+	}
+	header := -1
+	if first >= 0 {
+		for k := len(nonEmpty) - 1; k >= 0; k-- {
+			if nonEmpty[k] < first {
+				r := recs[nonEmpty[k]]
+				if headerLike(r) && (m == 1 || len(r.cells) >= 2) {
+					header = nonEmpty[k]
+				}
+				break
+			}
+		}
+	} else if len(nonEmpty) > 0 && headerLike(recs[nonEmpty[0]]) {
+		header = nonEmpty[0]
+	}
+	switch {
+	case header >= 0:
+		lay.headerRow = recs[header].row
+		lay.dataStart = lay.headerRow + 1
+		s.tab.HeaderRow = lay.headerRow
+	case first >= 0:
+		lay.dataStart = recs[first].row
+	}
+	ncols := m
+	if header >= 0 && len(recs[header].cells) > ncols {
+		ncols = len(recs[header].cells)
+	}
+	if lay.sep == 0 {
+		ncols = 1
+	}
+	// plans: names and units
+	plans := make([]colPlan, ncols)
+	seen := map[string]bool{}
+	for j := range plans {
+		p := &plans[j]
+		if header >= 0 && j < len(recs[header].cells) {
+			p.header = recs[header].cells[j].text
+			p.name, p.unit = headerName(p.header)
+		}
+		if p.name == "" {
+			p.name = fmt.Sprintf("Column %d", j+1)
+			if header >= 0 {
+				s.problem(Problem{Row: lay.headerRow, Col: j + 1, Kind: KindHeader, Reason: "column without a name", Action: "named " + p.name})
+			}
+		}
+		base := p.name
+		for n := 2; seen[p.name]; n++ {
+			p.name = fmt.Sprintf("%s %d", base, n)
+		}
+		if p.name != base {
+			s.problem(Problem{Row: lay.headerRow, Col: j + 1, Column: p.name, Text: p.header, Kind: KindHeader, Reason: fmt.Sprintf("duplicate column name %q", base), Action: "renamed " + p.name})
+		}
+		seen[p.name] = true
+	}
+	// cells of each column in the window
+	colCells := make([][]sniffCell, ncols)
+	dataRecs := 0
+	for _, r := range recs {
+		if r.row < lay.dataStart || r.blank {
+			continue
+		}
+		dataRecs++
+		for j := 0; j < ncols && j < len(r.cells); j++ {
+			colCells[j] = append(colCells[j], r.cells[j])
+		}
+	}
+	s.cols = make([]*Column, ncols)
+	hint := markHint(lay.sep, colCells)
+	for j := range plans {
+		s.cols[j] = s.newColumn(plans[j], j+1, colCells[j], hint)
+	}
+	// size the columns once when the input size is known
+	if h := s.opt.SizeHint; h > int64(winBytes) && dataRecs > 0 && winBytes > 0 {
+		est := h*int64(dataRecs)/int64(winBytes) + h/int64(winBytes)*4 + 64
+		est = est + est/32
+		est = min(est, h/2+64, 1<<31-1)
+		s.rows = make([]int32, 0, est)
+		for _, c := range s.cols {
+			c.Values = make([]float64, 0, est)
+			c.Dec = make([]int8, 0, est)
+		}
+	}
+}
+
+// newColumn decides a column's kind, decimal mark, unit and date order from
+// its cells in the window.
+func (s *Stream) newColumn(p colPlan, pos int, cells []sniffCell, hint byte) *Column {
+	c := &Column{ColumnInfo: ColumnInfo{Name: p.name, Unit: p.unit, Position: pos, Header: p.header}, mark: '.'}
+	var nNum, nTime, nText int
+	var comma, point, ambig, ambigP int
+	units := map[string]int{}
+	var unitOrder []string
+	dayEv, monthEv := 0, 0
+	for _, x := range cells {
+		switch x.cls {
+		case cNumber:
+			nNum++
+			switch x.ev {
+			case evComma:
+				comma++
+			case evPoint:
+				point++
+			case evAmbig:
+				ambig++
+			case evAmbigP:
+				ambigP++
+			}
+			if x.unit != "" {
+				if units[x.unit] == 0 {
+					unitOrder = append(unitOrder, x.unit)
+				}
+				units[x.unit]++
+			}
+		case cTime:
+			nTime++
+			if x.date.form == dfSlash {
+				if x.date.a > 12 {
+					dayEv++
+				}
+				if x.date.b > 12 {
+					monthEv++
+				}
+			}
+		case cText:
+			nText++
+		}
+	}
+	nonMissing := nNum + nTime + nText
+	switch {
+	case nonMissing == 0:
+		c.Kind = "empty"
+	case nTime*5 >= 4*nonMissing:
+		c.Kind = "time"
+	case nNum >= nText+nTime:
+		c.Kind = "number"
+	default:
+		c.Kind = "text"
+		c.lab = []int32{}
+		c.labMap = map[string]int32{}
+	}
+	if c.Kind == "text" || c.Kind == "time" {
+		c.Unit = ""
+		if p.unit != "" { // "Shift (A)" is a name, not a unit, in a label column
+			c.Name = p.name + " (" + p.unit + ")"
+		}
+	}
+	if c.Kind == "number" || c.Kind == "empty" {
+		point += ambigP
+		switch {
+		case comma > 0 && point > 0:
+			c.MixedDecimal = true
+			if comma > point {
+				c.mark = ','
+			}
+			minority := min(comma, point)
+			s.problem(Problem{Column: c.Name, Col: pos, Kind: KindMixed,
+				Reason: fmt.Sprintf("column %q mixes decimal marks: %d of the first cells use a point, %d a comma", c.Name, point, comma),
+				Action: fmt.Sprintf("read with the decimal %s; cells with the other mark are left out and listed (about %d). Check the export so that one mark is used", markName(c.mark), minority)})
+		case comma > 0:
+			c.mark = ','
+		case point > 0:
+		case ambig > 0 && hint != 0 && s.opt.DecimalMark == "":
+			// the file's other columns (or its semicolons) show the locale
+			c.mark = hint
+		case ambig > 0:
+			c.AmbiguousDecimal = true
+			c.mark = ','
+			if s.opt.DecimalMark == "point" {
+				c.mark = '.'
+			}
+			s.problem(Problem{Column: c.Name, Col: pos, Kind: KindAmbiguous,
+				Reason: fmt.Sprintf("in column %q a value like %q can mean %s", c.Name, firstAmbig(cells), ambigMeaning(firstAmbig(cells))),
+				Action: "read with the decimal " + markName(c.mark) + "; choose the decimal mark if this is wrong"})
+		}
+		c.DecimalComma = c.mark == ','
+		if c.Unit == "" && len(unitOrder) > 0 {
+			best := unitOrder[0]
+			for _, u := range unitOrder {
+				if units[u] > units[best] {
+					best = u
+				}
+			}
+			c.Unit = best
+		}
+	}
+	if c.Kind == "time" && (dayEv > 0 || monthEv > 0 || hasSlash(cells)) {
+		switch {
+		case dayEv > 0 && monthEv == 0:
+			c.DateOrder = "day-first"
+		case monthEv > 0 && dayEv == 0:
+			c.DateOrder = "month-first"
+		case dayEv > 0 && monthEv > 0:
+			c.DateOrder = "day-first"
+			if monthEv > dayEv {
+				c.DateOrder = "month-first"
+			}
+			s.problem(Problem{Column: c.Name, Col: pos, Kind: KindAmbiguous, Reason: fmt.Sprintf("column %q has dates in both day-first and month-first order", c.Name), Action: "read as " + c.DateOrder + "; dates that do not fit are left out and listed"})
+		default:
+			c.DateAmbiguous = true
+			c.DateOrder = "day-first"
+			if s.opt.DateOrder == "month" {
+				c.DateOrder = "month-first"
+			}
+			s.problem(Problem{Column: c.Name, Col: pos, Kind: KindAmbiguous, Reason: fmt.Sprintf("in column %q no date shows whether the day or the month comes first", c.Name), Action: "read as " + c.DateOrder + "; choose the date order if this is wrong"})
+		}
+	}
+	return c
+}
+
+func hasSlash(cells []sniffCell) bool {
+	for _, x := range cells {
+		if x.cls == cTime && x.date.form == dfSlash {
+			return true
+		}
+	}
+	return false
+}
+
+func markName(m byte) string {
+	if m == ',' {
+		return "comma"
+	}
+	return "point"
+}
+
+func firstAmbig(cells []sniffCell) string {
+	for _, x := range cells {
+		if x.cls == cNumber && x.ev == evAmbig {
+			return x.text
+		}
+	}
+	return ""
+}
+
+func ambigMeaning(s string) string {
+	p, _ := splitNumber(s)
+	k := strings.IndexByte(p.body, ',')
+	if k < 0 {
+		return "two things"
+	}
+	sign := ""
+	if p.neg {
+		sign = "-"
+	}
+	return fmt.Sprintf("%s%s.%s (decimal comma) or %s%s%s (thousands separator)", sign, p.body[:k], p.body[k+1:], sign, p.body[:k], p.body[k+1:])
+}
+
+// headerName splits a header cell into a name and a unit: "Weight (g)",
+// "Weight [g]", "Weight/g", "Weight, g".
+func headerName(h string) (name, unit string) {
+	h = trimCell(h)
+	for _, br := range [][2]byte{{'(', ')'}, {'[', ']'}} {
+		if strings.HasSuffix(h, string(br[1])) {
+			if k := strings.LastIndexByte(h, br[0]); k > 0 {
+				inner := trimCell(h[k+1 : len(h)-1])
+				nm := trimCell(h[:k])
+				if nm != "" && unitLike(inner) {
+					return nm, inner
+				}
+			}
+		}
+	}
+	for _, sep := range []string{"/", ", ", " in "} {
+		if k := strings.LastIndex(h, sep); k > 0 {
+			u := trimCell(h[k+len(sep):])
+			if _, ok := unitOf(u); ok && trimCell(h[:k]) != "" {
+				return trimCell(h[:k]), u
+			}
+		}
+	}
+	return h, ""
+}
+
+// unitLike accepts a known unit or a short token of letters and unit signs.
+func unitLike(s string) bool {
+	if _, ok := unitOf(s); ok {
+		return true
+	}
+	if s == "" || utf8.RuneCountInString(s) > 10 {
+		return false
+	}
+	letters := 0
+	for _, r := range s {
+		switch {
+		case unicode.IsLetter(r):
+			letters++
+		case strings.ContainsRune("%‰°²³/·.'µΩ", r):
+		default:
+			return false
+		}
+	}
+	return letters > 0 || s == "%" || s == "‰"
+}
+
+// finishTable completes the table after the last record.
+func (s *Stream) finishTable() (*Table, error) {
+	t := s.tab
+	s.pend = s.pend[:0] // empty lines after the last data row are not cells
+	t.Format.Bytes = s.total
+	t.Format.Rows = s.row
+	if s.latin1 > 0 {
+		t.Format.Encoding = "windows-1252"
+		if s.enc != encUTF8 {
+			t.Format.Encoding += " (partly)"
+		}
+	}
+	// drop unnamed columns that hold nothing (a trailing separator)
+	var keep []*Column
+	dropped := map[int]bool{}
+	for _, c := range s.cols {
+		if len(s.cols) > 1 && c.Header == "" && c.Missing == len(c.Values) {
+			dropped[c.Position] = true
+			continue
+		}
+		keep = append(keep, c)
+	}
+	if len(dropped) > 0 {
+		ps := t.Problems[:0]
+		for _, p := range t.Problems {
+			if !dropped[p.Col] || p.Kind != KindMissing && p.Kind != KindHeader || p.Row == 0 {
+				ps = append(ps, p)
+			}
+		}
+		t.Problems = ps
+	}
+	t.Columns = keep
+	for _, c := range keep {
+		c.Rows = s.rows
+		if c.Kind == "empty" && c.Numbers > 0 {
+			c.Kind = "number"
+		}
+		c.Labels = len(c.labels)
+		c.labMap = nil
+	}
+	if t.Unlisted > 0 {
+		t.Problems = append(t.Problems, Problem{Kind: KindMore, Reason: fmt.Sprintf("%d more problems are not listed", t.Unlisted), Action: "the counts include them; fix the first ones and read again"})
+	}
+	guessRoles(t)
+	if err := s.noNumbers(); err != nil {
+		return nil, err
+	}
+	return t, nil
+}
+
+// noNumbers explains a table without a single number.
+func (s *Stream) noNumbers() error {
+	t := s.tab
+	nums, cells, missing := 0, 0, 0
+	for _, c := range t.Columns {
+		if c.Kind == "number" {
+			nums += c.Numbers
+		}
+		cells += len(c.Values)
+		missing += c.Missing
+	}
+	if nums > 0 {
+		return nil
+	}
+	if s.row <= 2 && s.longest > 1<<20 {
+		return fmt.Errorf("no numbers found in one line of %.1f MB: this does not look like a table of measurements; paste one value per line, or a table with one column per characteristic", float64(s.longest)/(1<<20))
+	}
+	if t.HeaderRow > 0 && cells == 0 {
+		return fmt.Errorf("only a header row was found (row %d: %s) and no data under it: paste the measurements together with the header", t.HeaderRow, headerList(t))
+	}
+	if cells > 0 && missing == cells {
+		return fmt.Errorf("no numbers found: all %d cells are empty or marked missing (such as NA, - or #N/A); paste the measurements themselves", cells)
+	}
+	for _, p := range t.Problems {
+		if p.Kind == KindNotNumber || p.Kind == KindDecimalMark || p.Kind == KindUnit {
+			return fmt.Errorf("no numbers found: column %q holds text such as %q in row %d; paste or choose a column of measurements", p.Column, p.Text, p.Row)
+		}
+	}
+	for _, c := range t.Columns {
+		if c.Kind == "text" || c.Kind == "time" {
+			for i := range c.Values {
+				if txt := c.Text(i); txt != "" {
+					what := "words"
+					if c.Kind == "time" {
+						what = "dates or times"
+					}
+					return fmt.Errorf("no numbers found: column %q holds %s, such as %q in row %d; paste or choose a column of measurements", c.Name, what, txt, c.Rows[i])
+				}
+			}
+		}
+	}
+	return errors.New("no numbers found: paste a column of measurements, one value per line, or a table with a header")
+}
+
+func headerList(t *Table) string {
+	var names []string
+	for _, c := range t.Columns {
+		h := c.Header
+		if h == "" {
+			h = c.Name
+		}
+		names = append(names, fmt.Sprintf("%q", h))
+	}
+	if len(names) > 6 {
+		names = append(names[:6], "...")
+	}
+	return strings.Join(names, ", ")
+}
+
+// guessRoles suggests what each column is for, and the table's shape.
+func guessRoles(t *Table) {
+	values, groups := 0, 0
+	for _, c := range t.Columns {
+		switch c.Kind {
+		case "time":
+			c.Role = "order"
+		case "text":
+			n := len(c.Values) - c.Missing
+			if c.Labels >= 1 && n >= 2 && c.Labels < n {
+				c.Role = "group"
+				groups++
+			}
+		case "number":
+			c.Role = numberRole(c)
+			if c.Role == "value" {
+				values++
+			}
+		}
+	}
+	switch {
+	case values == 1 && groups > 0:
+		t.Shape = "long"
+	case values > 1:
+		t.Shape = "wide"
+	case values == 1:
+		t.Shape = "single"
+	}
+	if values == 0 {
+		for _, c := range t.Columns {
+			if c.Kind == "number" && c.Numbers > 0 {
+				c.Role = "value"
+				t.Shape = "single"
+				break
+			}
+		}
+	}
+}
+
+// numberRole: a whole-number column that rises by one each row is an
+// order (sequence number); one in equal runs (1,1,1,2,2,2...) a subgroup.
+func numberRole(c *Column) string {
+	if c.Numbers < 3 || c.Bad > 0 {
+		return "value"
+	}
+	var xs []float64
+	for i, v := range c.Values {
+		if v == v {
+			if c.Dec[i] != 0 {
+				return "value"
+			}
+			xs = append(xs, v)
+		}
+	}
+	increasing, runs := true, []int{1}
+	for i := 1; i < len(xs); i++ {
+		switch {
+		case xs[i] == xs[i-1]:
+			increasing = false
+			runs[len(runs)-1]++
+		case xs[i] > xs[i-1]:
+			runs = append(runs, 1)
+		default:
+			return "value"
+		}
+	}
+	if increasing {
+		return "order"
+	}
+	if len(runs) >= 2 && runs[0] >= 2 {
+		body := runs[:len(runs)-1]
+		sort.Ints(body)
+		if body[0] == body[len(body)-1] && runs[len(runs)-1] <= runs[0] {
+			return "subgroup"
+		}
+	}
+	return "value"
+}
+
+// markHint is the decimal mark the whole file shows: semicolon-separated
+// files come from decimal-comma locales; otherwise unambiguous cells in any
+// column decide, when they agree. 0 when nothing decides.
+func markHint(sep byte, cols [][]sniffCell) byte {
+	if sep == ';' {
+		return ','
+	}
+	comma, point := 0, 0
+	for _, cells := range cols {
+		for _, x := range cells {
+			if x.cls != cNumber {
+				continue
+			}
+			switch x.ev {
+			case evComma:
+				comma++
+			case evPoint:
+				point++
+			}
+		}
+	}
+	switch {
+	case comma > 0 && point == 0:
+		return ','
+	case point > 0 && comma == 0:
+		return '.'
+	}
+	return 0
+}
