@@ -91,7 +91,7 @@ func pickColumn(tab *ingest.Table, name string) (*ingest.Column, error) {
 			}
 		}
 		for _, c := range tab.Columns {
-			if strings.EqualFold(strings.TrimSpace(c.Name), strings.TrimSpace(name)) {
+			if strings.EqualFold(strings.TrimSpace(c.Name), strings.TrimSpace(name)) || (c.Header != "" && c.Header == name) {
 				return c, nil
 			}
 		}
@@ -102,7 +102,12 @@ func pickColumn(tab *ingest.Table, name string) (*ingest.Column, error) {
 		return nil, fmt.Errorf("no column named %q: the data have %s; choose one of those", name, strings.Join(names, ", "))
 	}
 	for _, c := range tab.Columns {
-		if c.Numbers > 0 && c.Numbers >= c.Bad {
+		if c.Role == "value" && c.Numbers > 0 {
+			return c, nil
+		}
+	}
+	for _, c := range tab.Columns {
+		if c.Kind == "number" && c.Numbers > 0 && c.Numbers >= c.Bad {
 			return c, nil
 		}
 	}

@@ -1,8 +1,9 @@
 package stats
 
 // The methods (shape, probability plot, outlier rules, target tests) live in
-// their own files. Until each lands, its hook is nil and its report section
-// is left out.
+// their own files, which register themselves here in an init function
+// (shape.go: hookShape = shapeSection, and so on). A nil hook leaves its
+// report section out.
 var (
 	hookShape    func(sorted []float64, mean, sd float64) (*Shape, []Note)
 	hookProbPlot func(sorted []float64, mean, sd, conf float64, maxPoints int) ProbPlot
