@@ -248,9 +248,20 @@ func countLeadingZeros(x uint64) int {
 // for an even number of pairs it is the mean of the two middle ones.
 // sorted is ascending; ok is false for fewer than 3 values.
 func medcouple(sorted []float64) (mc float64, ok bool) {
+	a, b, ok := medcoupleMiddle(sorted)
+	if !ok {
+		return 0, false
+	}
+	mc = a/2 + b/2
+	return mc, finite(mc)
+}
+
+// medcoupleMiddle returns the two middle kernel values (equal when their
+// number is odd).
+func medcoupleMiddle(sorted []float64) (lo, hi float64, ok bool) {
 	n := len(sorted)
 	if n < 3 || n > math.MaxInt32 {
-		return 0, false
+		return 0, 0, false
 	}
 	m := sorted[(n-1)/2]
 	if n%2 == 0 {
@@ -268,7 +279,7 @@ func medcouple(sorted []float64) (mc float64, ok bool) {
 	}
 	rows, cols := p, n-q
 	if rows == 0 || cols == 0 {
-		return 0, false
+		return 0, 0, false
 	}
 	x := sorted
 	mx := &imMatrix{rows: rows, cols: cols}
@@ -345,9 +356,8 @@ func medcouple(sorted []float64) (mc float64, ok bool) {
 	N := mx.total()
 	if N%2 == 1 {
 		v, _ := imSelect(mx, N/2, false)
-		return v, finite(v)
+		return v, v, finite(v)
 	}
 	a, b := imSelect(mx, N/2-1, true)
-	v := a/2 + b/2
-	return v, finite(v)
+	return a, b, finite(a) && finite(b)
 }

@@ -173,3 +173,26 @@ func BenchmarkSortBaseline1M(b *testing.B) {
 		slices.Sort(y)
 	}
 }
+
+// The medcouple of the 24 invented sets against R 4.2.2: the definition
+// written out in R (mcNaive, the mean of the two middle kernel values when
+// their number is even) and robustbase 0.95-0's mc(x, doReflect = FALSE),
+// which returns the lower middle value (mcLow).
+func TestMedcoupleR(t *testing.T) {
+	ref := methodsRef(t)
+	for set, r := range ref {
+		x, _, _ := methodsSet(t, set)
+		mc, ok := medcouple(x)
+		lo, _, _ := medcoupleMiddle(x)
+		if !ok {
+			t.Errorf("%s: no medcouple", set)
+			continue
+		}
+		if !mClose(mc, r["mcNaive"], 1e-12, 1e-13) {
+			t.Errorf("%s: medcouple %.17g, R 4.2.2 definition %.17g", set, mc, r["mcNaive"])
+		}
+		if !mClose(lo, r["mcLow"], 1e-12, 1e-13) {
+			t.Errorf("%s: lower middle kernel %.17g, R 4.2.2 robustbase::mc %.17g", set, lo, r["mcLow"])
+		}
+	}
+}

@@ -5,6 +5,8 @@ import (
 	"math"
 )
 
+func init() { hookShape = shapeSection }
+
 // Validity limits of the shape tests.
 const (
 	skewTestMinN  = 8    // D'Agostino (1970) skewness test

@@ -1,0 +1,180 @@
+package stats
+
+import (
+	"bufio"
+	"math"
+	"os"
+	"path/filepath"
+	"slices"
+	"strconv"
+	"strings"
+	"testing"
+)
+
+// Reference values for the methods: testdata/rref/methods.tsv, written by
+// testdata/rref/methods.R with R 4.2.2 (r-cran-nortest 1.0-4,
+// r-cran-robustbase 0.95-0) from the invented sets in testdata/sets.
+
+func methodsRef(t *testing.T) map[string]map[string]float64 {
+	t.Helper()
+	f, err := os.Open(filepath.Join("..", "testdata", "rref", "methods.tsv"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	ref := map[string]map[string]float64{}
+	sc := bufio.NewScanner(f)
+	sc.Scan() // header
+	for sc.Scan() {
+		p := strings.Split(sc.Text(), "\t")
+		if len(p) != 3 {
+			t.Fatalf("bad line %q", sc.Text())
+		}
+		v, err := strconv.ParseFloat(p[2], 64)
+		if err != nil {
+			t.Fatalf("bad value in %q", sc.Text())
+		}
+		if ref[p[0]] == nil {
+			ref[p[0]] = map[string]float64{}
+		}
+		ref[p[0]][p[1]] = v
+	}
+	if len(ref) < 24 {
+		t.Fatalf("methods.tsv holds %d sets, want 24", len(ref))
+	}
+	return ref
+}
+
+// methodsSet reads one invented set, sorted, with its mean and SD
+// (compensated two-pass).
+func methodsSet(t *testing.T, name string) (sorted []float64, mean, sd float64) {
+	t.Helper()
+	b, err := os.ReadFile(filepath.Join("..", "testdata", "sets", name))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, l := range strings.Fields(string(b)) {
+		v, err := strconv.ParseFloat(l, 64)
+		if err != nil {
+			t.Fatalf("%s: %v", name, err)
+		}
+		sorted = append(sorted, v)
+	}
+	slices.Sort(sorted)
+	n := float64(len(sorted))
+	var s float64
+	for _, x := range sorted {
+		s += x
+	}
+	mean = s / n
+	var c, ss float64
+	for _, x := range sorted {
+		c += x - mean
+		ss += (x - mean) * (x - mean)
+	}
+	mean += c / n
+	sd = math.Sqrt((ss - c*c/n) / (n - 1))
+	return
+}
+
+// close reports whether got is within rel (relative) or abs of want.
+func mClose(got, want, rel, abs float64) bool {
+	d := math.Abs(got - want)
+	return d <= abs || d <= rel*math.Abs(want)
+}
+
+type mCheck struct {
+	stat     string
+	got      *float64
+	rel, abs float64
+}
+
+func runChecks(t *testing.T, set string, ref map[string]float64, cs []mCheck) int {
+	t.Helper()
+	n := 0
+	for _, c := range cs {
+		want, ok := ref[c.stat]
+		if !ok {
+			if c.got != nil {
+				t.Errorf("%s %s: we give %v where R 4.2.2 gives none", set, c.stat, *c.got)
+			}
+			continue
+		}
+		if c.got == nil {
+			t.Errorf("%s %s: missing, R 4.2.2 gives %.17g", set, c.stat, want)
+			continue
+		}
+		if !mClose(*c.got, want, c.rel, c.abs) {
+			t.Errorf("%s %s = %.17g, R 4.2.2 gives %.17g", set, c.stat, *c.got, want)
+		}
+		n++
+	}
+	return n
+}
+
+func fp(x float64) *float64 { return &x }
+
+// Shape statistics on the 24 invented sets against R 4.2.2: moments and
+// D'Agostino tests by their published formulas in R, shapiro.test and
+// nortest::ad.test.
+func TestShapeR(t *testing.T) {
+	ref := methodsRef(t)
+	checked := 0
+	for set, r := range ref {
+		x, mean, sd := methodsSet(t, set)
+		sh, _ := shapeSection(x, mean, sd)
+		var cs []mCheck
+		add := func(stat string, got *float64, rel, abs float64) {
+			cs = append(cs, mCheck{stat, got, rel, abs})
+		}
+		if sh.Skewness != nil {
+			add("G1", &sh.Skewness.Value, 1e-9, 1e-12)
+			add("SES", &sh.Skewness.SE, 1e-12, 0)
+			if tt := sh.Skewness.Test; tt != nil {
+				add("skewZ", &tt.Statistic, 1e-9, 1e-12)
+				add("skewP", &tt.P, 1e-8, 1e-15)
+			} else {
+				add("skewZ", nil, 0, 0)
+			}
+		} else {
+			add("G1", nil, 0, 0)
+		}
+		if sh.Kurtosis != nil {
+			add("G2", &sh.Kurtosis.Value, 1e-9, 1e-12)
+			add("SEK", &sh.Kurtosis.SE, 1e-12, 0)
+			if tt := sh.Kurtosis.Test; tt != nil {
+				add("kurtZ", &tt.Statistic, 1e-9, 1e-12)
+				add("kurtP", &tt.P, 1e-8, 1e-15)
+			} else {
+				add("kurtZ", nil, 0, 0)
+			}
+		} else {
+			add("G2", nil, 0, 0)
+		}
+		if sh.Omnibus != nil {
+			add("K2", &sh.Omnibus.Statistic, 1e-9, 1e-12)
+			add("K2P", &sh.Omnibus.P, 1e-8, 1e-15)
+		} else {
+			add("K2", nil, 0, 0)
+		}
+		if sh.Shapiro != nil {
+			add("swW", &sh.Shapiro.Statistic, 1e-10, 0)
+			add("swP", &sh.Shapiro.P, 1e-7, 1e-15)
+		} else {
+			add("swW", nil, 0, 0)
+		}
+		if sh.Anderson != nil {
+			add("adA", &sh.Anderson.Statistic, 1e-9, 1e-12)
+			add("adP", &sh.Anderson.P, 1e-8, 1e-15)
+		} else {
+			add("adA", nil, 0, 0)
+		}
+		if len(x) > shapiroMaxN && (sh.Large == nil || sh.Large.Statistic != sh.Omnibus.Statistic) {
+			t.Errorf("%s: above 5000 values the large-sample test should be the K² test", set)
+		}
+		checked += runChecks(t, set, r, cs)
+	}
+	if checked < 200 {
+		t.Errorf("only %d shape values checked", checked)
+	}
+}
