@@ -123,16 +123,10 @@ func fenceCounts(sorted []float64, b Box) (inner, outer int) {
 // blocks and each block keeps its smallest and largest value in data order,
 // so extremes and shifts stay visible (the min-max decimation of plotting
 // practice).
-func series(cv *colView, excl map[int32]bool) ([]SeriesPt, bool) {
+func series(cv *colView, excl map[int32]bool, n int) ([]SeriesPt, bool) {
 	used := func(i int) bool {
 		x := cv.vals[i]
 		return x == x && !math.IsInf(x, 0) && !(excl != nil && excl[cv.rows[i]])
-	}
-	n := 0
-	for i := range cv.vals {
-		if used(i) {
-			n++
-		}
 	}
 	if n <= maxChartPoints {
 		out := make([]SeriesPt, 0, n)

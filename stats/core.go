@@ -223,7 +223,11 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	if hookOutliers != nil && n >= 3 {
 		rules, flags := hookOutliers(sorted, qs.Q1, qs.Q3, median, 1-opts.Confidence)
 		suspects.Rules = rules
-		suspects.Readings = mapFlags(sorted, flags, cv)
+		var note *Note
+		suspects.Readings, note = mapFlags(sorted, flags, cv)
+		if note != nil {
+			rep.Notes = append(rep.Notes, *note)
+		}
 	}
 	if hookOutliers != nil || n < 3 {
 		rep.Suspects = suspects
@@ -248,7 +252,7 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	} else {
 		ch.ProbPlot = ProbPlot{Points: []ProbPt{}, Band: []BandPt{}}
 	}
-	ch.Series, ch.Thinned = series(cv, excl)
+	ch.Series, ch.Thinned = series(cv, excl, n)
 	rep.Charts = ch
 
 	inner, outer := fenceCounts(sorted, ch.Box)
@@ -353,13 +357,13 @@ func textsOf(vals []float64, cv *colView) []string {
 	if len(vals) == 0 {
 		return out
 	}
-	want := make(map[float64]int, len(vals))
+	ix := newF64index(len(vals))
 	for k, v := range vals {
-		want[v] = k
+		ix.put(v, int32(k))
 	}
 	left := len(vals)
 	for i, x := range cv.vals {
-		if k, ok := want[x]; ok && out[k] == "" && !cv.excludedByUser[cv.rows[i]] {
+		if k := ix.get(x); k >= 0 && out[k] == "" && !cv.excludedByUser[cv.rows[i]] {
 			out[k] = cv.text(i)
 			left--
 			if left == 0 {
@@ -471,14 +475,14 @@ func fenceSensitivity(rep *Report, qs *Quantiles, sorted []float64, cv *colView)
 
 // rowsHolding lists (up to limit) the rows of readings holding any of vals.
 func rowsHolding(vals []float64, cv *colView, limit int) string {
-	want := map[float64]bool{}
+	ix := newF64index(len(vals))
 	for _, v := range vals {
-		want[v] = true
+		ix.put(v, 0)
 	}
 	var rows []string
 	total := 0
 	for i, x := range cv.vals {
-		if want[x] && !cv.excludedByUser[cv.rows[i]] {
+		if ix.get(x) >= 0 && !cv.excludedByUser[cv.rows[i]] {
 			total++
 			if len(rows) < limit {
 				rows = append(rows, "row "+strconv.Itoa(int(cv.rows[i]))+" ("+cv.text(i)+")")
@@ -492,31 +496,60 @@ func rowsHolding(vals []float64, cv *colView, limit int) string {
 	return s
 }
 
+// maxSuspects bounds the readings listed in a report; the rules still
+// count every flagged reading.
+const maxSuspects = 1000
+
 // mapFlags turns flags keyed by index into sorted into readings with row,
 // column and text. Equal values carry the same flags, so every reading
-// holding a flagged value is listed.
-func mapFlags(sorted []float64, flags map[int][]Flag, cv *colView) []Suspect {
+// holding a flagged value is listed. Beyond maxSuspects readings the most
+// extreme (farthest from the middle of the ordered data) are kept and a Note
+// says how many were flagged.
+func mapFlags(sorted []float64, flags map[int][]Flag, cv *colView) ([]Suspect, *Note) {
 	out := []Suspect{}
 	if len(flags) == 0 {
-		return out
+		return out, nil
 	}
-	byVal := make(map[float64][]Flag, len(flags))
-	for i, f := range flags {
-		if i < 0 || i >= len(sorted) {
+	n := len(sorted)
+	idx := make([]int, 0, len(flags))
+	for i := range flags {
+		if i >= 0 && i < n {
+			idx = append(idx, i)
+		}
+	}
+	depth := func(i int) int { return min(i, n-1-i) }
+	sort.Slice(idx, func(a, b int) bool {
+		if depth(idx[a]) != depth(idx[b]) {
+			return depth(idx[a]) < depth(idx[b])
+		}
+		return idx[a] < idx[b]
+	})
+	var note *Note
+	if len(idx) > maxSuspects {
+		note = &Note{Field: "suspects.readings", Text: fmt.Sprintf("%d readings are flagged; the %d most extreme are listed (the rules give the full counts)", len(idx), maxSuspects)}
+		idx = idx[:maxSuspects]
+	}
+	ix := newF64index(len(idx))
+	var fl [][]Flag
+	left := make([]int, 0, len(idx))
+	for _, i := range idx {
+		v := sorted[i]
+		if k := ix.get(v); k >= 0 {
+			left[k]++
 			continue
 		}
-		v := sorted[i]
-		if _, ok := byVal[v]; !ok {
-			byVal[v] = f
-		}
+		ix.put(v, int32(len(fl)))
+		fl = append(fl, flags[i])
+		left = append(left, 1)
 	}
 	for i, x := range cv.vals {
-		if f, ok := byVal[x]; ok && !cv.excludedByUser[cv.rows[i]] {
-			out = append(out, Suspect{Reading: Reading{Row: int(cv.rows[i]), Column: cv.name, Text: cv.text(i), Value: x}, Flags: f})
+		if k := ix.get(x); k >= 0 && left[k] > 0 && !cv.excludedByUser[cv.rows[i]] {
+			left[k]--
+			out = append(out, Suspect{Reading: Reading{Row: int(cv.rows[i]), Column: cv.name, Text: cv.text(i), Value: x}, Flags: fl[k]})
 		}
 	}
 	sort.SliceStable(out, func(a, b int) bool { return out[a].Row < out[b].Row })
-	return out
+	return out, note
 }
 
 // probPlotRows fills the row of each probability-plot point: readings that
@@ -525,20 +558,28 @@ func probPlotRows(pts []ProbPt, cv *colView) {
 	if len(pts) == 0 {
 		return
 	}
-	want := make(map[float64][]int32, len(pts))
-	need := make(map[float64]int, len(pts))
+	ix := newF64index(len(pts))
+	var need []int
 	for _, p := range pts {
-		need[p.Y]++
+		id := ix.get(p.Y)
+		if id < 0 {
+			id = int32(len(need))
+			ix.put(p.Y, id)
+			need = append(need, 0)
+		}
+		need[id]++
 	}
+	got := make([][]int32, len(need))
 	for i, x := range cv.vals {
-		if k, ok := need[x]; ok && len(want[x]) < k && !cv.excludedByUser[cv.rows[i]] {
-			want[x] = append(want[x], cv.rows[i])
+		if id := ix.get(x); id >= 0 && len(got[id]) < need[id] && !cv.excludedByUser[cv.rows[i]] {
+			got[id] = append(got[id], cv.rows[i])
 		}
 	}
 	for i := range pts {
-		if rows := want[pts[i].Y]; len(rows) > 0 {
+		id := ix.get(pts[i].Y)
+		if rows := got[id]; len(rows) > 0 {
 			pts[i].Row = int(rows[0])
-			want[pts[i].Y] = rows[1:]
+			got[id] = rows[1:]
 		}
 	}
 }
