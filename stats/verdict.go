@@ -45,14 +45,19 @@ func pText(p float64) string {
 // verdict decides which pair of figures to quote, by these rules, in order:
 //
 //  1. one value, or all values equal: mean and SD (there is nothing else).
-//  2. skewed: |G1| >= 1, or |G1| >= 0.5 with D'Agostino's skewness test
-//     (D'Agostino 1970) significant at 5% -> median and IQR.
+//  2. skewed (8 values or more): |G1| >= 1, or |G1| >= 0.5 with
+//     D'Agostino's skewness test (D'Agostino 1970) significant at 5% ->
+//     median and IQR.
 //  3. any reading beyond Tukey's outer fence (3 IQR beyond the quartiles,
 //     Tukey 1977) -> median and IQR.
 //  4. more than 2% of readings (and at least 3) beyond the inner fences
 //     (1.5 IQR) -> median and IQR.
 //  5. otherwise mean and SD; below 8 values the shape cannot be tested and
 //     the report says that the choice rests on the fences alone.
+//
+// When the IQR is 0 (half the readings or more share one value) rules 3
+// and 4 are not applied: such fences would flag every other reading, and an
+// IQR of 0 describes nothing; the reason "iqr-zero" says so.
 //
 // Warnings: fewer than 20 values; a resolution too coarse for the
 // tolerance (fewer than 10 steps across it) or for the spread (SD below 2
@@ -71,7 +76,8 @@ func verdict(rep *Report, opts Options, n int, constant bool, maxRun, distinct i
 		v.Reasons = append(v.Reasons, Reason{Code: "constant", Text: fmt.Sprintf("All %d values are equal (%s): the SD and IQR are 0.", n, g3(rep.Quantile.Min)), Vals: map[string]float64{"n": float64(n)}})
 	default:
 		var why []Reason
-		if sh := rep.Shape; sh != nil && sh.Skewness != nil {
+		iqrZero := rep.Spread != nil && rep.Spread.IQR == 0
+		if sh := rep.Shape; sh != nil && sh.Skewness != nil && n >= tinyN {
 			g1 := sh.Skewness.Value
 			side := "right"
 			if g1 < 0 {
@@ -92,6 +98,11 @@ func verdict(rep *Report, opts Options, n int, constant bool, maxRun, distinct i
 				why = append(why, Reason{Code: side + "-skewed", Text: txt, Vals: vals})
 			}
 		}
+		if iqrZero {
+			// half the readings or more share one value: fences at 0 IQR
+			// would flag every other reading, and an IQR of 0 says nothing
+			inner, outer = 0, 0
+		}
 		if outer > 0 {
 			why = append(why, Reason{Code: "beyond-outer-fence", Text: fmt.Sprintf("%d reading%s beyond the outer fence (3 IQR beyond the quartiles)", outer, plural(outer, " lies", "s lie")), Vals: map[string]float64{"count": float64(outer)}})
 		}
@@ -105,6 +116,9 @@ func verdict(rep *Report, opts Options, n int, constant bool, maxRun, distinct i
 			break
 		}
 		v.Quote = "mean-sd"
+		if iqrZero {
+			v.Reasons = append(v.Reasons, Reason{Code: "iqr-zero", Text: "the middle half of the readings share one value (IQR = 0), so the IQR and the fences cannot describe the spread; the SD can"})
+		}
 		if sh := rep.Shape; sh != nil && sh.Skewness != nil && n >= tinyN {
 			vals := map[string]float64{"g1": sh.Skewness.Value}
 			txt := fmt.Sprintf("the data are roughly symmetric (G1 = %s", g3(sh.Skewness.Value))
@@ -118,7 +132,9 @@ func verdict(rep *Report, opts Options, n int, constant bool, maxRun, distinct i
 		} else {
 			v.Reasons = append(v.Reasons, Reason{Code: "shape-unknown", Text: "the shape statistics are not available; the choice rests on the fences alone"})
 		}
-		v.Reasons = append(v.Reasons, Reason{Code: "no-far-out", Text: "no reading lies beyond the outer fences"})
+		if !iqrZero {
+			v.Reasons = append(v.Reasons, Reason{Code: "no-far-out", Text: "no reading lies beyond the outer fences"})
+		}
 	}
 
 	// Warnings.

@@ -26,6 +26,11 @@ func TestVerdictRules(t *testing.T) {
 		{"18-n1000-normal.txt", "mean-sd", "no-far-out"},
 		{"20-n6000-normal.txt", "mean-sd", "no-far-out"},
 		{"13-tiny-n3.txt", "mean-sd", "small-sample"},
+		// skewness by construction (lognormal, right-skewed, left-skewed sets)
+		{"03-torque-lognormal-n60.txt", "median-iqr", "right-skewed"},
+		{"04-seal-rightskew-n120.txt", "median-iqr", "right-skewed"},
+		{"05-leftskew-n80.txt", "median-iqr", "left-skewed"},
+		{"08-heavytail-t3-n150.txt", "median-iqr", "many-beyond-inner-fence"},
 	}
 	for _, c := range cases {
 		rep := analyzeFile(t, "../testdata/sets/"+c.set, Options{})
@@ -42,10 +47,15 @@ func TestVerdictRules(t *testing.T) {
 			t.Errorf("%s: caution missing", c.set)
 		}
 	}
-	// warnings: heavy ties (common practice: fewer than 10 distinct values)
+	// warnings: heavy ties (common practice: fewer than 10 distinct values);
+	// set 09 has IQR 0 (R 4.2.2: both type-7 quartiles are 7), so the
+	// fences are not used
 	rep := analyzeFile(t, "../testdata/sets/09-coarse-ties-n50.txt", Options{})
 	if w := codes(rep.Verdict.Warnings); !strings.Contains(w, "heavy-ties") {
 		t.Errorf("09: warnings %q", w)
+	}
+	if rep.Verdict.Quote != "mean-sd" || !strings.Contains(codes(rep.Verdict.Reasons), "iqr-zero") {
+		t.Errorf("09: %s %s", rep.Verdict.Quote, codes(rep.Verdict.Reasons))
 	}
 	// small sample warning below 20 values (common practice)
 	rep = analyzeFile(t, "../testdata/sets/15-small-n8.txt", Options{})
