@@ -4,11 +4,14 @@ import (
 	"math/rand/v2"
 	"runtime"
 	"runtime/debug"
+	"runtime/metrics"
 	"slices"
 	"strconv"
 	"strings"
 	"sync"
+	"sync/atomic"
 	"testing"
+	"time"
 
 	"lotlens/stats/ingest"
 )
@@ -57,6 +60,46 @@ func allocPerValue(n int, f func()) float64 {
 	return float64(m1.TotalAlloc-m0.TotalAlloc) / float64(n)
 }
 
+// peakPerValue estimates the peak of live heap memory during f beyond what
+// was live before, per value: the collector runs often (GOGC=5) and a
+// sampler reads the live heap every 200 µs. An estimate, not a bound; the
+// collector-off total (allocPerValue) is the bound.
+func peakPerValue(n int, f func()) float64 {
+	runtime.GC()
+	old := debug.SetGCPercent(5)
+	defer debug.SetGCPercent(old)
+	sample := []metrics.Sample{{Name: "/memory/classes/heap/objects:bytes"}}
+	metrics.Read(sample)
+	base := sample[0].Value.Uint64()
+	var peak atomic.Uint64
+	done := make(chan struct{})
+	stopped := make(chan struct{})
+	go func() {
+		defer close(stopped)
+		s := []metrics.Sample{{Name: "/memory/classes/heap/objects:bytes"}}
+		for {
+			select {
+			case <-done:
+				return
+			default:
+			}
+			metrics.Read(s)
+			if v := s[0].Value.Uint64(); v > peak.Load() {
+				peak.Store(v)
+			}
+			time.Sleep(200 * time.Microsecond)
+		}
+	}()
+	f()
+	close(done)
+	<-stopped
+	p := peak.Load()
+	if p < base {
+		return 0
+	}
+	return float64(p-base) / float64(n)
+}
+
 func benchAnalyze(b *testing.B, n int) {
 	text := benchData(n)
 	b.SetBytes(int64(len(text)))
@@ -68,6 +111,7 @@ func benchAnalyze(b *testing.B, n int) {
 	}
 	b.StopTimer()
 	b.ReportMetric(allocPerValue(n, func() { Analyze(Request{Text: text}) }), "allocB/value")
+	b.ReportMetric(peakPerValue(n, func() { Analyze(Request{Text: text}) }), "peakB/value")
 	var tab *ingest.Table
 	readB := allocPerValue(n, func() { tab, _ = ingest.Read(text) })
 	b.ReportMetric(readB, "readerB/value")
