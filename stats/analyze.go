@@ -9,6 +9,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 
 	"lotlens/stats/ingest"
@@ -64,7 +65,9 @@ func AnalyzeTable(tab *ingest.Table, fingerprint string, req Request) (*Report, 
 	rep := newReport(fingerprint, cv, opts)
 	rep.Input.Columns = infos
 	rep.Input.Summary = tab.Summary()
-	rep.Input.Problems = tab.Problems
+	// clipped: appending to the report's list must never write into the
+	// reader's array (the page analyses one table many times)
+	rep.Input.Problems = slices.Clip(tab.Problems)
 	analyzeColumn(rep, cv, opts)
 	return rep, nil
 }

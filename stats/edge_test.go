@@ -5,9 +5,12 @@ import (
 	"encoding/json"
 	"math"
 	"regexp"
+	"slices"
 	"strconv"
 	"strings"
 	"testing"
+
+	"lotlens/stats/ingest"
 )
 
 // checkClean fails when the report does not marshal or holds a NaN/Inf.
@@ -341,5 +344,40 @@ func TestExactRange(t *testing.T) {
 	rep, _ := Analyze(Request{Text: lines("0.1", "0.2", "0.3")})
 	if rep.Spread.Range != 0.2 {
 		t.Errorf("range %v, want 0.2", rep.Spread.Range)
+	}
+}
+
+// TestAnalyzeTableReuse: the page analyses one table many times with
+// different options; the table must not change between calls.
+func TestAnalyzeTableReuse(t *testing.T) {
+	tab, err := ingest.Read(lines("12.1", "x", "12.3", "12.2", "99.0", "12.4"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	nProb := len(tab.Problems)
+	vals := append([]float64(nil), tab.Columns[0].Values...)
+	a, err := AnalyzeTable(tab, "f", Request{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := AnalyzeTable(tab, "f", Request{Options: Options{Exclude: []int{5}, Quantile: "hf6"}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	c, _ := AnalyzeTable(tab, "f", Request{})
+	same := slices.EqualFunc(vals, tab.Columns[0].Values, func(x, y float64) bool {
+		return x == y || (math.IsNaN(x) && math.IsNaN(y))
+	})
+	if len(tab.Problems) != nProb || !same {
+		t.Fatal("the table changed")
+	}
+	ja, _ := json.Marshal(a)
+	jc, _ := json.Marshal(c)
+	if string(ja) != string(jc) {
+		t.Error("same table, same options, different reports")
+	}
+	// from memory: mean of 12.1, 12.3, 12.2, 12.4 is 12.25
+	if b.Counts.Excluded != 1 || b.Centre.Mean != 12.25 || a.Counts.Used != 5 {
+		t.Errorf("a %+v b %+v", a.Counts, b.Counts)
 	}
 }
