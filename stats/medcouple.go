@@ -30,10 +30,13 @@ type imMatrix struct {
 	upper      bool
 	// val is the entry at (r, c).
 	val func(r, c int) float64
-	// walk sets out[r] to the first column of row r whose entry is > t
-	// (>= t when strict), for every row, and returns the number of entries
-	// <= t (< t when strict). out[r] never decreases when t grows.
-	walk func(t float64, strict bool, out []int32) int64
+	// walk2 runs two staircases at once. For every row r, b1 is the first
+	// column whose entry is > t1 (>= t1 when s1), so that b1 - first(r)
+	// entries of the row are <= t1 (< t1); b2 likewise for t2, s2. When
+	// visit is not nil it is called for consecutive chunks of rows from r0
+	// with their b1 and b2 (the slices are reused). walk2 returns the two
+	// totals. The comparisons must agree exactly with val.
+	walk2 func(t1 float64, s1 bool, t2 float64, s2 bool, visit func(r0 int, b1, b2 []int32)) (n1, n2 int64)
 }
 
 func (m *imMatrix) first(r int) int {
@@ -50,134 +53,264 @@ func (m *imMatrix) total() int64 {
 	return int64(m.rows) * int64(m.cols)
 }
 
+// imBound is one side of the active set: the row boundary of the walk of
+// (t, strict). As a lower bound it excludes the entries < t (strict) or
+// <= t; as an upper bound it keeps the entries <= t (not strict) or < t.
+type imBound struct {
+	t      float64
+	strict bool
+}
+
+// Sizes of the selection rounds.
+const (
+	imSample       = 1 << 16 // sample size per round
+	imMinCollect   = 1 << 16 // gather the candidates once this few remain
+	imCollectShare = 8       // ... or once at most (rows+cols)/8 remain: about 1 byte per value
+)
+
 // imSelect returns the entries of rank k and k+1 (0-based, in ascending
 // order of all entries; the second only when next is set and k+1 exists).
+// Each round is one pass over the rows (two staircases), which also
+// samples the next round's candidates; no per-row state is stored.
 func imSelect(m *imMatrix, k int64, next bool) (vk, vk1 float64) {
-	rows := m.rows
-	L := make([]int32, rows)
-	U := make([]int32, rows)
-	T := make([]int32, rows)
-	for r := range rows {
-		L[r] = int32(m.first(r))
-		U[r] = int32(m.cols)
-	}
 	rng := rand.New(rand.NewPCG(0x4c6f746c656e73, uint64(k)))
-	below := int64(0) // entries left of L: all smaller than the active ones
-	W := m.total()
-	collectLimit := int64(max(1<<12, rows/4))
-	single := false // use one pivot (guarantees progress through ties)
+	lower := imBound{math.Inf(-1), true}
+	upper := imBound{math.Inf(1), false}
+	below := int64(0) // entries excluded by the lower bound (all smaller)
+	W := m.total()    // active entries
+	collectLimit := max(int64(imMinCollect), int64(m.rows+m.cols)/imCollectShare)
+	single := false // next round uses one pivot (progress through ties)
+	var samp, buf []float64
+	sampOK, bufOK := false, false
 
-	// entryAbove is the smallest entry right of U (all larger than any active entry).
-	entryAbove := func() float64 {
+	// smallestAbove is the smallest entry > t (+Inf if none).
+	smallestAbove := func(t float64) float64 {
 		v := math.Inf(1)
-		for r := range rows {
-			if int(U[r]) < m.cols {
-				v = min(v, m.val(r, int(U[r])))
+		m.walk2(t, false, t, false, func(r0 int, b1, _ []int32) {
+			for i, b := range b1 {
+				if int(b) < m.cols {
+					v = min(v, m.val(r0+i, int(b)))
+				}
 			}
-		}
+		})
 		return v
 	}
-	var samp []float64
-	var pos []int64
-	for {
-		if W <= collectLimit || W < 64 {
-			buf := make([]float64, 0, W)
-			for r := range rows {
-				for c := L[r]; c < U[r]; c++ {
-					buf = append(buf, m.val(r, int(c)))
+	finish := func(buf []float64) (float64, float64) {
+		kk := int(min(max(k-below, 0), int64(len(buf)-1)))
+		a := floatSelect(buf, kk)
+		b := a
+		if next {
+			if kk+1 < len(buf) {
+				b = slices.Min(buf[kk+1:])
+			} else {
+				b = smallestAbove(a)
+			}
+		}
+		return a, b
+	}
+	// gather returns all active entries.
+	gather := func() []float64 {
+		out := make([]float64, 0, W)
+		m.walk2(lower.t, lower.strict, upper.t, upper.strict, func(r0 int, b1, b2 []int32) {
+			for i := range b1 {
+				for c := b1[i]; c < b2[i]; c++ {
+					out = append(out, m.val(r0+i, int(c)))
 				}
 			}
-			if len(buf) == 0 { // only after rounding inconsistencies
-				return entryAbove(), entryAbove()
-			}
-			kk := int(min(max(k-below, 0), int64(len(buf)-1)))
-			vk = floatSelect(buf, kk)
-			if next {
-				if kk+1 < len(buf) {
-					vk1 = slices.Min(buf[kk+1:])
-				} else {
-					vk1 = entryAbove()
+		})
+		return out
+	}
+	// sampleActive draws about s active entries uniformly.
+	sampleActive := func(s int) []float64 {
+		out := samp[:0]
+		if math.IsInf(lower.t, -1) && math.IsInf(upper.t, 1) {
+			// Whole matrix: draw cells directly (the triangle's diagonal
+			// is slightly under-drawn; pivots need not be exact quantiles).
+			for range s {
+				r, c := rng.IntN(m.rows), rng.IntN(m.cols)
+				if m.upper && c < r {
+					if r >= m.cols || c >= m.rows {
+						continue
+					}
+					r, c = c, r
 				}
+				out = append(out, m.val(r, c))
 			}
-			return vk, vk1
+			return out
 		}
-		// Sample s active entries uniformly (with replacement).
-		s := 1 << 14
-		if W > 1<<30 {
-			s = 1 << 16
-		}
-		pos = pos[:0]
-		for range s {
-			pos = append(pos, rng.Int64N(W))
+		pos := make([]int64, s)
+		for i := range pos {
+			pos[i] = rng.Int64N(W)
 		}
 		slices.Sort(pos)
-		samp = samp[:0]
 		acc := int64(0)
 		pi := 0
-		for r := 0; r < rows && pi < len(pos); r++ {
-			w := int64(U[r] - L[r])
-			for pi < len(pos) && pos[pi] < acc+w {
-				samp = append(samp, m.val(r, int(L[r])+int(pos[pi]-acc)))
-				pi++
+		m.walk2(lower.t, lower.strict, upper.t, upper.strict, func(r0 int, b1, b2 []int32) {
+			for i := range b1 {
+				w := int64(b2[i] - b1[i])
+				for pi < len(pos) && pos[pi] < acc+w {
+					out = append(out, m.val(r0+i, int(b1[i])+int(pos[pi]-acc)))
+					pi++
+				}
+				acc += w
 			}
-			acc += w
+		})
+		return out
+	}
+	for round := 0; ; round++ {
+		if W <= 0 || round > 200 { // only after rounding inconsistencies
+			return upper.t, upper.t
+		}
+		if bufOK {
+			return finish(buf)
+		}
+		if W <= collectLimit {
+			return finish(gather())
+		}
+		if !sampOK {
+			samp = sampleActive(imSample)
 		}
 		slices.Sort(samp)
-		s = len(samp)
+		s := len(samp)
 		kk := k - below
 		centre := int(float64(kk) / float64(W) * float64(s))
 		var lo, hi float64
+		var i1, i2 int
 		if single {
-			c := min(max(centre, 0), s-1)
-			lo, hi = samp[c], samp[c]
+			i1 = min(max(centre, 0), s-1)
+			i2 = i1
 		} else {
 			d := int(1.5*math.Sqrt(float64(s))) + 2
-			lo = samp[max(centre-d, 0)]
-			hi = samp[min(centre+d, s-1)]
+			i1, i2 = max(centre-d, 0), min(centre+d, s-1)
 		}
-		oldW := W
-		cLT := m.walk(lo, true, T)
-		if k < cLT {
-			// The wanted entry is below lo: keep [L, T).
-			for r := range rows {
-				T[r] = min(T[r], U[r])
+		lo, hi = samp[i1], samp[i2]
+		// One pass: count below lo and up to hi, and sample (or gather)
+		// the band [lo, hi] for the next round in case it holds rank k.
+		wExp := float64(i2-i1+1) / float64(s) * float64(W)
+		gatherBand := wExp <= float64(collectLimit)
+		p := min(1, float64(imSample)/math.Max(wExp, 1))
+		lq := math.Log1p(-p)
+		skip := func() int64 {
+			if p >= 1 {
+				return 0
 			}
-			U, T = T, U
-		} else {
-			cLE := m.walk(hi, false, L) // old L is no longer needed
-			if k >= cLE {
-				// The wanted entry is above hi: keep [boundary(<=hi), U).
-				below = cLE
-			} else {
-				// lo <= wanted <= hi: keep [T, L).
-				U, L, T = L, T, U
-				below = cLT
-				if lo == hi {
-					vk = lo
-					if next {
-						if k+1 < cLE {
-							vk1 = lo
-						} else {
-							vk1 = entryAbove()
-						}
+			return int64(math.Log(1-rng.Float64()) / lq)
+		}
+		nextPos := skip()
+		acc := int64(0)
+		samp = samp[:0]
+		buf = buf[:0]
+		overflow := false
+		maxSamp := 4 * imSample
+		maxBuf := int(2 * collectLimit)
+		cLT, cLE := m.walk2(lo, true, hi, false, func(r0 int, b1s, b2s []int32) {
+			for i := range b1s {
+				b1, b2 := int(b1s[i]), int(b2s[i])
+				if overflow {
+					return
+				}
+				if b2 <= b1 {
+					continue
+				}
+				r := r0 + i
+				if gatherBand {
+					if len(buf)+b2-b1 > maxBuf {
+						overflow = true
+						return
 					}
-					return vk, vk1
+					for c := b1; c < b2; c++ {
+						buf = append(buf, m.val(r, c))
+					}
+					continue
+				}
+				w := int64(b2 - b1)
+				for nextPos < acc+w {
+					samp = append(samp, m.val(r, b1+int(nextPos-acc)))
+					if len(samp) >= maxSamp {
+						overflow = true
+						return
+					}
+					nextPos += 1 + skip()
+				}
+				acc += w
+			}
+		})
+		oldW := W
+		sampOK, bufOK = false, false
+		switch {
+		case k < cLT: // rank k is below lo
+			upper = imBound{lo, true}
+			W = cLT - below
+		case k >= cLE: // rank k is above hi
+			W = below + W - cLE
+			below = cLE
+			lower = imBound{hi, false}
+		default: // lo <= rank k <= hi
+			lower, upper = imBound{lo, true}, imBound{hi, false}
+			below, W = cLT, cLE-cLT
+			if lo == hi {
+				vk = lo
+				if next {
+					if k+1 < cLE {
+						vk1 = lo
+					} else {
+						vk1 = smallestAbove(lo)
+					}
+				}
+				return vk, vk1
+			}
+			if !overflow {
+				if gatherBand {
+					bufOK = int64(len(buf)) == W
+				} else {
+					sampOK = len(samp) >= imSample/4
 				}
 			}
 		}
-		// Active width; the clamp only matters after rounding ties.
-		W = 0
-		for r := range rows {
-			if L[r] > U[r] {
-				L[r] = U[r]
-			}
-			W += int64(U[r] - L[r])
-		}
 		single = W > oldW/2
-		if W <= 0 {
-			return lo, hi
-		}
 	}
+}
+
+// imChunk is the number of rows a walk hands to its visitor at once.
+const imChunk = 4096
+
+// mcStair runs the staircase of one threshold over the medcouple rows
+// r0..r1-1 (all with x < m), starting from column c, writing each row's
+// boundary into out[r-r0]; it returns the last boundary and the count. An
+// entry at (r, c) is > t (>= t when strict) when (u+w) - t(u-w) is clearly
+// positive, with u = x[q+c]-m >= 0 and w = x[r]-m < 0; when rounding could
+// decide, it divides exactly as the matrix's val does, so that walks and
+// sampled values agree to the last bit.
+func mcStair(x []float64, m float64, q, r0, r1, c int, t float64, strict bool, out []int32) (int, int64) {
+	var cnt int64
+	for r := r0; r < r1; r++ {
+		w := x[r] - m
+		for c > 0 {
+			u := x[q+c-1] - m
+			num, den := u+w, u-w
+			td := t * den
+			diff := num - td
+			mg := 4.5e-16 * (math.Abs(num) + math.Abs(td))
+			var gt bool
+			switch {
+			case den > 1e-290 && diff > mg:
+				gt = true
+			case den > 1e-290 && diff < -mg:
+				gt = false
+			case strict:
+				gt = num/den >= t
+			default:
+				gt = num/den > t
+			}
+			if !gt {
+				break
+			}
+			c--
+		}
+		out[r-r0] = int32(c)
+		cnt += int64(c)
+	}
+	return c, cnt
 }
 
 // floatSelect returns the k-th smallest (0-based) of a, reordering a so
@@ -298,60 +431,56 @@ func medcoupleMiddle(sorted []float64) (lo, hi float64, ok bool) {
 		}
 		return (u + w) / (u - w)
 	}
-	mx.walk = func(t float64, strict bool, out []int32) int64 {
-		var cnt int64
-		c := cols
-		// Rows with x < m. The kernel is computed exactly as in val, so
-		// that walks and sampled pivots agree to the last bit.
-		for r := 0; r < q; r++ {
-			w := x[r] - m
-			if strict {
-				for c > 0 {
-					u := x[q+c-1] - m
-					if (u+w)/(u-w) < t {
-						break
-					}
-					c--
-				}
-			} else {
-				for c > 0 {
-					u := x[q+c-1] - m
-					if (u+w)/(u-w) <= t {
-						break
-					}
-					c--
-				}
+	// tieCount is the number of entries <= t (< t when strict) in the row
+	// of the ar-th value tied with the median: -1, 0, +1 by position, then +1.
+	tieCount := func(ar int, t float64, strict bool) int {
+		if strict {
+			switch {
+			case t > 1:
+				return cols
+			case t > 0:
+				return k - ar
+			case t > -1:
+				return k - 1 - ar
 			}
-			out[r] = int32(c)
-			cnt += int64(c)
+			return 0
 		}
-		// Rows tied with the median: -1, 0, +1 by position, then +1.
-		for r := q; r < p; r++ {
-			ar := r - q
-			var cc int
-			if strict {
-				switch {
-				case t > 1:
-					cc = cols
-				case t > 0:
-					cc = k - ar
-				case t > -1:
-					cc = k - 1 - ar
-				}
-			} else {
-				switch {
-				case t >= 1:
-					cc = cols
-				case t >= 0:
-					cc = k - ar
-				case t >= -1:
-					cc = k - 1 - ar
-				}
+		switch {
+		case t >= 1:
+			return cols
+		case t >= 0:
+			return k - ar
+		case t >= -1:
+			return k - 1 - ar
+		}
+		return 0
+	}
+	mx.walk2 = func(t1 float64, s1 bool, t2 float64, s2 bool, visit func(r0 int, b1, b2 []int32)) (n1, n2 int64) {
+		ch1, ch2 := make([]int32, imChunk), make([]int32, imChunk)
+		c1, c2 := cols, cols
+		for r0 := 0; r0 < p; r0 += imChunk {
+			r1 := min(r0+imChunk, p)
+			// rows with x < m
+			e := min(r1, q)
+			if r0 < e {
+				var a, b int64
+				c1, a = mcStair(x, m, q, r0, e, c1, t1, s1, ch1)
+				c2, b = mcStair(x, m, q, r0, e, c2, t2, s2, ch2)
+				n1 += a
+				n2 += b
 			}
-			out[r] = int32(cc)
-			cnt += int64(cc)
+			// rows tied with the median
+			for r := max(r0, q); r < r1; r++ {
+				b1, b2 := tieCount(r-q, t1, s1), tieCount(r-q, t2, s2)
+				ch1[r-r0], ch2[r-r0] = int32(b1), int32(b2)
+				n1 += int64(b1)
+				n2 += int64(b2)
+			}
+			if visit != nil {
+				visit(r0, ch1[:r1-r0], ch2[:r1-r0])
+			}
 		}
-		return cnt
+		return n1, n2
 	}
 	N := mx.total()
 	if N%2 == 1 {
@@ -361,3 +490,4 @@ func medcoupleMiddle(sorted []float64) (lo, hi float64, ok bool) {
 	a, b := imSelect(mx, N/2-1, true)
 	return a, b, finite(a) && finite(b)
 }
+

@@ -294,27 +294,45 @@ func walshMatrix(sorted []float64, a, b int) *imMatrix {
 	}
 	w := &imMatrix{rows: n, cols: n, upper: true}
 	w.val = func(r, c int) float64 { return (z[r] + z[c]) / 2 }
-	w.walk = func(t float64, strict bool, out []int32) int64 {
-		var cnt int64
-		c := n
-		for r := 0; r < n; r++ {
-			c = max(c, r)
-			zr := z[r]
-			if strict {
-				for c > r && (zr+z[c-1])/2 >= t {
-					c--
-				}
-			} else {
-				for c > r && (zr+z[c-1])/2 > t {
-					c--
-				}
+	w.walk2 = func(t1 float64, s1 bool, t2 float64, s2 bool, visit func(r0 int, b1, b2 []int32)) (n1, n2 int64) {
+		ch1, ch2 := make([]int32, imChunk), make([]int32, imChunk)
+		c1, c2 := n, n
+		for r0 := 0; r0 < n; r0 += imChunk {
+			r1 := min(r0+imChunk, n)
+			var a, b int64
+			c1, a = walshStair(z, r0, r1, c1, t1, s1, ch1)
+			c2, b = walshStair(z, r0, r1, c2, t2, s2, ch2)
+			n1 += a
+			n2 += b
+			if visit != nil {
+				visit(r0, ch1[:r1-r0], ch2[:r1-r0])
 			}
-			out[r] = int32(c)
-			cnt += int64(c - r)
 		}
-		return cnt
+		return n1, n2
 	}
 	return w
+}
+
+// walshStair runs the staircase of one threshold over the Walsh rows
+// r0..r1-1 from column c (see mcStair).
+func walshStair(z []float64, r0, r1, c int, t float64, strict bool, out []int32) (int, int64) {
+	var cnt int64
+	for r := r0; r < r1; r++ {
+		c = max(c, r)
+		zr := z[r]
+		if strict {
+			for c > r && (zr+z[c-1])/2 >= t {
+				c--
+			}
+		} else {
+			for c > r && (zr+z[c-1])/2 > t {
+				c--
+			}
+		}
+		out[r-r0] = int32(c)
+		cnt += int64(c - r)
+	}
+	return c, cnt
 }
 
 // signRankCounts returns c[s], the number of subsets of {1..n} whose sum
