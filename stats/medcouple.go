@@ -490,4 +490,3 @@ func medcoupleMiddle(sorted []float64) (lo, hi float64, ok bool) {
 	a, b := imSelect(mx, N/2-1, true)
 	return a, b, finite(a) && finite(b)
 }
-
