@@ -101,8 +101,8 @@ func magic(raw []byte) error {
 	return nil
 }
 
-func markupError(text []byte) error {
-	t := bytes.TrimLeftFunc(text[:min(len(text), 512)], unicode.IsSpace)
+func markupError(text []byte, lim int) error {
+	t := bytes.TrimLeftFunc(text[:min(len(text), 512, lim)], unicode.IsSpace)
 	low := bytes.ToLower(t[:min(len(t), 16)])
 	for _, p := range []string{"<!doctype html", "<html", "<head", "<body", "<table", "<meta", "<div"} {
 		if bytes.HasPrefix(low, []byte(p)) {
@@ -116,8 +116,8 @@ func markupError(text []byte) error {
 }
 
 // binaryError looks at the first 4 KB of decoded text for control bytes.
-func binaryError(text []byte) error {
-	sample := text[:min(len(text), 4096)]
+func binaryError(text []byte, lim int) error {
+	sample := text[:min(len(text), 4096, lim)]
 	ctl, nul := 0, 0
 	for _, c := range sample {
 		switch {
@@ -134,7 +134,7 @@ func binaryError(text []byte) error {
 }
 
 // detectEncoding chooses the encoding from a BOM or the pattern of zero bytes.
-func detectEncoding(raw []byte) (encoding, int) {
+func detectEncoding(raw []byte, lim int) (encoding, int) {
 	switch {
 	case bytes.HasPrefix(raw, []byte{0xEF, 0xBB, 0xBF}):
 		return encUTF8BOM, 3
@@ -143,7 +143,7 @@ func detectEncoding(raw []byte) (encoding, int) {
 	case bytes.HasPrefix(raw, []byte{0xFE, 0xFF}):
 		return encUTF16BE, 2
 	}
-	sample := raw[:min(len(raw), 4096)]
+	sample := raw[:min(len(raw), 4096, lim)]
 	ze, zo := 0, 0
 	for i, c := range sample {
 		if c == 0 {
@@ -168,35 +168,24 @@ func detectEncoding(raw []byte) (encoding, int) {
 
 func isBreak(c byte) bool { return c == '\n' || c == '\r' }
 
-// sniff decides the layout from the start of the input.
-func (s *Stream) sniff(raw []byte, eof bool) {
+// sniff decides the layout from the start of the decoded text.
+func (s *Stream) sniff(text []byte, eof bool) {
 	s.sniffed = true
-	if err := magic(raw); err != nil {
-		s.err = err
-		return
-	}
-	s.enc, s.skip = detectEncoding(raw)
-	var text []byte
-	switch s.enc {
-	case encUTF16LE, encUTF16BE:
-		text = decode16All(raw[s.skip:], s.enc == encUTF16LE)
-	default:
-		text = raw[s.skip:]
-	}
+	lim := s.lim()
 	if len(bytes.TrimFunc(text, unicode.IsSpace)) == 0 {
 		s.err = errors.New("the input is empty: paste a column of measurements, or drop a text file (CSV, tab-separated, or one value per line)")
 		return
 	}
-	if err := markupError(text); err != nil {
+	if err := markupError(text, lim); err != nil {
 		s.err = err
 		return
 	}
-	if err := binaryError(text); err != nil {
+	if err := binaryError(text, lim); err != nil {
 		s.err = err
 		return
 	}
 	// the window: whole lines within the first L bytes, or the first line
-	const L = SniffBytes/2 - 8
+	L := s.sniffN/2 - 8
 	win := text
 	whole := eof && len(text) <= L
 	if len(text) > L {
@@ -209,7 +198,6 @@ func (s *Stream) sniff(raw []byte, eof bool) {
 		}
 		whole = eof && len(bytes.TrimFunc(text[len(win):], unicode.IsSpace)) == 0
 	}
-	s.tab.Format.Encoding = map[encoding]string{encUTF8: "utf-8", encUTF8BOM: "utf-8 with BOM", encUTF16LE: "utf-16le", encUTF16BE: "utf-16be"}[s.enc]
 	// line ends
 	s.lay.brk, s.tab.Format.LineEnds = '\n', "lf"
 	if k := bytes.IndexFunc(win, func(r rune) bool { return r == '\n' || r == '\r' }); k >= 0 && win[k] == '\r' {
@@ -249,6 +237,7 @@ func (s *Stream) sniff(raw []byte, eof bool) {
 		}
 		r := sniffRec{row: row, blank: blankFields(fields)}
 		if !r.blank {
+			r.cells = make([]sniffCell, 0, len(fields))
 			for _, f := range fields {
 				r.cells = append(r.cells, classify(trimCell(string(f))))
 			}
@@ -514,9 +503,9 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 		s.cols[j] = s.newColumn(plans[j], j+1, colCells[j], hint)
 	}
 	// size the columns once when the input size is known
-	if h := s.opt.SizeHint; h > int64(winBytes) && dataRecs > 0 && winBytes > 0 {
-		est := h*int64(dataRecs)/int64(winBytes) + h/int64(winBytes)*4 + 64
-		est = est + est/32
+	if h := s.opt.SizeHint; h > int64(winBytes) && dataRecs >= 64 && winBytes >= 4096 {
+		est := h*int64(len(recs))/int64(winBytes) + 64
+		est = est + est/16
 		est = min(est, h/2+64, 1<<31-1)
 		s.rows = make([]int32, 0, est)
 		for _, c := range s.cols {
@@ -817,7 +806,7 @@ func (s *Stream) noNumbers() error {
 	for _, c := range t.Columns {
 		if c.Kind == "text" || c.Kind == "time" {
 			for i := range c.Values {
-				if txt := c.Text(i); txt != "" {
+				if txt := c.Text(i); txt != "" && classify(txt).cls != cNumber {
 					what := "words"
 					if c.Kind == "time" {
 						what = "dates or times"

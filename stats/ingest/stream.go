@@ -33,14 +33,17 @@ const (
 // chunks split anywhere, watch Progress, then Finish. To cancel, stop
 // writing and drop the Stream.
 type Stream struct {
-	opt   ReadOptions
-	total int64
-	err   error
-	done  bool
+	opt    ReadOptions
+	sniffN int // SniffBytes; smaller in tests
+	total  int64
+	err    error
+	done   bool
 
 	// before the layout is known
 	sniffed    bool
-	pending    []byte
+	encKnown   bool
+	raw        []byte // bytes before the encoding is known
+	ptext      []byte // decoded text before the layout is known
 	sawBreak   bool
 	secondLine bool
 
@@ -70,7 +73,7 @@ type Stream struct {
 
 // NewStream starts a chunked read.
 func NewStream(opt ReadOptions) *Stream {
-	s := &Stream{opt: opt, tab: &Table{}}
+	s := &Stream{opt: opt, tab: &Table{}, sniffN: SniffBytes}
 	s.sp.emit = s.onRecord
 	return s
 }
@@ -89,29 +92,62 @@ func (s *Stream) Write(p []byte) (int, error) {
 		return 0, errors.New("ingest: write after Finish")
 	}
 	s.total += int64(len(p))
-	if !s.sniffed {
-		s.watch(p)
-		if s.total >= SniffBytes && s.secondLine {
-			if len(s.pending) == 0 {
-				s.sniff(p, false)
-				if s.err == nil {
-					s.feed(p)
-				}
-			} else {
-				s.pending = append(s.pending, p...)
-				s.sniff(s.pending, false)
-				if s.err == nil {
-					s.feed(s.pending)
-				}
-				s.pending = nil
-			}
-			return len(p), s.err
-		}
-		s.pending = append(s.pending, p...)
-		return len(p), nil
+	if s.sniffed {
+		s.feed(p)
+		return len(p), s.err
 	}
-	s.feed(p)
-	return len(p), s.err
+	if !s.encKnown {
+		// the encoding is decided from the first lim bytes
+		if len(s.raw)+len(p) < s.lim() {
+			s.raw = append(s.raw, p...)
+			return len(p), nil
+		}
+		if len(s.raw) > 0 {
+			s.raw = append(s.raw, p...)
+			p = s.raw
+		}
+		if !s.decideEncoding(p) {
+			return 0, s.err
+		}
+		s.raw = nil
+	}
+	text := s.decode(p)
+	s.watch(text)
+	if len(s.ptext) == 0 && len(text) >= s.sniffN/2 && s.secondLine {
+		// the whole window is in this chunk: no copy
+		s.sniff(text, false)
+		if s.err == nil {
+			s.sp.feed(text)
+		}
+		return len(p), s.err
+	}
+	s.ptext = append(s.ptext, text...)
+	if len(s.ptext) >= s.sniffN/2 && s.secondLine {
+		s.sniff(s.ptext, false)
+		if s.err == nil {
+			s.sp.feed(s.ptext)
+		}
+		s.ptext = nil
+		return len(p), s.err
+	}
+	return len(p), nil
+}
+
+// lim is the length of the samples taken before the layout is known: no
+// chunking has less than this when the decisions are made.
+func (s *Stream) lim() int { return min(4096, s.sniffN/4) }
+
+// decideEncoding looks at the first bytes: file types that are not text,
+// byte-order marks, UTF-16 without a mark.
+func (s *Stream) decideEncoding(raw []byte) bool {
+	s.encKnown = true
+	if err := magic(raw); err != nil {
+		s.err = err
+		return false
+	}
+	s.enc, s.skip = detectEncoding(raw, s.lim())
+	s.tab.Format.Encoding = map[encoding]string{encUTF8: "utf-8", encUTF8BOM: "utf-8 with BOM", encUTF16LE: "utf-16le", encUTF16BE: "utf-16be"}[s.enc]
+	return true
 }
 
 func (s *Stream) writeString(text string) {
@@ -123,7 +159,7 @@ func (s *Stream) writeString(text string) {
 	_, _ = s.Write(unsafe.Slice(unsafe.StringData(text), len(text)))
 }
 
-// watch notes whether a second non-empty line has started.
+// watch notes whether a second non-empty line has started (in decoded text).
 func (s *Stream) watch(p []byte) {
 	if s.secondLine {
 		return
@@ -132,7 +168,7 @@ func (s *Stream) watch(p []byte) {
 		switch c {
 		case '\n', '\r':
 			s.sawBreak = true
-		case ' ', '\t', 0:
+		case ' ', '\t':
 		default:
 			if s.sawBreak {
 				s.secondLine = true
@@ -152,19 +188,22 @@ func (s *Stream) Finish() (*Table, error) {
 	}
 	s.done = true
 	if !s.sniffed {
-		s.sniff(s.pending, true)
+		if !s.encKnown {
+			if !s.decideEncoding(s.raw) {
+				return nil, s.err
+			}
+			s.ptext = append(s.ptext, s.decode(s.raw)...)
+			s.raw = nil
+		}
+		s.ptext = append(s.ptext, s.decodeTail()...)
+		s.sniff(s.ptext, true)
 		if s.err != nil {
 			return nil, s.err
 		}
-		s.feed(s.pending)
-		s.pending = nil
-	}
-	if s.enc == encUTF16LE || s.enc == encUTF16BE {
-		if len(s.half) > 0 || s.hi != 0 {
-			s.u16 = utf8.AppendRune(s.u16[:0], utf8.RuneError)
-			s.half, s.hi = nil, 0
-			s.sp.feed(s.u16)
-		}
+		s.sp.feed(s.ptext)
+		s.ptext = nil
+	} else {
+		s.sp.feed(s.decodeTail())
 	}
 	s.sp.finish()
 	if s.err != nil {
@@ -173,8 +212,18 @@ func (s *Stream) Finish() (*Table, error) {
 	return s.finishTable()
 }
 
-// feed decodes raw bytes and passes the text to the record splitter.
-func (s *Stream) feed(p []byte) {
+// decodeTail is the end of a UTF-16 input cut inside a character.
+func (s *Stream) decodeTail() []byte {
+	if len(s.half) > 0 || s.hi != 0 {
+		s.half, s.hi = nil, 0
+		return utf8.AppendRune(nil, utf8.RuneError)
+	}
+	return nil
+}
+
+// decode turns raw bytes into UTF-8 text (the result may be p itself, or a
+// buffer reused by the next call).
+func (s *Stream) decode(p []byte) []byte {
 	if s.skip > 0 {
 		n := min(s.skip, len(p))
 		p = p[n:]
@@ -183,11 +232,13 @@ func (s *Stream) feed(p []byte) {
 	switch s.enc {
 	case encUTF16LE, encUTF16BE:
 		s.u16 = s.decode16(s.u16[:0], p)
-		s.sp.feed(s.u16)
-	default:
-		s.sp.feed(p)
+		return s.u16
 	}
+	return p
 }
+
+// feed decodes raw bytes and passes the text to the record splitter.
+func (s *Stream) feed(p []byte) { s.sp.feed(s.decode(p)) }
 
 // decode16 appends the UTF-8 form of UTF-16 bytes, keeping an odd byte and
 // a high surrogate for the next chunk.
