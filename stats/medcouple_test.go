@@ -92,14 +92,14 @@ func TestMedcoupleMatchesNaive(t *testing.T) {
 }
 
 // Large samples drive several selection rounds (the naive version is
-// still feasible at n = 3000: 2.25 million pairs).
+// still quick at n = 1500: 560,000 pairs).
 func TestMedcoupleSelectionRounds(t *testing.T) {
 	if testing.Short() {
 		t.Skip("slow naive reference")
 	}
 	rng := rand.New(rand.NewPCG(3, 4))
 	for kind := 0; kind < 5; kind++ {
-		x := randomSample(rng, kind, 3000+kind)
+		x := randomSample(rng, kind, 1500+kind)
 		want := naiveMedcouple(x)
 		s := slices.Clone(x)
 		slices.Sort(s)

@@ -1,0 +1,117 @@
+package stats
+
+import (
+	"math"
+	"slices"
+	"testing"
+)
+
+// Rosner's (1983) example of 54 values, as reproduced in the NIST/SEMATECH
+// e-Handbook of Statistical Methods, 1.3.5.17.3 (generalized ESD test):
+// published R_i and λ_i (3 decimals) and 3 outliers at α = 0.05. Our cap
+// tests 5 suspects for n = 54; the handbook tests 10, with the same first 5
+// steps.
+func TestGESDRosnerExample(t *testing.T) {
+	x := []float64{-0.25, 0.68, 0.94, 1.15, 1.20, 1.26, 1.26, 1.34, 1.38, 1.43, 1.49, 1.49, 1.55, 1.56, 1.58,
+		1.65, 1.69, 1.70, 1.76, 1.77, 1.81, 1.91, 1.94, 1.96, 1.99, 2.06, 2.09, 2.10, 2.14, 2.15, 2.23, 2.24,
+		2.26, 2.35, 2.37, 2.40, 2.47, 2.54, 2.62, 2.64, 2.90, 2.92, 2.92, 2.93, 3.21, 3.26, 3.30, 3.59, 3.68,
+		4.30, 4.64, 5.34, 5.42, 6.01}
+	if len(x) != 54 {
+		t.Fatal("data")
+	}
+	flags := map[int][]Flag{}
+	rule := gesdRule(x, 0.05, flags)
+	if rule.Count != 3 {
+		t.Fatalf("GESD count %d, published 3", rule.Count)
+	}
+	// Published (NIST/SEMATECH e-Handbook 1.3.5.17.3): R1..R3 for the
+	// flagged values 6.01, 5.42, 5.34.
+	want := map[float64]float64{6.01: 3.118, 5.42: 2.942, 5.34: 3.179}
+	for i, fs := range flags {
+		w, ok := want[x[i]]
+		if !ok {
+			t.Errorf("flagged %v, not in the published list", x[i])
+			continue
+		}
+		if math.Abs(fs[0].Score-w) > 0.002 {
+			t.Errorf("R for %v = %.4f, published %.3f", x[i], fs[0].Score, w)
+		}
+	}
+	if len(flags) != 3 {
+		t.Errorf("%d flags", len(flags))
+	}
+}
+
+// Rules on a small hand-made set: the values and fences follow from the
+// definitions (common practice for Tukey's fences; Iglewicz and Hoaglin 1993).
+func TestOutlierRulesDefinitions(t *testing.T) {
+	x := []float64{1, 2, 3, 4, 5, 6, 7, 8, 9, 30}
+	q1, med, q3 := quantileHF(x, 0.25, 7), quantileHF(x, 0.5, 7), quantileHF(x, 0.75, 7)
+	// type 7: q1 = 3.25, q3 = 7.75, IQR 4.5: inner hi 14.5, outer hi 21.25
+	rules, flags := outlierRules(x, q1, q3, med, 0.05)
+	got := map[string]Rule{}
+	for _, r := range rules {
+		got[r.Code] = r
+	}
+	if r := got["tukey-inner"]; r.Count != 1 || *r.Hi != 14.5 {
+		t.Errorf("inner: %+v", r)
+	}
+	if r := got["tukey-outer"]; r.Count != 1 || *r.Hi != 21.25 {
+		t.Errorf("outer: %+v", r)
+	}
+	// MAD: deviations from 5.5 are 0.5..4.5 and 24.5: median 2.5;
+	// M = 0.6745·24.5/2.5 = 6.6101
+	if r := got["modified-z"]; r.Count != 1 {
+		t.Errorf("modified z: %+v", r)
+	}
+	fs := flags[9]
+	var sawZ, sawInner bool
+	for _, f := range fs {
+		switch f.Rule {
+		case "modified-z":
+			sawZ = math.Abs(f.Score-0.6745*24.5/2.5) < 1e-12
+		case "tukey-inner":
+			sawInner = math.Abs(f.Score-(30-14.5)) < 1e-12 && f.Text == "4.94 IQR above Q3 (outside the inner fence)" // (30-7.75)/4.5
+		}
+	}
+	if !sawZ || !sawInner {
+		t.Errorf("flags of 30: %+v", fs)
+	}
+	if _, ok := flags[0]; ok {
+		t.Errorf("1 flagged: %+v", flags[0])
+	}
+}
+
+// MAD = 0: the modified z-score is not defined and flags nothing.
+func TestModifiedZZeroMAD(t *testing.T) {
+	x := []float64{5, 5, 5, 5, 5, 5, 7, 9}
+	rules, flags := outlierRules(x, 5, 5.5, 5, 0.05)
+	for _, r := range rules {
+		if r.Code == "modified-z" && (r.Count != 0 || r.Lo != nil || r.Note == "") {
+			t.Errorf("modified z with MAD 0: %+v", r)
+		}
+	}
+	for _, fs := range flags {
+		for _, f := range fs {
+			if f.Rule == "modified-z" {
+				t.Errorf("flag with MAD 0: %+v", f)
+			}
+		}
+	}
+}
+
+// rawMAD from sorted data by merging equals the definition.
+func TestRawMAD(t *testing.T) {
+	for _, x := range [][]float64{{1}, {1, 2}, {1, 2, 3}, {1, 1, 2, 2, 4, 6, 9}, {-5, -1, 0, 0, 0, 2, 3, 10}} {
+		med := quantileHF(x, 0.5, 7)
+		d := make([]float64, len(x))
+		for i, v := range x {
+			d[i] = math.Abs(v - med)
+		}
+		slices.Sort(d)
+		want := quantileHF(d, 0.5, 7)
+		if got := rawMAD(x, med); got != want {
+			t.Errorf("rawMAD(%v) = %v, want %v", x, got, want)
+		}
+	}
+}

@@ -1,0 +1,112 @@
+package stats
+
+import (
+	"encoding/json"
+	"math"
+	"math/rand/v2"
+	"slices"
+	"testing"
+)
+
+// Shapiro and Wilk (1965), Biometrika 52, 591-611, worked example: weights
+// of 11 men, W = 0.79 (published, 2 decimals); full digits R 4.2.2
+// shapiro.test: W = 0.78881469, p = 0.006703814.
+func TestShapiroWilkPublishedExample(t *testing.T) {
+	x := []float64{148, 154, 158, 160, 161, 162, 166, 170, 182, 195, 236}
+	m, _ := meanSDOf(x)
+	w, p, ok := shapiroWilk(x, m)
+	if !ok {
+		t.Fatal("not computed")
+	}
+	if math.Abs(w-0.79) > 0.005 {
+		t.Errorf("W = %v, published 0.79", w)
+	}
+	if math.Abs(w-0.78881469) > 5e-9 || math.Abs(p-0.006703814) > 5e-9 {
+		t.Errorf("W = %.10f p = %.10f, R 4.2.2 gives 0.78881469, 0.006703814", w, p)
+	}
+}
+
+// n = 3: the p-value is exact (Royston 1995); W = 1 for equally spaced
+// values, p = 1 (definition), and W = 0.75 is the minimum, p = 0.
+func TestShapiroWilkN3(t *testing.T) {
+	w, p, ok := shapiroWilk([]float64{1, 2, 3}, 2)
+	if !ok || math.Abs(w-1) > 1e-12 || math.Abs(p-1) > 1e-9 {
+		t.Errorf("equally spaced: W %v p %v", w, p)
+	}
+	w, p, ok = shapiroWilk([]float64{0, 0, 1}, 1.0/3)
+	if !ok || math.Abs(w-0.75) > 1e-12 || p > 1e-6 {
+		t.Errorf("two equal: W %v p %v", w, p)
+	}
+}
+
+// Below the validity limits the tests are left out with a Note; constant
+// data give no shape section.
+func TestShapeLimits(t *testing.T) {
+	x := []float64{1, 2, 4, 7, 11}
+	m, sd := meanSDOf(x)
+	sh, notes := shapeSection(x, m, sd)
+	if sh == nil || sh.Skewness == nil || sh.Kurtosis == nil || sh.Shapiro == nil {
+		t.Fatalf("n = 5: %+v", sh)
+	}
+	if sh.Skewness.Test != nil || sh.Kurtosis.Test != nil || sh.Omnibus != nil || sh.Anderson != nil {
+		t.Errorf("tests outside their range: %+v", sh)
+	}
+	if len(notes) < 4 {
+		t.Errorf("notes: %+v", notes)
+	}
+	if sh, notes := shapeSection([]float64{3, 3, 3, 3}, 3, 0); sh != nil || len(notes) == 0 {
+		t.Errorf("constant: %+v %+v", sh, notes)
+	}
+	if sh, notes := shapeSection([]float64{1, 2}, 1.5, math.Sqrt(0.5)); sh != nil || len(notes) == 0 {
+		t.Errorf("n = 2: %+v %+v", sh, notes)
+	}
+}
+
+// Every method's output is finite and JSON-encodable for awkward data:
+// extreme magnitudes, ties, a single outlier, two values (property).
+func TestMethodsFinite(t *testing.T) {
+	rng := rand.New(rand.NewPCG(21, 22))
+	sets := [][]float64{
+		{1e300, -1e300, 0, 1e299, 5e299},
+		{1e-300, 2e-300, 3e-300, 4e-300, 1e-299, 2e-300, 2e-300, 3e-300},
+		{-5, -5, -5, -4, -5, -5, -5, -5, -5, 100},
+		{0, 1, 0, 1, 0, 1, 0, 1, 0, 1, 0, 1, 0, 1, 0, 1, 0, 1, 0, 1, 0, 1},
+		{7, 7, 7, 7, 7, 7, 7, 7, 7, 7, 7, 7, 7, 7, 7, 7, 7, 7, 7, 7, 8},
+		{1, 2, 3},
+	}
+	for range 200 {
+		n := 3 + rng.IntN(60)
+		x := make([]float64, n)
+		scale := math.Pow(10, float64(rng.IntN(600)-300))
+		for i := range x {
+			switch rng.IntN(3) {
+			case 0:
+				x[i] = math.Round(rng.NormFloat64()*3) * scale
+			case 1:
+				x[i] = rng.ExpFloat64() * scale
+			default:
+				x[i] = float64(rng.IntN(3)) * scale
+			}
+		}
+		sets = append(sets, x)
+	}
+	for _, x := range sets {
+		slices.Sort(x)
+		m, sd := meanSDOf(x)
+		if !finite(m) || !finite(sd) {
+			continue // the core rejects such data before the methods run
+		}
+		sh, notes := shapeSection(x, m, sd)
+		q1, med, q3 := quantileHF(x, 0.25, 7), quantileHF(x, 0.5, 7), quantileHF(x, 0.75, 7)
+		rules, flags := outlierRules(x, q1, q3, med, 0.05)
+		tg := targetSection(x, m, sd, med+sd/3, 0.95)
+		pp := probPlot(x, m, sd, 0.95, 50)
+		out := map[string]any{"shape": sh, "notes": notes, "rules": rules, "flags": flags, "target": tg, "pp": pp}
+		if _, err := json.Marshal(out); err != nil {
+			t.Fatalf("%v: %v", x, err)
+		}
+		if sd > 0 && (tg == nil || tg.T == nil) {
+			t.Errorf("%v: no t test", x)
+		}
+	}
+}
