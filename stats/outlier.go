@@ -41,11 +41,15 @@ const (
 //     deviate.
 func outlierRules(sorted []float64, q1, q3, median float64, alpha float64) ([]Rule, map[int][]Flag) {
 	n := len(sorted)
-	flags := map[int][]Flag{}
 	rules := []Rule{}
 	if n == 0 {
-		return rules, flags
+		return rules, map[int][]Flag{}
 	}
+	// Size the map for the readings beyond the inner fences (usually the
+	// largest set).
+	iqr0 := q3 - q1
+	hint := lowerBound(sorted, q1-1.5*iqr0) + n - upperBound(sorted, q3+1.5*iqr0)
+	flags := &flagSet{m: make(map[int][]Flag, hint+16)}
 	if !(alpha > 0 && alpha < 1) {
 		alpha = 0.05
 	}
@@ -109,14 +113,24 @@ func outlierRules(sorted []float64, q1, q3, median float64, alpha float64) ([]Ru
 		lo, hi := median-half, median+half
 		cnt := 0
 		score := func(x float64) float64 { return math.Abs(modZConst * (x - median) / mad) }
+		last, lastText := math.NaN(), ""
+		text := func(x, m float64) string {
+			if x != last {
+				if x < median {
+					m = -m
+				}
+				last, lastText = x, fmt.Sprintf("modified z-score %s (limit 3.5)", fmtSig(m, 3))
+			}
+			return lastText
+		}
 		for i := 0; i < n && score(sorted[i]) > modZLimit && sorted[i] < median; i++ {
 			m := score(sorted[i])
-			flags[i] = append(flags[i], Flag{Rule: "modified-z", Score: m, Text: fmt.Sprintf("modified z-score %s (limit 3.5)", fmtSig(-m, 3))})
+			flags.add(i, Flag{Rule: "modified-z", Score: m, Text: text(sorted[i], m)})
 			cnt++
 		}
 		for i := n - 1; i >= 0 && score(sorted[i]) > modZLimit && sorted[i] > median; i-- {
 			m := score(sorted[i])
-			flags[i] = append(flags[i], Flag{Rule: "modified-z", Score: m, Text: fmt.Sprintf("modified z-score %s (limit 3.5)", fmtSig(m, 3))})
+			flags.add(i, Flag{Rule: "modified-z", Score: m, Text: text(sorted[i], m)})
 			cnt++
 		}
 		rules = append(rules, Rule{Code: "modified-z", Name: "Modified z-score above 3.5", Lo: fptr(lo), Hi: fptr(hi), Count: cnt,
@@ -126,22 +140,63 @@ func outlierRules(sorted []float64, q1, q3, median float64, alpha float64) ([]Ru
 			Note: "The median absolute deviation is 0 (more than half the values equal the median), so the modified z-score is not defined: rule not applied."})
 	}
 
-	rules = append(rules, gesdRule(sorted, alpha, flags))
-	return rules, flags
+	rules = append(rules, gesdRule(sorted, alpha, flags.m))
+	return rules, flags.m
+}
+
+// upperBound is the first index with s[i] > v.
+func upperBound(s []float64, v float64) int {
+	lo, hi := 0, len(s)
+	for lo < hi {
+		h := int(uint(lo+hi) >> 1)
+		if s[h] <= v {
+			lo = h + 1
+		} else {
+			hi = h
+		}
+	}
+	return lo
+}
+
+// flagSet collects flags by index with few allocations: each flagged
+// index gets a slice of capacity 5 (one per rule) cut from a shared arena.
+type flagSet struct {
+	m     map[int][]Flag
+	arena []Flag
+}
+
+func (fs *flagSet) add(i int, f Flag) {
+	s, ok := fs.m[i]
+	if !ok {
+		if len(fs.arena) < 5 {
+			fs.arena = make([]Flag, 5*1024)
+		}
+		s = fs.arena[:0:5]
+		fs.arena = fs.arena[5:]
+	}
+	fs.m[i] = append(s, f)
 }
 
 // fenceFlags flags the values below lo or above hi (at the two ends of the
 // sorted data) with their distance beyond the fence; it returns the count.
-func fenceFlags(sorted []float64, lo, hi float64, code string, flags map[int][]Flag, text func(float64) string) int {
+// Equal values share one text.
+func fenceFlags(sorted []float64, lo, hi float64, code string, flags *flagSet, text func(float64) string) int {
 	cnt := 0
 	n := len(sorted)
 	i := 0
+	last, lastText := math.NaN(), ""
+	cached := func(x float64) string {
+		if x != last {
+			last, lastText = x, text(x)
+		}
+		return lastText
+	}
 	for ; i < n && sorted[i] < lo; i++ {
-		flags[i] = append(flags[i], Flag{Rule: code, Score: lo - sorted[i], Text: text(sorted[i])})
+		flags.add(i, Flag{Rule: code, Score: lo - sorted[i], Text: cached(sorted[i])})
 		cnt++
 	}
 	for j := n - 1; j >= i && sorted[j] > hi; j-- {
-		flags[j] = append(flags[j], Flag{Rule: code, Score: sorted[j] - hi, Text: text(sorted[j])})
+		flags.add(j, Flag{Rule: code, Score: sorted[j] - hi, Text: cached(sorted[j])})
 		cnt++
 	}
 	return cnt
