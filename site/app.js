@@ -30,6 +30,7 @@
       const m = ev.data;
       if (m.type === "ready") {
         engineReady = true;
+        if (!document.body.dataset.readyMs) document.body.dataset.readyMs = String(Math.round(performance.now()));
         document.body.dataset.ready = "1";
         readyWaiters.forEach((f) => f());
         readyWaiters = [];
@@ -311,6 +312,7 @@
     setBusy(true, "Analysing…");
     let m;
     try {
+      state.sentAt = performance.timeOrigin + performance.now();
       m = await call({ type: "run", request: buildRequest(options), useTable: state.source === "file" });
     } catch (e) {
       if (token === runToken) { setBusy(false); setStatus(String(e.message || e), true); }
@@ -326,13 +328,18 @@
       document.body.dataset.state = "error";
       return;
     }
-    state.report = res.report;
-    state.svg = res.svg || {};
+    state.report = res;
+    state.svg = m.svg || {};
     state.when = new Date();
     render();
     const t2 = performance.now();
     state.analyses++;
-    state.timing = { engineMs: t1 - start, renderMs: t2 - t1, totalMs: t2 - start };
+    state.timing = { engineMs: t1 - start, workerMs: m.ms, renderMs: t2 - t1, totalMs: t2 - start };
+    if (m.at) {
+      state.timing.toWorkerMs = m.at[0] - state.sentAt;
+      state.timing.fromWorkerMs = performance.timeOrigin + t1 - m.at[1];
+      state.timing.beforeSendMs = state.sentAt - (performance.timeOrigin + start);
+    }
     const rep = state.report;
     setStatus("Analysed " + rep.counts.used + " values" + (rep.counts.excluded ? " (" + rep.counts.excluded + " left out by you)" : "") +
       " in " + Math.round(t2 - start) + " ms. " + rep.input.summary);
@@ -346,8 +353,26 @@
     if (on && msg) setStatus(msg);
   }
 
+  // A large paste is kept out of the text box: laying out tens of thousands
+  // of lines in a textarea takes the page longer than the whole analysis.
+  const BIG_PASTE = 20000; // characters
+  let bigText = "";
+  function currentText() { return data.value.trim() === "" && bigText ? bigText : data.value; }
+  function holdBigText(text) {
+    bigText = text;
+    data.value = "";
+    const lines = (text.match(/\n/g) || []).length + 1;
+    data.placeholder = "Pasted " + lines.toLocaleString() + " lines (" + sizeText(text.length) + "); kept out of this box so the page stays quick. Press \u201cEdit the pasted text\u201d to change them, or paste again to replace them.";
+    $("edit-big").hidden = false;
+  }
+  function dropBigText() {
+    bigText = "";
+    $("edit-big").hidden = true;
+    data.placeholder = "5.12\n5.08\n5.10\n\u2026";
+  }
+
   function analyseText(t0) {
-    const text = data.value;
+    const text = currentText();
     if (!text.trim()) { setStatus("Nothing to analyse: paste values into the box, open a file or try the demo.", true); return; }
     if (state.source !== "text" || text !== state.text) {
       if (state.source === "file") call({ type: "forget" });
@@ -398,6 +423,7 @@
     state.hasTable = true;
     $("progress-label").textContent = "Analysing " + file.name + "…";
     data.value = "";
+    dropBigText();
     data.placeholder = "Showing " + file.name + " (read from the file; paste here to analyse other data instead)";
     showPreview(m.preview || "", file.name);
     const readMs = performance.now() - t0;
@@ -457,7 +483,7 @@
     });
     t.replaceChildren(el("caption", { class: "visually-hidden", text: "First rows of the data; rows with a cell not used are marked" }), tb);
     const np = state.report && state.report.input.problems ? state.report.input.problems.length : 0;
-    $("preview-note").textContent = "(" + (previewName ? previewName + ", " : "") + "first " + previewLines.length + " rows" + (np ? "; " + np + " cells not used, listed in the report" : "") + ")";
+    $("preview-note").textContent = "(" + (previewName ? previewName + ", " : "") + "first " + previewLines.length + " rows" + (np ? "; " + np + (np === 1 ? " cell" : " cells") + " not used, listed in the report" : "") + ")";
     box.hidden = false;
   }
 
@@ -575,7 +601,7 @@
     if (probs.length) {
       const shown = probs.slice(0, 300);
       kids.push(el("details", { class: "problems", open: probs.length <= 20 ? "" : null },
-        el("summary", { text: probs.length + " cells not used, by row" }),
+        el("summary", { text: probs.length + (probs.length === 1 ? " cell" : " cells") + " not used, by row" }),
         table(["Row", "Column", "As typed", "Why", "What was done"], shown.map((p) => [String(p.row), p.column || "", p.text || "", p.reason, p.action]), "figs problems-t"),
         probs.length > shown.length ? el("p", { text: "First " + shown.length + " shown; all " + probs.length + " are in the CSV below and in the report JSON." }) : null,
         el("button", { type: "button", class: "small", text: "Download the unused cells (CSV)", onclick: () => downloadProblems() })));
@@ -883,7 +909,7 @@
       return false;
     }
     const o = p.options || {};
-    data.value = p.text;
+    if (p.text.length > BIG_PASTE) holdBigText(p.text); else { dropBigText(); data.value = p.text; }
     $("unit").value = o.unit || "";
     for (const k of ["target", "lsl", "usl"]) $(k).value = o[k] !== undefined && o[k] !== null ? String(o[k]) : "";
     if (o.confidence) $("confidence").value = String(o.confidence);
@@ -901,13 +927,29 @@
 
   // ---------- wiring ----------
   $("analyse").addEventListener("click", () => analyseText());
-  data.addEventListener("paste", () => {
+  data.addEventListener("paste", (ev) => {
     const t0 = performance.now();
+    const cd = ev.clipboardData && ev.clipboardData.getData("text/plain");
+    const whole = data.value.trim() === "" || (data.selectionStart === 0 && data.selectionEnd === data.value.length);
+    if (cd && cd.length > BIG_PASTE && whole) {
+      ev.preventDefault();
+      holdBigText(cd);
+      analyseText(t0);
+      return;
+    }
+    if (bigText && whole) dropBigText();
     setTimeout(() => analyseText(t0), 0); // after the pasted text is in the box
+  });
+  $("edit-big").addEventListener("click", () => {
+    const t = bigText;
+    dropBigText();
+    data.value = t;
+    data.focus();
   });
   let typing = null;
   data.addEventListener("input", (ev) => {
     if (ev.inputType === "insertFromPaste") return;
+    if (bigText && data.value.trim() !== "") dropBigText();
     clearTimeout(typing);
     typing = setTimeout(() => { if (data.value.trim()) analyseText(); }, 700);
   });
@@ -920,6 +962,7 @@
   $("demo").addEventListener("click", async () => {
     setStatus("Loading the demo data…");
     try {
+      dropBigText();
       data.value = await (await fetch("demo/capsule-fill.tsv")).text();
     } catch (e) { setStatus("The demo data could not be loaded: " + e, true); return; }
     showPreview(data.value, "demo");
@@ -927,7 +970,7 @@
   });
   $("clear").addEventListener("click", () => {
     if (state.source === "file") call({ type: "forget" });
-    data.value = ""; data.placeholder = "5.12\n5.08\n5.10\n…";
+    data.value = ""; dropBigText();
     resetForNewData();
     state.source = null; state.text = ""; state.file = null; state.report = null;
     $("report").hidden = true; $("preview-box").hidden = true; $("columns").hidden = true; $("exclusions").hidden = true;

@@ -51,7 +51,7 @@ type session struct {
 }
 
 // browser serves dist/ and starts headless Chromium.
-func browser(t *testing.T, extra ...chromedp.ExecAllocatorOption) *session {
+func browser(t testing.TB, extra ...chromedp.ExecAllocatorOption) *session {
 	t.Helper()
 	if testing.Short() {
 		t.Skip("browser tests skipped with -short")
@@ -102,7 +102,7 @@ func browser(t *testing.T, extra ...chromedp.ExecAllocatorOption) *session {
 }
 
 // open loads the page and waits for the engine.
-func (s *session) open(t *testing.T) {
+func (s *session) open(t testing.TB) {
 	t.Helper()
 	if err := chromedp.Run(s.ctx,
 		chromedp.Navigate(s.base+"/"),
@@ -118,7 +118,7 @@ func analysed(n int) chromedp.Action {
 		chromedp.WithPollingTimeout(30*time.Second))
 }
 
-func (s *session) state(t *testing.T) string {
+func (s *session) state(t testing.TB) string {
 	var st string
 	if err := chromedp.Run(s.ctx, chromedp.Evaluate(`document.body.dataset.state || ""`, &st)); err != nil {
 		t.Fatal(err)
@@ -139,7 +139,7 @@ func paste(text string) chromedp.Action {
 }
 
 // shot saves a PNG screenshot of the whole page under testdata/artefacts.
-func (s *session) shot(t *testing.T, name string) {
+func (s *session) shot(t testing.TB, name string) {
 	t.Helper()
 	var buf []byte
 	if err := chromedp.Run(s.ctx, chromedp.FullScreenshot(&buf, 100)); err != nil {
@@ -149,7 +149,7 @@ func (s *session) shot(t *testing.T, name string) {
 	save(t, name, buf)
 }
 
-func save(t *testing.T, name string, b []byte) {
+func save(t testing.TB, name string, b []byte) {
 	if err := os.MkdirAll(artefacts, 0o755); err != nil {
 		t.Log(err)
 		return
@@ -526,7 +526,7 @@ func TestNoRequestLeavesOrigin(t *testing.T) {
 	if !sawWasm || len(seen) < 5 {
 		t.Errorf("the proxy saw %d requests (engine among them: %v): the log is not working", len(seen), sawWasm)
 	}
-	t.Logf("%d requests, all to %s", len(seen), origin.Host)
+	t.Logf("%d requests in all; every one from the page went to %s", len(seen), origin.Host)
 }
 
 // chromiumService reports whether host is one of the services Chromium itself

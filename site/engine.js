@@ -1,6 +1,6 @@
 // Web Worker: runs the Go engine (lotlens.wasm) off the page's main thread,
 // so the page never freezes. Messages in (from app.js):
-//   {type:"run", id, request, useTable}  analyse; reply {type:"result", id, json}
+//   {type:"run", id, request, useTable}  analyse; reply {type:"result", id, json, svg, ms}
 //   {type:"analyse", id, request}        automation; reply {type:"report", id, json}
 //   {type:"file", id, file}              read a File in chunks; replies
 //        {type:"progress", id, read, total} and then {type:"file-read", id, json, preview}
@@ -30,7 +30,7 @@ let reading = null; // {id, cancelled}
 async function readFile(id, file) {
   const job = { id, cancelled: false };
   reading = job;
-  self.lotlensBegin(file.name || "file");
+  self.lotlensBegin(file.name || "file", file.size);
   const total = file.size;
   let read = 0, last = 0;
   let preview = "";
@@ -73,7 +73,13 @@ onmessage = (ev) => {
   const m = ev.data;
   switch (m.type) {
     case "run":
-      postMessage({ type: "result", id: m.id, json: self.lotlensRun(JSON.stringify(m.request), !!m.useTable) });
+      {
+        const t0 = performance.now();
+        const r = self.lotlensRun(JSON.stringify(m.request), !!m.useTable);
+        const t1 = performance.now();
+        postMessage({ type: "result", id: m.id, json: r.json, svg: r.svg, ms: t1 - t0,
+          at: [performance.timeOrigin + t0, performance.timeOrigin + t1] });
+      }
       break;
     case "analyse":
       postMessage({ type: "report", id: m.id, json: self.lotlensAnalyze(JSON.stringify(m.request)) });

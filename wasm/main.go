@@ -5,8 +5,8 @@
 // (site/engine.js); the logic is in package bridge, which tests natively.
 //
 //	lotlensAnalyze(requestJSON) -> reportJSON          the automation entry point
-//	lotlensRun(requestJSON, useTable) -> resultJSON    report + charts as SVG
-//	lotlensBegin(name)                                 start reading a file
+//	lotlensRun(requestJSON, useTable) -> {json, svg}   report JSON + charts as SVG text
+//	lotlensBegin(name, size)                           start reading a file
 //	lotlensChunk(uint8Array) -> bytes so far | error   feed the next chunk
 //	lotlensEnd() -> JSON                               finish: fingerprint, columns
 //	lotlensCancel()                                    abandon the read
@@ -43,11 +43,20 @@ func main() {
 			return `{"error":"lotlensRun takes the request as a JSON string"}`
 		}
 		useTable := len(args) > 1 && args[1].Truthy()
-		return string(s.Analyze([]byte(req), useTable))
+		j, svg := s.Analyze([]byte(req), useTable)
+		charts := map[string]any{}
+		for k, v := range svg {
+			charts[k] = v
+		}
+		return map[string]any{"json": string(j), "svg": charts}
 	}))
 	g.Set("lotlensBegin", js.FuncOf(func(this js.Value, args []js.Value) any {
 		name, _ := str(args, 0)
-		s.Begin(name)
+		size := int64(0)
+		if len(args) > 1 && args[1].Type() == js.TypeNumber {
+			size = int64(args[1].Float())
+		}
+		s.Begin(name, size)
 		return nil
 	}))
 	g.Set("lotlensChunk", js.FuncOf(func(this js.Value, args []js.Value) any {

@@ -2,6 +2,7 @@ package chart
 
 import (
 	"encoding/xml"
+	"fmt"
 	"math"
 	"strconv"
 	"strings"
@@ -350,5 +351,53 @@ func TestRunChart(t *testing.T) {
 	}
 	if x0, x1 := pts[0].num(t, "cx"), pts[2].num(t, "cx"); x1 <= x0 {
 		t.Error("points not in data order left to right")
+	}
+}
+
+// Long series: every point stays in the line, symbols are capped, and the
+// highest and lowest readings keep theirs (so their rows can be tapped).
+func TestLongSeriesCapped(t *testing.T) {
+	r := sample()
+	r.Charts.Series = nil
+	r.Charts.ProbPlot.Points = nil
+	for i := 0; i < 2000; i++ { // invented zig-zag with one peak and one dip
+		y := 5 + 0.01*float64(i%7)
+		switch i {
+		case 1234:
+			y = 6
+		case 77:
+			y = 4
+		}
+		r.Charts.Series = append(r.Charts.Series, stats.SeriesPt{I: i, Row: i + 2, Y: y})
+		r.Charts.ProbPlot.Points = append(r.Charts.ProbPlot.Points, stats.ProbPt{Z: -3 + 6*float64(i)/1999, Y: 4 + 2*float64(i)/1999, Row: i + 2})
+	}
+	before := fmt.Sprint(r.Suspects.Readings)
+	root := parse(t, Run(r))
+	pts := root.all(byClass("pt"))
+	if len(pts) > MaxMarkers+2 || len(pts) < MaxMarkers/2 {
+		t.Errorf("%d symbols, want about %d", len(pts), MaxMarkers)
+	}
+	rows := map[string]bool{}
+	for _, p := range pts {
+		rows[p.attr("data-row")] = true
+	}
+	if !rows["1236"] || !rows["79"] {
+		t.Errorf("the peak (row 1236) or the dip (row 79) lost its symbol")
+	}
+	trace := root.all(byClass("trace"))[0]
+	if got := strings.Count(trace.attr("d"), "L") + 1; got != 2000 {
+		t.Errorf("the line has %d points, want 2000", got)
+	}
+	pp := parse(t, ProbPlot(r))
+	ppts := pp.all(byClass("pt"))
+	if len(ppts) > MaxMarkers {
+		t.Errorf("probability plot: %d symbols, want at most %d", len(ppts), MaxMarkers)
+	}
+	if ppts[0].attr("data-row") != "2" || ppts[len(ppts)-1].attr("data-row") != "2001" {
+		t.Errorf("probability plot: the extreme points lost their symbols")
+	}
+	Box(r)
+	if fmt.Sprint(r.Suspects.Readings) != before {
+		t.Error("drawing reordered the report's suspect readings")
 	}
 }

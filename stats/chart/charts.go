@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"sort"
+	"strconv"
 
 	"lotlens/stats"
 )
@@ -146,19 +147,12 @@ func Histogram(r *stats.Report) string {
 	c.printf(`</g>`)
 	items := []legendItem{{"bar", SkyBlue, "", "count per bin"}}
 	if fit {
-		c.printf(`<path class="normal-fit" fill="none" stroke="%s" stroke-width="2.5" d="`, Blue)
 		const steps = 160
-		for i := 0; i <= steps; i++ {
+		c.path(steps+1, func(i int) (float64, float64) {
 			x := lo + (hi-lo)*float64(i)/steps
 			z := (x - mean) / sd
-			y := float64(n) * width * math.Exp(-z*z/2) / (sd * math.Sqrt(2*math.Pi))
-			cmd := "L"
-			if i == 0 {
-				cmd = "M"
-			}
-			c.printf("%s%.1f %.1f", cmd, xs.at(x), ys.at(y))
-		}
-		c.printf(`"/>`)
+			return xs.at(x), ys.at(float64(n) * width * math.Exp(-z*z/2) / (sd * math.Sqrt(2*math.Pi)))
+		}, `class="normal-fit" stroke="`+Blue+`" stroke-width="2.5"`)
 		items = append(items, legendItem{"line", Blue, "", "normal curve"})
 	}
 	for i, rl := range refs {
@@ -203,7 +197,9 @@ func Box(r *stats.Report) string {
 	f := FormatOf(r)
 	var sus []stats.Suspect
 	if r.Suspects != nil {
-		sus = r.Suspects.Readings
+		// a copy: the report is not reordered. The engine lists the most
+		// extreme first; beyond MaxMarkers only those are drawn.
+		sus = append(sus, r.Suspects.Readings[:min(len(r.Suspects.Readings), MaxMarkers)]...)
 	}
 	vals := []float64{b.LoWhisker, b.HiWhisker, b.InnerLo, b.InnerHi}
 	far := false
@@ -311,15 +307,8 @@ func ProbPlot(r *stats.Report) string {
 		if len(p.Band) < 2 {
 			return
 		}
-		c.printf(`<path class="band %s" fill="none" stroke="%s" stroke-width="1.5" stroke-dasharray="6 4" d="`, class, Orange)
-		for i, bp := range p.Band {
-			cmd := "L"
-			if i == 0 {
-				cmd = "M"
-			}
-			c.printf("%s%.1f %.1f", cmd, xs.at(bp.Z), ysc.at(get(bp)))
-		}
-		c.printf(`"/>`)
+		c.path(len(p.Band), func(i int) (float64, float64) { return xs.at(p.Band[i].Z), ysc.at(get(p.Band[i])) },
+			`class="band `+class+`" stroke="`+Orange+`" stroke-width="1.5" stroke-dasharray="6 4"`)
 	}
 	band(func(b stats.BandPt) float64 { return b.Lo }, "lo")
 	band(func(b stats.BandPt) float64 { return b.Hi }, "hi")
@@ -327,14 +316,23 @@ func ProbPlot(r *stats.Report) string {
 	if finite(a, s) {
 		c.line(xs.at(zlo), ysc.at(a+s*zlo), xs.at(zhi), ysc.at(a+s*zhi), Black, 1.5, "", "fit")
 	}
-	c.printf(`<g class="points">`)
 	rad := 4.0
 	if len(p.Points) > 300 {
 		rad = 2.5
 	}
-	for _, pt := range p.Points {
-		c.marker("circle", xs.at(pt.Z), ysc.at(pt.Y), rad, Blue, pt.Row,
-			fmt.Sprintf("row %d: %s (z = %s)", pt.Row, f.Value(pt.Y), f.Num(pt.Z, 2)), "")
+	keep := pickTails(len(p.Points), MaxMarkers)
+	if keep != nil {
+		// every point in a faint line, symbols for the selection
+		c.path(len(p.Points), func(i int) (float64, float64) { return xs.at(p.Points[i].Z), ysc.at(p.Points[i].Y) },
+			`class="all-points" stroke="`+Blue+`" stroke-width="1.5" stroke-opacity="0.5"`)
+	}
+	c.pointGroup(Blue)
+	for i, pt := range p.Points {
+		if keep != nil && !keep[i] {
+			continue
+		}
+		c.marker("circle", xs.at(pt.Z), ysc.at(pt.Y), rad, "", pt.Row,
+			"row "+strconv.Itoa(pt.Row)+": "+f.Value(pt.Y)+" (z = "+f.Num(pt.Z, 2)+")", "")
 	}
 	c.printf(`</g>`)
 	c.xAxis(xs, xt, xdec, f, "normal quantile (z)", Height-marginB)
@@ -394,15 +392,8 @@ func Run(r *stats.Report) string {
 		c.line(marginL, y, Width-marginR, y, Green, 2, "12 5", "median")
 		c.text(marginL+4, y-5, "start", "marker-label median", "median "+f.Num(med, f.Decimals+1))
 	}
-	c.printf(`<path class="trace" fill="none" stroke="#888888" stroke-width="1" d="`)
-	for i, p := range pts {
-		cmd := "L"
-		if i == 0 {
-			cmd = "M"
-		}
-		c.printf("%s%.1f %.1f", cmd, xs.at(float64(p.I)), ys.at(p.Y))
-	}
-	c.printf(`"/>`)
+	c.path(len(pts), func(i int) (float64, float64) { return xs.at(float64(pts[i].I)), ys.at(pts[i].Y) },
+		`class="trace" stroke="#888888" stroke-width="1"`)
 	flagged := map[int]bool{}
 	if r.Suspects != nil {
 		for _, s := range r.Suspects.Readings {
@@ -413,13 +404,17 @@ func Run(r *stats.Report) string {
 	if len(pts) > 300 {
 		rad = 2
 	}
-	c.printf(`<g class="points">`)
-	for _, p := range pts {
-		title := fmt.Sprintf("row %d: %s (position %d)", p.Row, f.Value(p.Y), p.I+1)
+	keep := pickExtremes(pts, MaxMarkers)
+	c.pointGroup(Blue)
+	for i, p := range pts {
+		if keep != nil && !keep[i] && !flagged[p.Row] {
+			continue
+		}
+		title := "row " + strconv.Itoa(p.Row) + ": " + f.Value(p.Y) + " (position " + strconv.Itoa(p.I+1) + ")"
 		if flagged[p.Row] {
 			c.marker("triangle", xs.at(float64(p.I)), ys.at(p.Y), 6, Vermilion, p.Row, title+", flagged", "suspect")
 		} else {
-			c.marker("circle", xs.at(float64(p.I)), ys.at(p.Y), rad, Blue, p.Row, title, "")
+			c.marker("circle", xs.at(float64(p.I)), ys.at(p.Y), rad, "", p.Row, title, "")
 		}
 	}
 	c.printf(`</g>`)
@@ -443,4 +438,49 @@ func Run(r *stats.Report) string {
 	}
 	c.legend(items)
 	return c.done()
+}
+
+// pickTails selects at most limit of n ordered points for symbols: the
+// lowest and highest quarter of the limit each, and evenly spaced points
+// between. It returns nil when every point gets a symbol.
+func pickTails(n, limit int) []bool {
+	if n <= limit {
+		return nil
+	}
+	keep := make([]bool, n)
+	tail := limit / 4
+	for i := 0; i < tail; i++ {
+		keep[i], keep[n-1-i] = true, true
+	}
+	mid := limit - 2*tail
+	for k := 0; k < mid; k++ {
+		keep[tail+(k*(n-2*tail))/mid] = true
+	}
+	return keep
+}
+
+// pickExtremes selects at most limit points of a series for symbols: the
+// lowest and highest of each of limit/2 runs in data order, so that no peak
+// or dip loses its symbol. It returns nil when every point gets one.
+func pickExtremes(pts []stats.SeriesPt, limit int) []bool {
+	n := len(pts)
+	if n <= limit {
+		return nil
+	}
+	keep := make([]bool, n)
+	buckets := limit / 2
+	for k := 0; k < buckets; k++ {
+		a, b := k*n/buckets, (k+1)*n/buckets
+		lo, hi := a, a
+		for i := a; i < b; i++ {
+			if pts[i].Y < pts[lo].Y {
+				lo = i
+			}
+			if pts[i].Y > pts[hi].Y {
+				hi = i
+			}
+		}
+		keep[lo], keep[hi] = true, true
+	}
+	return keep
 }

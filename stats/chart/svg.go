@@ -129,7 +129,7 @@ func (s scale) at(v float64) float64 {
 
 // canvas accumulates SVG text.
 type canvas struct {
-	b    strings.Builder
+	b    []byte
 	w, h float64
 }
 
@@ -143,14 +143,14 @@ const (
 
 func newCanvas(w, h float64, id, title, desc string) *canvas {
 	c := &canvas{w: w, h: h}
-	fmt.Fprintf(&c.b, `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 %g %g" width="%g" height="%g" role="img" aria-labelledby="%s-t %s-d" class="chart" data-chart="%s" font-family="system-ui, sans-serif" font-size="15">`,
+	c.printf(`<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 %g %g" width="%g" height="%g" role="img" aria-labelledby="%s-t %s-d" class="chart" data-chart="%s" font-family="system-ui, sans-serif" font-size="15">`,
 		w, h, w, h, id, id, id)
-	fmt.Fprintf(&c.b, `<title id="%s-t">%s</title><desc id="%s-d">%s</desc>`, id, esc(title), id, esc(desc))
-	fmt.Fprintf(&c.b, `<rect x="0" y="0" width="%g" height="%g" fill="#ffffff"/>`, w, h)
+	c.printf(`<title id="%s-t">%s</title><desc id="%s-d">%s</desc>`, id, esc(title), id, esc(desc))
+	c.printf(`<rect x="0" y="0" width="%g" height="%g" fill="#ffffff"/>`, w, h)
 	return c
 }
 
-func (c *canvas) printf(format string, a ...any) { fmt.Fprintf(&c.b, format, a...) }
+func (c *canvas) printf(format string, a ...any) { c.b = fmt.Appendf(c.b, format, a...) }
 
 func (c *canvas) text(x, y float64, anchor, class, s string) {
 	c.printf(`<text x="%.1f" y="%.1f" text-anchor="%s" class="%s">%s</text>`, x, y, anchor, class, esc(s))
@@ -165,8 +165,8 @@ func (c *canvas) line(x1, y1, x2, y2 float64, stroke string, width float64, dash
 }
 
 func (c *canvas) done() string {
-	c.b.WriteString(`</svg>`)
-	return c.b.String()
+	c.b = append(c.b, `</svg>`...)
+	return string(c.b)
 }
 
 // xAxis draws ticks and labels along the bottom of the plot area.
@@ -200,28 +200,140 @@ func (c *canvas) vMarker(x, y0, y1 float64, stroke, dash, label, class string, l
 }
 
 // marker draws a point symbol. Shapes: "circle", "open-circle", "triangle",
-// "square", "diamond".
+// "square", "diamond". It is on the hot path (hundreds of points), so it
+// appends rather than formats.
 func (c *canvas) marker(shape string, x, y, r float64, colour string, row int, title string, class string) {
-	attrs := fmt.Sprintf(`data-row="%d" class="pt %s" tabindex="-1"`, row, class)
-	t := `<title>` + esc(title) + `</title>`
+	b := c.b
+	pt := func(px, py float64) {
+		b = appendF(b, px)
+		b = append(b, ' ')
+		b = appendF(b, py)
+	}
 	switch shape {
 	case "triangle":
-		c.printf(`<path d="M%.1f %.1fL%.1f %.1fL%.1f %.1fZ" fill="%s" stroke="%s" stroke-width="1" %s>%s</path>`,
-			x, y-r*1.2, x+r*1.1, y+r*0.8, x-r*1.1, y+r*0.8, colour, Black, attrs, t)
+		b = append(b, `<path d="M`...)
+		pt(x, y-r*1.2)
+		b = append(b, 'L')
+		pt(x+r*1.1, y+r*0.8)
+		b = append(b, 'L')
+		pt(x-r*1.1, y+r*0.8)
+		b = append(b, `Z" stroke="#000000" stroke-width="1" fill="`...)
 	case "square":
-		c.printf(`<rect x="%.1f" y="%.1f" width="%.1f" height="%.1f" fill="%s" stroke="%s" stroke-width="1" %s>%s</rect>`,
-			x-r, y-r, 2*r, 2*r, colour, Black, attrs, t)
+		b = append(b, `<rect x="`...)
+		b = appendF(b, x-r)
+		b = append(b, `" y="`...)
+		b = appendF(b, y-r)
+		b = append(b, `" width="`...)
+		b = appendF(b, 2*r)
+		b = append(b, `" height="`...)
+		b = appendF(b, 2*r)
+		b = append(b, `" stroke="#000000" stroke-width="1" fill="`...)
 	case "diamond":
-		c.printf(`<path d="M%.1f %.1fL%.1f %.1fL%.1f %.1fL%.1f %.1fZ" fill="%s" stroke="%s" stroke-width="1" %s>%s</path>`,
-			x, y-r*1.3, x+r*1.3, y, x, y+r*1.3, x-r*1.3, y, colour, Black, attrs, t)
+		b = append(b, `<path d="M`...)
+		pt(x, y-r*1.3)
+		b = append(b, 'L')
+		pt(x+r*1.3, y)
+		b = append(b, 'L')
+		pt(x, y+r*1.3)
+		b = append(b, 'L')
+		pt(x-r*1.3, y)
+		b = append(b, `Z" stroke="#000000" stroke-width="1" fill="`...)
 	case "open-circle":
-		c.printf(`<circle cx="%.1f" cy="%.1f" r="%.1f" fill="#ffffff" stroke="%s" stroke-width="2" %s>%s</circle>`,
-			x, y, r, colour, attrs, t)
+		b = append(b, `<circle cx="`...)
+		b = appendF(b, x)
+		b = append(b, `" cy="`...)
+		b = appendF(b, y)
+		b = append(b, `" r="`...)
+		b = appendF(b, r)
+		b = append(b, `" fill="#ffffff" stroke-width="2" stroke="`...)
 	default:
-		c.printf(`<circle cx="%.1f" cy="%.1f" r="%.1f" fill="%s" fill-opacity="0.85" stroke="%s" stroke-width="0.5" %s>%s</circle>`,
-			x, y, r, colour, Black, attrs, t)
+		b = append(b, `<circle cx="`...)
+		b = appendF(b, x)
+		b = append(b, `" cy="`...)
+		b = appendF(b, y)
+		b = append(b, `" r="`...)
+		b = appendF(b, r)
+		if colour != "" {
+			b = append(b, `" fill-opacity="0.85" stroke="#000000" stroke-width="0.5" fill="`...)
+		}
 	}
+	// an empty colour inherits the style of the enclosing group (pointGroup)
+	b = append(b, colour...)
+	b = append(b, `" data-row="`...)
+	b = strconv.AppendInt(b, int64(row), 10)
+	b = append(b, `" class="pt`...)
+	if class != "" {
+		b = append(b, ' ')
+		b = append(b, class...)
+	}
+	b = append(b, `"><title>`...)
+	b = appendEsc(b, title)
+	b = append(b, `</title></`...)
+	switch shape {
+	case "triangle", "diamond":
+		b = append(b, "path>"...)
+	case "square":
+		b = append(b, "rect>"...)
+	default:
+		b = append(b, "circle>"...)
+	}
+	c.b = b
 }
+
+// pointGroup opens a group whose plain circles (marker with colour "")
+// inherit one style, which keeps long charts small.
+func (c *canvas) pointGroup(colour string) {
+	c.printf(`<g class="points" fill="%s" fill-opacity="0.85" stroke="%s" stroke-width="0.5">`, colour, Black)
+}
+
+// appendF appends v rounded to 0.1 px.
+func appendF(b []byte, v float64) []byte {
+	return strconv.AppendFloat(b, math.Round(v*10)/10, 'f', -1, 64)
+}
+
+// appendEsc appends s escaped for XML.
+func appendEsc(b []byte, s string) []byte {
+	for i := 0; i < len(s); i++ {
+		switch ch := s[i]; ch {
+		case '&':
+			b = append(b, "&amp;"...)
+		case '<':
+			b = append(b, "&lt;"...)
+		case '>':
+			b = append(b, "&gt;"...)
+		case '"':
+			b = append(b, "&quot;"...)
+		case '\'':
+			b = append(b, "&#39;"...)
+		default:
+			b = append(b, ch)
+		}
+	}
+	return b
+}
+
+// path appends an open polyline through the points as an SVG path element.
+func (c *canvas) path(n int, at func(i int) (x, y float64), attrs string) {
+	c.b = append(c.b, `<path `...)
+	c.b = append(c.b, attrs...)
+	c.b = append(c.b, ` fill="none" d="`...)
+	for i := 0; i < n; i++ {
+		x, y := at(i)
+		if i == 0 {
+			c.b = append(c.b, 'M')
+		} else {
+			c.b = append(c.b, 'L')
+		}
+		c.b = appendF(c.b, x)
+		c.b = append(c.b, ' ')
+		c.b = appendF(c.b, y)
+	}
+	c.b = append(c.b, `"/>`...)
+}
+
+// MaxMarkers caps the point symbols per chart: beyond it a chart draws every
+// point in its line and a symbol (with its row on tap) only for a selection.
+const MaxMarkers = 400
 
 // legend draws a row of legend entries at the top of the chart.
 type legendItem struct {

@@ -34,10 +34,11 @@ type Session struct {
 	fp  string
 }
 
-// Begin starts reading a file called name, dropping any earlier read.
-func (s *Session) Begin(name string) {
+// Begin starts reading a file called name of size bytes (0 if unknown),
+// dropping any earlier read.
+func (s *Session) Begin(name string, size int64) {
 	s.Cancel()
-	s.active, s.name, s.h, s.rd, s.read = true, name, sha256.New(), newChunkReader(), 0
+	s.active, s.name, s.h, s.rd, s.read = true, name, sha256.New(), newChunkReader(size), 0
 }
 
 // Write feeds the next chunk of the file. It returns the bytes read so far.
@@ -88,34 +89,34 @@ func (s *Session) HasTable() bool { return s.tab != nil }
 // Forget drops the kept table (the user pasted text instead).
 func (s *Session) Forget() { s.tab, s.fp = nil, "" }
 
-// Result is what the page gets: the report and its charts as SVG text.
-type Result struct {
-	Report *stats.Report     `json:"report"`
-	SVG    map[string]string `json:"svg"`
-}
-
 // Analyze runs the request. With useTable it analyses the kept table (the
 // request's Text and Cells are ignored); otherwise the request's own data.
-// It returns the Result as JSON, or {"error": "..."}.
-func (s *Session) Analyze(reqJSON []byte, useTable bool) []byte {
+// It returns the report as JSON (or {"error": "..."}) and its charts as SVG
+// text keyed by chart name (nil on error). The charts travel beside the JSON
+// rather than inside it: JSON-escaping SVG costs time and size.
+func (s *Session) Analyze(reqJSON []byte, useTable bool) ([]byte, map[string]string) {
 	var req stats.Request
 	if err := json.Unmarshal(reqJSON, &req); err != nil {
-		return errorJSON(fmt.Errorf("the request is not valid JSON: %v", err))
+		return errorJSON(fmt.Errorf("the request is not valid JSON: %v", err)), nil
 	}
 	var rep *stats.Report
 	var err error
 	if useTable {
 		if s.tab == nil {
-			return errorJSON(errors.New("no file is loaded: drop or pick the file again"))
+			return errorJSON(errors.New("no file is loaded: drop or pick the file again")), nil
 		}
 		rep, err = stats.AnalyzeTable(s.tab, s.fp, req)
 	} else {
 		rep, err = stats.Analyze(req)
 	}
 	if err != nil {
-		return errorJSON(err)
+		return errorJSON(err), nil
 	}
-	return mustJSON(Result{Report: rep, SVG: chart.All(rep)})
+	b, err := json.Marshal(rep)
+	if err != nil {
+		return errorJSON(fmt.Errorf("internal error encoding the report: %v", err)), nil
+	}
+	return b, chart.All(rep)
 }
 
 func mustJSON(v any) []byte {

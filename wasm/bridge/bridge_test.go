@@ -11,23 +11,43 @@ import (
 )
 
 type result struct {
-	Report *stats.Report     `json:"report"`
-	SVG    map[string]string `json:"svg"`
-	Error  string            `json:"error"`
+	Report *stats.Report
+	SVG    map[string]string
+	Error  string
 }
 
-func decode(t *testing.T, b []byte) result {
+// decode reads an answer of the bridge: JSON (report or error) and charts.
+func decode(t *testing.T, b []byte, svg map[string]string) result {
 	t.Helper()
-	var r result
-	if err := json.Unmarshal(b, &r); err != nil {
+	var e struct {
+		Error string `json:"error"`
+	}
+	if err := json.Unmarshal(b, &e); err != nil {
 		t.Fatalf("not JSON: %v: %s", err, b)
 	}
+	if e.Error != "" {
+		if svg != nil {
+			t.Errorf("charts given with an error")
+		}
+		return result{Error: e.Error}
+	}
+	var r result
+	if err := json.Unmarshal(b, &r.Report); err != nil {
+		t.Fatal(err)
+	}
+	r.SVG = svg
 	return r
+}
+
+func (s *Session) run(t *testing.T, req string, useTable bool) result {
+	t.Helper()
+	b, svg := s.Analyze([]byte(req), useTable)
+	return decode(t, b, svg)
 }
 
 func feed(t *testing.T, s *Session, data []byte, chunk int) {
 	t.Helper()
-	s.Begin("test.txt")
+	s.Begin("test.txt", int64(len(data)))
 	for i := 0; i < len(data); i += chunk {
 		j := min(i+chunk, len(data))
 		n, err := s.Write(data[i:j])
@@ -68,15 +88,18 @@ func TestChunkedEqualsPasted(t *testing.T) {
 		t.Fatal(err)
 	}
 	req, _ := json.Marshal(stats.Request{Text: string(data)})
-	pasted := decode(t, new(Session).Analyze(req, false))
+	pasted := new(Session).run(t, string(req), false)
 	if pasted.Error != "" {
 		t.Fatal(pasted.Error)
+	}
+	if pasted.Report.Charts != nil && len(pasted.SVG) == 0 {
+		t.Error("the report has chart data but no chart was drawn")
 	}
 	for _, chunk := range []int{1, 7, 4096, len(data)} {
 		var s Session
 		feed(t, &s, data, chunk)
 		s.End()
-		got := decode(t, s.Analyze([]byte(`{"options":{}}`), true))
+		got := s.run(t, `{"options":{}}`, true)
 		if got.Error != "" {
 			t.Fatalf("chunk %d: %s", chunk, got.Error)
 		}
@@ -86,7 +109,7 @@ func TestChunkedEqualsPasted(t *testing.T) {
 			t.Errorf("chunk size %d: report differs from the pasted one\n%s\n%s", chunk, a, b)
 		}
 		// settings change: the kept table is analysed again, nothing re-read
-		again := decode(t, s.Analyze([]byte(`{"options":{"confidence":0.99}}`), true))
+		again := s.run(t, `{"options":{"confidence":0.99}}`, true)
 		if again.Error != "" || again.Report.Counts.Used != pasted.Report.Counts.Used {
 			t.Errorf("re-analysis of the kept table failed: %+v", again.Error)
 		}
@@ -100,16 +123,16 @@ func TestCancelAndErrors(t *testing.T) {
 	}
 	feed(t, &s, []byte("1\n2\n3\n"), 2)
 	s.Cancel()
-	if r := decode(t, s.End()); r.Error == "" {
+	if r := decode(t, s.End(), nil); r.Error == "" {
 		t.Error("end after cancel gave no error")
 	}
-	if r := decode(t, s.Analyze([]byte(`{}`), true)); !strings.Contains(r.Error, "no file") {
+	if r := s.run(t, `{}`, true); !strings.Contains(r.Error, "no file") {
 		t.Errorf("analysis without a file: error %q", r.Error)
 	}
-	if r := decode(t, s.Analyze([]byte(`{not json`), false)); !strings.Contains(r.Error, "not valid JSON") {
+	if r := s.run(t, `{not json`, false); !strings.Contains(r.Error, "not valid JSON") {
 		t.Errorf("bad JSON: error %q", r.Error)
 	}
-	if r := decode(t, s.Analyze([]byte(`{"text":"   "}`), false)); r.Error == "" {
+	if r := s.run(t, `{"text":"   "}`, false); r.Error == "" {
 		t.Error("empty text gave no error")
 	}
 }

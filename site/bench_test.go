@@ -1,0 +1,173 @@
+package site
+
+// Page speed, measured in headless Chromium against dist/ (`make bench-page`).
+// These are benchmarks, not tests: they report figures and assert nothing
+// about time. Each reports its own in-page measurement (performance.now) as
+// custom metrics; compare them with the goals in README.md:
+//   cold load to interactive <= 1 s; 10,000 pasted values -> report <= 150 ms;
+//   1,000,000 values from a dropped file <= 2 s with the page responsive
+//   (largest gap between animation frames); compressed wasm <= 1.5 MB.
+
+import (
+	"bytes"
+	"compress/gzip"
+	"context"
+	"fmt"
+	"os"
+	"path/filepath"
+	"testing"
+	"time"
+
+	"github.com/andybalholm/brotli"
+	"github.com/chromedp/chromedp"
+)
+
+// BenchmarkWasmSize reports the engine's size raw, gzip -9 and brotli 11
+// (as the build precompresses it).
+func BenchmarkWasmSize(b *testing.B) {
+	files, _ := filepath.Glob(filepath.Join(distDir, "lotlens*.wasm"))
+	if len(files) == 0 {
+		b.Skip("dist/ is not built: run `make dist` first")
+	}
+	raw, err := os.ReadFile(files[0])
+	if err != nil {
+		b.Fatal(err)
+	}
+	var gz, br bytes.Buffer
+	for i := 0; i < b.N; i++ {
+		gz.Reset()
+		br.Reset()
+		zw, _ := gzip.NewWriterLevel(&gz, gzip.BestCompression)
+		zw.Write(raw)
+		zw.Close()
+		bw := brotli.NewWriterLevel(&br, brotli.BestCompression)
+		bw.Write(raw)
+		bw.Close()
+	}
+	b.ReportMetric(float64(len(raw))/1e6, "raw-MB")
+	b.ReportMetric(float64(gz.Len())/1e6, "gzip-MB")
+	b.ReportMetric(float64(br.Len())/1e6, "brotli-MB")
+}
+
+// BenchmarkColdLoad opens the page in a fresh browser context (empty cache,
+// no service worker) and reports the time from navigation start to the
+// engine being ready (the page is interactive before that).
+func BenchmarkColdLoad(b *testing.B) {
+	s := browser(b)
+	if err := chromedp.Run(s.ctx, chromedp.Navigate("about:blank")); err != nil {
+		b.Fatal(err)
+	}
+	var total, dcl float64
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		ctx, cancel := chromedp.NewContext(s.ctx, chromedp.WithNewBrowserContext())
+		var ready, domReady float64
+		err := chromedp.Run(ctx,
+			chromedp.Navigate(s.base+"/"),
+			chromedp.WaitVisible(`body[data-ready="1"]`, chromedp.ByQuery),
+			chromedp.Evaluate(`+document.body.dataset.readyMs`, &ready),
+			chromedp.Evaluate(`performance.getEntriesByType("navigation")[0].domInteractive`, &domReady),
+		)
+		cancel()
+		if err != nil {
+			b.Fatal(err)
+		}
+		total += ready
+		dcl += domReady
+	}
+	b.ReportMetric(total/float64(b.N), "ready-ms")
+	b.ReportMetric(dcl/float64(b.N), "dom-interactive-ms")
+}
+
+// values returns JavaScript that builds n invented readings as text.
+func values(n int) string {
+	return fmt.Sprintf(`(() => { const a = new Array(%d); let x = 1;
+		for (let i = 0; i < a.length; i++) { x = (x * 16807) %% 2147483647; a[i] = (5 + (x / 2147483647 - 0.5) * 0.4).toFixed(3); }
+		return a.join("\n") + "\n" })()`, n)
+}
+
+// BenchmarkPaste10k pastes 10,000 values and reports the time from the paste
+// event to the report on screen, split into engine (worker round trip) and
+// rendering.
+func BenchmarkPaste10k(b *testing.B) {
+	s := browser(b)
+	s.open(b)
+	if err := chromedp.Run(s.ctx, chromedp.Evaluate(`window.__text = `+values(10000)+`; true`, nil)); err != nil {
+		b.Fatal(err)
+	}
+	var total, eng, ren, wrk, to, from, before float64
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		var tm map[string]float64
+		err := chromedp.Run(s.ctx,
+			// a different first value each time, so the page sees new data
+			chromedp.Evaluate(fmt.Sprintf(`(() => { const d = document.getElementById("data"); d.value = "";
+				const dt = new DataTransfer(); dt.setData("text/plain", "%d.000\n" + window.__text);
+				d.dispatchEvent(new ClipboardEvent("paste", {bubbles: true, cancelable: true, clipboardData: dt})); return true })()`, 5+i%2), nil),
+			analysed(i+1),
+			chromedp.Evaluate(`lotlens.timing()`, &tm),
+		)
+		if err != nil {
+			b.Fatal(err)
+		}
+		total += tm["totalMs"]
+		eng += tm["engineMs"]
+		ren += tm["renderMs"]
+		wrk += tm["workerMs"]
+		to += tm["toWorkerMs"]
+		from += tm["fromWorkerMs"]
+		before += tm["beforeSendMs"]
+	}
+	b.ReportMetric(to/float64(b.N), "to-worker-ms")
+	b.ReportMetric(from/float64(b.N), "from-worker-ms")
+	b.ReportMetric(before/float64(b.N), "before-send-ms")
+	b.ReportMetric(wrk/float64(b.N), "in-worker-ms")
+	b.ReportMetric(total/float64(b.N), "paste-to-report-ms")
+	b.ReportMetric(eng/float64(b.N), "engine-ms")
+	b.ReportMetric(ren/float64(b.N), "render-ms")
+}
+
+// BenchmarkDrop1M drops a file of 1,000,000 values and reports the time from
+// the drop to the report, the largest gap between animation frames on the
+// page meanwhile (responsiveness), and how many progress updates the bar got.
+func BenchmarkDrop1M(b *testing.B) {
+	s := browser(b)
+	s.open(b)
+	ctx, cancel := context.WithTimeout(s.ctx, 10*time.Minute)
+	defer cancel()
+	if err := chromedp.Run(ctx, chromedp.Evaluate(`window.__big = new File([`+values(1000000)+`], "big.txt", {type: "text/plain"}); window.__big.size`, nil)); err != nil {
+		b.Fatal(err)
+	}
+	var total, gap, prog, read float64
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		var r map[string]float64
+		err := chromedp.Run(ctx,
+			chromedp.Evaluate(`(() => {
+				const m = window.__m = { gap: 0, progress: 0, last: performance.now(), t0: performance.now(), done: false };
+				const bar = document.getElementById("progress"); let lastVal = -1;
+				const tick = () => { const now = performance.now(); m.gap = Math.max(m.gap, now - m.last); m.last = now;
+					if (bar.value !== lastVal) { lastVal = bar.value; m.progress++; }
+					if (!m.done) requestAnimationFrame(tick); };
+				requestAnimationFrame(tick);
+				const dt = new DataTransfer(); dt.items.add(window.__big);
+				document.getElementById("input").dispatchEvent(new DragEvent("drop", {bubbles: true, cancelable: true, dataTransfer: dt}));
+				return true })()`, nil),
+			analysed(i+1),
+			chromedp.Evaluate(`(() => { const m = window.__m; m.done = true; const t = lotlens.timing();
+				return { total: performance.now() - m.t0, gap: m.gap, progress: m.progress, read: t.readMs || 0 } })()`, &r),
+		)
+		if err != nil {
+			b.Fatal(err)
+		}
+		s.state(b)
+		total += r["total"]
+		gap = max(gap, r["gap"])
+		prog += r["progress"]
+		read += r["read"]
+	}
+	b.ReportMetric(total/float64(b.N), "drop-to-report-ms")
+	b.ReportMetric(read/float64(b.N), "read-ms")
+	b.ReportMetric(gap, "max-frame-gap-ms")
+	b.ReportMetric(prog/float64(b.N), "progress-updates")
+}
