@@ -10,7 +10,7 @@ WASMPATH := $(PATH):$(GOROOT)/lib/wasm
 CHROMIUM ?= /usr/bin/chromium
 export CHROMIUM
 
-.PHONY: run dist test test-go test-wasm test-browser test-worker vet deps-browser deps-node bench fuzz deploy clean
+.PHONY: run dist test test-go test-wasm test-browser test-worker test-worker-assets vet deps-browser deps-node bench fuzz deploy clean
 
 run: dist ## build dist/ and serve it on http://127.0.0.1:$(PORT)
 	$(GO) run ./build serve -dir dist -port $(PORT)
@@ -49,6 +49,10 @@ deps-browser:
 test-worker: deps-node dist ## the edge worker under workerd (wrangler dev) checked over HTTP; the reproducible-build and local-server tests
 	$(GO) run ./build worker -dir dist
 	LOTLENS_WORKER_TEST=1 $(GO) test -count=1 ./build/...
+
+test-worker-assets: deps-node dist ## the alternative worker (site in the static-asset binding), same checks
+	$(GO) run ./build worker -dir dist -assets
+	LOTLENS_WORKER_TEST=1 LOTLENS_WORKER_CONFIG=build/worker/wrangler.assets.jsonc $(GO) test -count=1 ./build/workertest/
 
 deps-node: ## Node.js (Debian's packages, as root) and wrangler (pinned by package-lock.json, installed locally by npm ci)
 	@if ! command -v node >/dev/null || ! command -v npm >/dev/null; then \

@@ -2,7 +2,7 @@
 //
 //	go run ./build dist [-out dist]              compile the wasm and write the site into dist/
 //	go run ./build serve [-dir dist] [-port N]   serve dist/ on 127.0.0.1 with the worker's headers
-//	go run ./build worker [-dir dist]            prepare the edge worker in build/worker from dist/
+//	go run ./build worker [-dir dist] [-assets]  prepare the edge worker in build/worker from dist/
 package main
 
 import (
@@ -23,6 +23,7 @@ func main() {
 	out := fs.String("out", "dist", "output directory")
 	dir := fs.String("dir", "dist", "directory to serve")
 	port := fs.String("port", envOr("PORT", "8080"), "port to serve on")
+	assets := fs.Bool("assets", false, "worker: serve the site from the static-asset binding instead of embedding it")
 	fs.Parse(os.Args[2:])
 	switch os.Args[1] {
 	case "dist":
@@ -32,7 +33,7 @@ func main() {
 		}
 		fmt.Println("wrote", *out)
 	case "worker":
-		if err := buildWorker(*dir); err != nil {
+		if err := buildWorker(*dir, *assets); err != nil {
 			fmt.Fprintln(os.Stderr, "worker:", err)
 			os.Exit(1)
 		}

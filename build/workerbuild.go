@@ -11,11 +11,12 @@ import (
 )
 
 // buildWorker prepares the edge worker in build/worker: copies the built
-// site (distDir) to build/worker/dist for go:embed, writes the JavaScript glue
-// of github.com/syumai/workers into build/worker/build, and compiles the
-// worker to build/worker/build/app.wasm. It prints the worker's size, raw and
+// site (distDir) to build/worker/dist (the go:embed source, or with assets
+// the static-asset directory), writes the JavaScript glue of
+// github.com/syumai/workers into build/worker/build, and compiles the worker
+// to build/worker/build/app.wasm. It prints the worker's size, raw and
 // gzip-compressed.
-func buildWorker(distDir string) error {
+func buildWorker(distDir string, assets bool) error {
 	if _, err := os.Stat(filepath.Join(distDir, "index.html")); err != nil {
 		return fmt.Errorf("%s is not built: run `go run ./build dist` first (%v)", distDir, err)
 	}
@@ -32,7 +33,11 @@ func buildWorker(distDir string) error {
 		return fmt.Errorf("workers-assets-gen: %v\n%s", err, b)
 	}
 	wasm := filepath.Join(wdir, "build", "app.wasm")
-	cc := exec.Command("go", "build", "-trimpath", "-buildvcs=false", "-ldflags=-s -w", "-o", wasm, "./"+wdir)
+	args := []string{"build", "-trimpath", "-buildvcs=false", "-ldflags=-s -w", "-o", wasm}
+	if assets {
+		args = append(args, "-tags", "lotlens_assets")
+	}
+	cc := exec.Command("go", append(args, "./"+wdir)...)
 	cc.Env = append(os.Environ(), "GOOS=js", "GOARCH=wasm")
 	if b, err := cc.CombinedOutput(); err != nil {
 		return fmt.Errorf("compiling the worker: %v\n%s", err, b)
@@ -54,8 +59,12 @@ func buildWorker(distDir string) error {
 		}
 		return nil
 	})
-	fmt.Printf("worker: %s is %.2f MB raw, %.2f MB gzip -9 (embedded site %.2f MB incl. .br/.gz)\n",
-		wasm, mb(len(b)), mb(gz.Len()), float64(site)/1e6)
+	mode, config := "site embedded", "build/worker/wrangler.jsonc"
+	if assets {
+		mode, config = "site in the static-asset binding", "build/worker/wrangler.assets.jsonc"
+	}
+	fmt.Printf("worker (%s): %s is %.2f MB raw, %.2f MB gzip -9; site %.2f MB incl. .br/.gz; run with --config %s\n",
+		mode, wasm, mb(len(b)), mb(gz.Len()), float64(site)/1e6, config)
 	return nil
 }
 

@@ -11,6 +11,7 @@ import (
 	"path"
 	"reflect"
 	"regexp"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -247,7 +248,19 @@ func renderExample(body string) (string, []string, error) {
 	if ex.Caption != "" {
 		fmt.Fprintf(&b, "<figcaption>%s</figcaption>\n", html.EscapeString(ex.Caption))
 	}
-	fmt.Fprintf(&b, "<p class=\"data\"><span>Data, as typed:</span></p>\n<pre class=\"data\">%s</pre>\n", html.EscapeString(strings.TrimSpace(ex.Request.Text)))
+	// One value a line shows as a wrapped row of values; tables as typed.
+	lines := strings.Split(strings.TrimSpace(ex.Request.Text), "\n")
+	single := true
+	for _, l := range lines {
+		if strings.ContainsAny(strings.TrimSpace(l), "\t;|") || (strings.Contains(strings.TrimSpace(l), " ") && l != lines[0]) {
+			single = false
+		}
+	}
+	if single {
+		fmt.Fprintf(&b, "<p class=\"data\"><span>Data, as typed (%d lines):</span> %s</p>\n", len(lines), html.EscapeString(strings.Join(lines, "  ")))
+	} else {
+		fmt.Fprintf(&b, "<p class=\"data\"><span>Data, as typed:</span></p>\n<pre class=\"data\">%s</pre>\n", html.EscapeString(strings.TrimSpace(ex.Request.Text)))
+	}
 	var opts []string
 	o := ex.Request.Options
 	for _, kv := range []struct {
@@ -381,6 +394,39 @@ func formatValue(v any) string {
 			}
 			return s
 		}
+		if p, ok := x["p"].(float64); ok && len(x) == 2 {
+			if v, ok := x["value"].(float64); ok { // a percentile
+				return num(p) + "th percentile " + num(v)
+			}
+		}
+		if m, ok := x["method"].(string); ok && x["q1"] != nil && x["q3"] != nil && len(x) == 4 { // a quartile set
+			return m + ": Q1 " + formatValue(x["q1"]) + ", median " + formatValue(x["median"]) + ", Q3 " + formatValue(x["q3"])
+		}
+		if code, ok := x["code"].(string); ok && x["count"] != nil { // an outlier rule
+			s := fmt.Sprint(x["name"])
+			if s == "" || s == "<nil>" {
+				s = code
+			}
+			if lo, ok := x["lo"].(float64); ok {
+				s += ", below " + num(lo)
+			}
+			if hi, ok := x["hi"].(float64); ok {
+				s += ", above " + num(hi)
+			}
+			return s + ": " + formatValue(x["count"]) + " flagged"
+		}
+		if row, ok := x["row"].(float64); ok && x["flags"] != nil { // a suspect reading
+			var rules []string
+			for _, f := range x["flags"].([]any) {
+				if fm, ok := f.(map[string]any); ok {
+					rules = append(rules, fmt.Sprint(fm["rule"]))
+				}
+			}
+			return "row " + num(row) + " (" + fmt.Sprint(x["text"]) + "): " + strings.Join(rules, ", ")
+		}
+		if t, ok := x["text"].(string); ok && x["code"] != nil { // a reason
+			return t
+		}
 		keys := make([]string, 0, len(x))
 		for k := range x {
 			keys = append(keys, k)
@@ -425,7 +471,11 @@ func renderHelp(p *HelpPage) ([]byte, []string, error) {
 		if err != nil && ferr == nil {
 			ferr = fmt.Errorf("help/%s.md: %v", p.Slug, err)
 		}
-		missing = append(missing, miss...)
+		for _, m := range miss {
+			if !slices.Contains(missing, m) {
+				missing = append(missing, m)
+			}
+		}
 		return "\n" + h + "\n"
 	})
 	if ferr != nil {

@@ -145,17 +145,25 @@ func Handler(fsys fs.FS) http.Handler {
 			name = path.Join(name, "index.html")
 		}
 		status := http.StatusOK
-		body, err := fs.ReadFile(fsys, name)
-		if err != nil {
-			// "/help" -> "/help/" when it is a directory with an index.
-			if _, ierr := fs.Stat(fsys, path.Join(name, "index.html")); ierr == nil && path.Ext(name) == "" {
-				http.Redirect(w, r, "/"+name+"/", http.StatusMovedPermanently)
-				return
-			}
-			name, status = "404.html", http.StatusNotFound
+		// The precompressed variant first: the raw file is not read at all
+		// when the client takes br or gzip.
+		body, enc := variant(fsys, name, r.Header.Get("Accept-Encoding"))
+		if body == nil {
+			var err error
 			if body, err = fs.ReadFile(fsys, name); err != nil {
-				body = []byte("404 page not found\n")
-				name = "404.txt"
+				// "/help" -> "/help/" when it is a directory with an index.
+				if _, ierr := fs.Stat(fsys, path.Join(name, "index.html")); ierr == nil && path.Ext(name) == "" {
+					http.Redirect(w, r, "/"+name+"/", http.StatusMovedPermanently)
+					return
+				}
+				name, status = "404.html", http.StatusNotFound
+				body, enc = variant(fsys, name, r.Header.Get("Accept-Encoding"))
+				if body == nil {
+					if body, err = fs.ReadFile(fsys, name); err != nil {
+						body = []byte("404 page not found\n")
+						name = "404.txt"
+					}
+				}
 			}
 		}
 		h.Set("Content-Type", ContentType(name))
@@ -166,17 +174,9 @@ func Handler(fsys fs.FS) http.Handler {
 		}
 		if Compressible(name) {
 			h.Set("Vary", "Accept-Encoding")
-			ae := r.Header.Get("Accept-Encoding")
-			for _, e := range Encodings {
-				if !Accepts(ae, e.Token) {
-					continue
-				}
-				if b, err := fs.ReadFile(fsys, name+e.Suffix); err == nil {
-					body = b
-					h.Set("Content-Encoding", e.Token)
-					break
-				}
-			}
+		}
+		if enc != "" {
+			h.Set("Content-Encoding", enc)
 		}
 		// Fingerprinted files are immutable; the others revalidate by ETag.
 		if status == http.StatusOK && !Fingerprinted(name) {
@@ -198,4 +198,20 @@ func Handler(fsys fs.FS) http.Handler {
 		w.WriteHeader(status)
 		w.Write(body)
 	})
+}
+
+// variant returns the best precompressed variant of name that the
+// Accept-Encoding header allows, with its Content-Encoding token, or nil.
+func variant(fsys fs.FS, name, acceptEncoding string) ([]byte, string) {
+	if !Compressible(name) {
+		return nil, ""
+	}
+	for _, e := range Encodings {
+		if Accepts(acceptEncoding, e.Token) {
+			if b, err := fs.ReadFile(fsys, name+e.Suffix); err == nil {
+				return b, e.Token
+			}
+		}
+	}
+	return nil, ""
 }

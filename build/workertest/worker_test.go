@@ -53,8 +53,12 @@ func TestWorkerServesSite(t *testing.T) {
 			t.Fatalf("%s is missing: %s", need.path, need.how)
 		}
 	}
+	config := os.Getenv("LOTLENS_WORKER_CONFIG") // build/worker/wrangler.assets.jsonc for a worker built with -assets
+	if config == "" {
+		config = "build/worker/wrangler.jsonc"
+	}
 	port := freePort(t)
-	cmd := exec.Command(wrangler, "dev", "--config", "build/worker/wrangler.jsonc", "--ip", "127.0.0.1", "--port", fmt.Sprint(port),
+	cmd := exec.Command(wrangler, "dev", "--config", config, "--ip", "127.0.0.1", "--port", fmt.Sprint(port),
 		"--inspector-port", fmt.Sprint(freePort(t)), "--show-interactive-dev-session=false", "--log-level", "info")
 	cmd.Dir = root
 	cmd.Env = append(os.Environ(), "WRANGLER_SEND_METRICS=false", "CI=1", "NO_COLOR=1")
