@@ -1,8 +1,10 @@
 package ingest
 
 import (
+	"fmt"
 	"os"
 	"path/filepath"
+	"runtime/debug"
 	"testing"
 	"time"
 )
@@ -27,38 +29,53 @@ func FuzzRead(f *testing.F) {
 		f.Add([]byte(s), uint8(1))
 	}
 	f.Fuzz(func(t *testing.T, data []byte, step uint8) {
-		done := make(chan bool)
+		// run in a goroutine so that a hang is reported with its input
+		done := make(chan struct{})
+		var fail string
 		go func() {
 			defer close(done)
-			fuzzOne(t, data, step)
+			defer func() {
+				if r := recover(); r != nil {
+					fail = fmt.Sprintf("%v\n%s", r, debug.Stack())
+				}
+			}()
+			fuzzOne(panicTB{t}, data, step)
 		}()
 		select {
 		case <-done:
-		case <-time.After(20 * time.Second):
-			t.Fatalf("the reader took more than 20 s on %d bytes", len(data))
+			if fail != "" {
+				t.Fatal(fail)
+			}
+		case <-time.After(30 * time.Second):
+			t.Fatalf("the reader took more than 30 s on %d bytes", len(data))
 		}
 	})
 }
 
-func fuzzOne(t *testing.T, data []byte, step uint8) {
-	{
-		whole, werr := readChunks(data, []int{len(data) + 1}, 32, ReadOptions{})
-		if werr == nil {
-			checkInvariants(t, whole)
+// panicTB turns Fatalf into a panic, caught by the fuzz goroutine.
+type panicTB struct{ testing.TB }
+
+func (p panicTB) Fatalf(format string, args ...any) { panic(fmt.Sprintf(format, args...)) }
+func (p panicTB) Fatal(args ...any)                 { panic(fmt.Sprint(args...)) }
+func (p panicTB) Helper()                           {}
+
+func fuzzOne(t testing.TB, data []byte, step uint8) {
+	whole, werr := readChunks(data, []int{len(data) + 1}, 32, ReadOptions{})
+	if werr == nil {
+		checkInvariants(t, whole)
+	}
+	sizes := []int{int(step%17) + 1, int(step/17) + 1, 3}
+	got, gerr := readChunks(data, sizes, 32, ReadOptions{})
+	if (werr == nil) != (gerr == nil) || (werr != nil && werr.Error() != gerr.Error()) {
+		t.Fatalf("errors differ: %v vs %v", werr, gerr)
+	}
+	if werr == nil {
+		if d := diffTables(whole, got); d != "" {
+			t.Fatalf("chunked read differs: %s", d)
 		}
-		sizes := []int{int(step%17) + 1, int(step/17) + 1, 3}
-		got, gerr := readChunks(data, sizes, 32, ReadOptions{})
-		if (werr == nil) != (gerr == nil) || (werr != nil && werr.Error() != gerr.Error()) {
-			t.Fatalf("errors differ: %v vs %v", werr, gerr)
-		}
-		if werr == nil {
-			if d := diffTables(whole, got); d != "" {
-				t.Fatalf("chunked read differs: %s", d)
-			}
-		}
-		// the default window on the whole input
-		if tab, err := ReadBytes(data, ReadOptions{DecimalMark: "point", DateOrder: "month"}); err == nil {
-			checkInvariants(t, tab)
-		}
+	}
+	// the default window on the whole input, other options
+	if tab, err := ReadBytes(data, ReadOptions{DecimalMark: "point", DateOrder: "month"}); err == nil {
+		checkInvariants(t, tab)
 	}
 }

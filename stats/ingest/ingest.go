@@ -118,6 +118,7 @@ type Column struct {
 	Cols []int32
 
 	mark byte // '.' or ','
+	num  bool // parsed as numbers (kind number or empty)
 	// sparse texts: cells whose typed form is not the canonical form of
 	// their value (or that are not numbers), in cell order
 	spIdx []int32

@@ -35,7 +35,7 @@ type sniffCell struct {
 	cls  cls
 	ev   markEvidence
 	unit string
-	date dateCell
+	date *dateCell
 }
 
 type sniffRec struct {
@@ -69,7 +69,7 @@ func classify(s string) sniffCell {
 		}
 	}
 	if d, ok := parseDate(s); ok {
-		c.cls, c.date = cTime, d
+		c.cls, c.date = cTime, &d
 		return c
 	}
 	c.cls = cText
@@ -247,6 +247,9 @@ func (s *Stream) sniff(text []byte, eof bool) {
 	tmp.feed(win)
 	tmp.finish()
 	s.sp = splitter{brk: s.lay.brk, other: other, sep: s.lay.sep, emit: s.onRecord}
+	if s.lay.brk == '\n' {
+		s.sp.fast = s.fastLines
+	}
 	s.plan(recs, whole, len(win))
 }
 
@@ -392,11 +395,9 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 				header = r.cells[0].text
 				name, unit = headerName(header)
 			}
-			var cells []sniffCell
-			for i, c := range r.cells {
-				if i > 0 || !lay.transposeName {
-					cells = append(cells, c)
-				}
+			cells := r.cells
+			if lay.transposeName {
+				cells = cells[1:]
 			}
 			c := s.newColumn(colPlan{name: name, unit: unit, header: header}, 1, cells, markHint(lay.sep, [][]sniffCell{cells}))
 			s.cols = []*Column{c}
@@ -571,6 +572,7 @@ func (s *Stream) newColumn(p colPlan, pos int, cells []sniffCell, hint byte) *Co
 		c.lab = []int32{}
 		c.labMap = map[string]int32{}
 	}
+	c.num = c.Kind == "number" || c.Kind == "empty"
 	if c.Kind == "text" || c.Kind == "time" {
 		c.Unit = ""
 		if p.unit != "" { // "Shift (A)" is a name, not a unit, in a label column

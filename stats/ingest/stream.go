@@ -326,10 +326,19 @@ type splitter struct {
 	rec        []byte
 	unclosed   bool
 	emit       func(rec []byte, quoted bool)
+	// fast, when set, takes plain lines (no quote, CR alone or non-ASCII
+	// byte) from the start of data and returns the bytes it consumed.
+	fast func(data []byte) int
 }
 
 func (sp *splitter) feed(data []byte) {
 	for len(data) > 0 {
+		if sp.fast != nil && len(sp.carry) == 0 && !sp.inQ && !sp.skipLF {
+			data = data[sp.fast(data):]
+			if len(data) == 0 {
+				return
+			}
+		}
 		if sp.skipLF {
 			sp.skipLF = false
 			if data[0] == '\n' {
@@ -688,7 +697,7 @@ func trimASCII(b []byte) []byte {
 // cell adds one cell to column c.
 func (s *Stream) cell(c *Column, b []byte, row int) {
 	b = trimASCII(b)
-	if c.Kind == "number" || c.Kind == "empty" {
+	if c.num {
 		if v, d, canon, ok := fastDecimal(b, c.mark); ok {
 			if !canon {
 				c.keep(len(c.Values), b)
@@ -820,5 +829,46 @@ func csvFields(rec []byte, sep byte) ([]string, bool) {
 			return nil, false
 		}
 		out = append(out, fs...)
+	}
+}
+
+// fastLines is the splitter's fast path for LF and CRLF text: whole plain
+// lines go straight to the table, as onRecord would take them.
+func (s *Stream) fastLines(data []byte) int {
+	if s.row+1 < s.lay.dataStart || s.lay.transpose {
+		return 0
+	}
+	pos := 0
+	for {
+		rest := data[pos:]
+		i := 0
+		for i < len(rest) {
+			c := rest[i]
+			if c == '\n' || c == '"' || c == '\r' || c >= 0x80 {
+				break
+			}
+			i++
+		}
+		if i == len(rest) {
+			return pos
+		}
+		next := i + 1
+		switch rest[i] {
+		case '\n':
+		case '\r':
+			if i+1 == len(rest) || rest[i+1] != '\n' {
+				return pos
+			}
+			next = i + 2
+		default:
+			return pos
+		}
+		s.row++
+		if i > s.longest {
+			s.longest = i
+		}
+		s.fields = splitPlain(rest[:i], s.lay.sep, s.fields)
+		s.data(s.row, s.fields)
+		pos += next
 	}
 }
