@@ -73,6 +73,17 @@ const (
 // Each round is one pass over the rows (two staircases), which also
 // samples the next round's candidates; no per-row state is stored.
 func imSelect(m *imMatrix, k int64, next bool) (vk, vk1 float64) {
+	return imSelectHint(m, k, next, nil)
+}
+
+// imHint gives the first round's pivots and the expected share of the
+// entries between them.
+type imHint struct {
+	lo, hi, share float64
+}
+
+// imSelectHint is imSelect with optional first-round pivots.
+func imSelectHint(m *imMatrix, k int64, next bool, hint *imHint) (vk, vk1 float64) {
 	rng := rand.New(rand.NewPCG(0x4c6f746c656e73, uint64(k)))
 	lower := imBound{math.Inf(-1), true}
 	upper := imBound{math.Inf(1), false}
@@ -167,26 +178,32 @@ func imSelect(m *imMatrix, k int64, next bool) (vk, vk1 float64) {
 		if W <= collectLimit {
 			return finish(gather())
 		}
-		if !sampOK {
-			samp = sampleActive(imSample)
-		}
-		slices.Sort(samp)
-		s := len(samp)
-		kk := k - below
-		centre := int(float64(kk) / float64(W) * float64(s))
-		var lo, hi float64
-		var i1, i2 int
-		if single {
-			i1 = min(max(centre, 0), s-1)
-			i2 = i1
+		var lo, hi, wExp float64
+		if round == 0 && hint != nil {
+			// Pivots from the caller (a coarse pass over a subset).
+			lo, hi = hint.lo, hint.hi
+			wExp = hint.share * float64(W)
 		} else {
-			d := int(1.5*math.Sqrt(float64(s))) + 2
-			i1, i2 = max(centre-d, 0), min(centre+d, s-1)
+			if !sampOK {
+				samp = sampleActive(imSample)
+			}
+			slices.Sort(samp)
+			s := len(samp)
+			kk := k - below
+			centre := int(float64(kk) / float64(W) * float64(s))
+			var i1, i2 int
+			if single {
+				i1 = min(max(centre, 0), s-1)
+				i2 = i1
+			} else {
+				d := int(1.5*math.Sqrt(float64(s))) + 2
+				i1, i2 = max(centre-d, 0), min(centre+d, s-1)
+			}
+			lo, hi = samp[i1], samp[i2]
+			wExp = float64(i2-i1+1) / float64(s) * float64(W)
 		}
-		lo, hi = samp[i1], samp[i2]
 		// One pass: count below lo and up to hi, and sample (or gather)
 		// the band [lo, hi] for the next round in case it holds rank k.
-		wExp := float64(i2-i1+1) / float64(s) * float64(W)
 		gatherBand := wExp <= float64(collectLimit)
 		p := min(1, float64(imSample)/math.Max(wExp, 1))
 		lq := math.Log1p(-p)
@@ -400,6 +417,57 @@ func medcoupleMiddle(sorted []float64) (lo, hi float64, ok bool) {
 	if n%2 == 0 {
 		m = sorted[n/2-1]/2 + sorted[n/2]/2
 	}
+	mx := mcMatrix(sorted, m)
+	if mx == nil {
+		return 0, 0, false
+	}
+	N := mx.total()
+	kk := N / 2
+	if N%2 == 0 {
+		kk = N/2 - 1
+	}
+	// For large samples the first round's pivots come from the same
+	// kernel over every step-th order statistic (the "skeleton"): each of
+	// its entries stands for a step×step block of the full matrix, and
+	// only the blocks along one staircase straddle a threshold, so its
+	// ranks give the full matrix's to within a share 8/len(skeleton).
+	var hint *imHint
+	if n >= mcSkeletonMinN {
+		step := n / mcSkeleton
+		sk := make([]float64, 0, n/step+1)
+		for i := step / 2; i < n; i += step {
+			sk = append(sk, sorted[i])
+		}
+		if sm := mcMatrix(sk, m); sm != nil {
+			ns := sm.total()
+			f := float64(kk) / float64(N)
+			d := 10 / float64(len(sk))
+			r1 := int64(max(0, (f-d)*float64(ns)))
+			r2 := int64(min(float64(ns-1), (f+d)*float64(ns)))
+			a, _ := imSelect(sm, r1, false)
+			b, _ := imSelect(sm, r2, false)
+			hint = &imHint{lo: a, hi: b, share: 2 * d}
+		}
+	}
+	if N%2 == 1 {
+		v, _ := imSelectHint(mx, kk, false, hint)
+		return v, v, finite(v)
+	}
+	a, b := imSelectHint(mx, kk, true, hint)
+	return a, b, finite(a) && finite(b)
+}
+
+// Skeleton of the medcouple for large samples (see medcoupleMiddle);
+// variables so that the tests can use it on small samples.
+var (
+	mcSkeletonMinN = 2_000_000
+	mcSkeleton     = 100_000
+)
+
+// mcMatrix is the medcouple's kernel matrix of the sorted values x about
+// m (nil when one side is empty).
+func mcMatrix(sorted []float64, m float64) *imMatrix {
+	n := len(sorted)
 	// rows: indices 0..p-1 (x <= m); columns: indices q..n-1 (x >= m).
 	q, _ := slices.BinarySearch(sorted, m) // first x >= m
 	p := q
@@ -412,7 +480,7 @@ func medcoupleMiddle(sorted []float64) (lo, hi float64, ok bool) {
 	}
 	rows, cols := p, n-q
 	if rows == 0 || cols == 0 {
-		return 0, 0, false
+		return nil
 	}
 	x := sorted
 	mx := &imMatrix{rows: rows, cols: cols}
@@ -482,11 +550,5 @@ func medcoupleMiddle(sorted []float64) (lo, hi float64, ok bool) {
 		}
 		return n1, n2
 	}
-	N := mx.total()
-	if N%2 == 1 {
-		v, _ := imSelect(mx, N/2, false)
-		return v, v, finite(v)
-	}
-	a, b := imSelect(mx, N/2-1, true)
-	return a, b, finite(a) && finite(b)
+	return mx
 }
