@@ -403,8 +403,16 @@ func medcouple(sorted []float64) (mc float64, ok bool) {
 		return 0, false
 	}
 	mc = a/2 + b/2
+	// Kernel values carry rounding of a few units in 1e-16; a medcouple
+	// this close to 0 is 0 within rounding (symmetric data).
+	if math.Abs(mc) < mcZero {
+		mc = 0
+	}
 	return mc, finite(mc)
 }
+
+// mcZero is the magnitude below which the medcouple is reported as 0.
+const mcZero = 1e-13
 
 // medcoupleMiddle returns the two middle kernel values (equal when their
 // number is odd).

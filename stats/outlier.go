@@ -81,7 +81,7 @@ func outlierRules(sorted []float64, q1, q3, median float64, alpha float64) ([]Ru
 			return fmt.Sprintf("%s IQR above Q3 (%s)", fmtSig((x-q3)/iqr, 3), label)
 		})
 		r := Rule{Code: f.code, Name: f.name, Lo: fptr(lo), Hi: fptr(hi), Count: cnt,
-			Note: "Common practice (Tukey 1977): fences " + fmtSig(f.k, 2) + " IQR beyond the nearest quartile." + zeroIQR}
+			Note: fmt.Sprintf("Common practice (Tukey 1977): fences %g IQR beyond the nearest quartile.%s", f.k, zeroIQR)}
 		rules = append(rules, r)
 	}
 

@@ -110,13 +110,18 @@ func containsDot(s string) bool {
 	return false
 }
 
-// decimalsFor is the number of decimals that shows a half-width h with two
-// or three significant digits.
+// decimalsFor is the number of decimals that shows a half-width h with one
+// significant digit, two when its leading digit is 1.
 func decimalsFor(h float64) int {
 	if !(h > 0) || !finite(h) {
 		return 2
 	}
-	return min(15, max(0, 2-int(math.Floor(math.Log10(h)))))
+	e := int(math.Floor(math.Log10(h)))
+	d := -e
+	if h/math.Pow(10, float64(e)) < 2 {
+		d++
+	}
+	return min(15, max(0, d))
 }
 
 func fmtFixed(x float64, dec int) string {
