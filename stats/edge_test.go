@@ -381,3 +381,44 @@ func TestAnalyzeTableReuse(t *testing.T) {
 		t.Errorf("a %+v b %+v", a.Counts, b.Counts)
 	}
 }
+
+func TestHistogramSturges(t *testing.T) {
+	// set 09 has IQR 0 (R 4.2.2: both type-7 quartiles are 7), so the
+	// Freedman-Diaconis width is 0 and the rule falls back to Sturges (1926)
+	rep := analyzeFile(t, "../testdata/sets/09-coarse-ties-n50.txt", Options{})
+	h := rep.Charts.Histogram
+	if h.Rule != "sturges" {
+		t.Fatalf("rule %q", h.Rule)
+	}
+	// values move in whole units: edges at half units, no bin boundary on a value
+	for _, e := range h.Edges {
+		if e == math.Trunc(e) {
+			t.Errorf("edge %v lies on a recorded value", e)
+		}
+	}
+	sum := 0
+	for _, c := range h.Counts {
+		sum += c
+	}
+	if sum != 50 {
+		t.Errorf("counts sum %d", sum)
+	}
+}
+
+func TestAnalyzeJSON(t *testing.T) {
+	out := AnalyzeJSON([]byte(`{"schema":"lotlens.request/1","text":"1.5\n2.5\n3.5\n","options":{"quantile":"hf6"}}`))
+	var rep Report
+	if err := json.Unmarshal(out, &rep); err != nil {
+		t.Fatal(err)
+	}
+	// from memory: mean of 1.5, 2.5, 3.5 is 2.5
+	if rep.Schema != ReportSchema || rep.Centre.Mean != 2.5 || rep.Settings.Quantile != "hf6" {
+		t.Errorf("report %s", out)
+	}
+	for _, bad := range []string{`{`, `{"text":""}`, `{"text":"1\n","options":{"confidence":7}}`} {
+		var e map[string]string
+		if err := json.Unmarshal(AnalyzeJSON([]byte(bad)), &e); err != nil || e["error"] == "" {
+			t.Errorf("%s: want an error object", bad)
+		}
+	}
+}
