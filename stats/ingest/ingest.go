@@ -376,3 +376,53 @@ func ReadBytes(b []byte, opt ReadOptions) (*Table, error) {
 	_, _ = s.Write(b)
 	return s.Finish()
 }
+
+// SetDecimalMark re-reads the columns flagged AmbiguousDecimal with the
+// user's choice, "comma" or "point" ("" changes nothing), from their cells as
+// typed: a large file need not be read again when the user decides.
+func (t *Table) SetDecimalMark(mark string) error {
+	var m byte
+	switch mark {
+	case "":
+		return nil
+	case "comma":
+		m = ','
+	case "point":
+		m = '.'
+	default:
+		return fmt.Errorf("decimal mark %q is not known: use \"comma\" or \"point\"", mark)
+	}
+	var scratch []byte
+	for _, c := range t.Columns {
+		if !c.AmbiguousDecimal || c.mark == m {
+			continue
+		}
+		n := len(c.Values)
+		vals := make([]float64, n)
+		decs := make([]int8, n)
+		nc := &Column{mark: m}
+		for i := 0; i < n; i++ {
+			txt := c.Text(i)
+			v, d := c.Values[i], c.Dec[i]
+			if !math.IsNaN(v) {
+				if r := parseNumber(txt, m, &scratch); r.reason == "" {
+					v, d = r.v, r.dec
+				}
+			}
+			vals[i], decs[i] = v, d
+			if _, kept := c.sparse(i); kept || (!math.IsNaN(v) && string(formatValue(scratch[:0], v, d, m)) != txt) {
+				nc.keep(i, []byte(txt))
+			}
+		}
+		c.Values, c.Dec = vals, decs
+		c.spIdx, c.spOff, c.spBuf = nc.spIdx, nc.spOff, nc.spBuf
+		c.mark = m
+		c.DecimalComma = m == ','
+		for k, p := range t.Problems {
+			if p.Row == 0 && p.Kind == KindAmbiguous && p.Col == c.Position {
+				t.Problems[k].Action = "read with the decimal " + markName(m) + " as chosen"
+			}
+		}
+	}
+	return nil
+}

@@ -504,3 +504,38 @@ func TestWholeTextIsNotCopiedOrChanged(t *testing.T) {
 		t.Fatal(err)
 	}
 }
+
+func TestSetDecimalMark(t *testing.T) {
+	// "1,234" read with a decimal comma is 1.234; with a decimal point (comma
+	// as thousands separator) it is 1234: the notation's definition.
+	text := "Thickness\tLot\n1,234\tA\n1,198\tB\nNA\tA\n2\tB\n"
+	tab, err := Read(text)
+	if err != nil {
+		t.Fatal(err)
+	}
+	c := tab.Columns[0]
+	if !c.AmbiguousDecimal || !c.DecimalComma || c.Values[0] != 1.234 {
+		t.Fatalf("%+v %v", c.ColumnInfo, c.Values)
+	}
+	if err := tab.SetDecimalMark("point"); err != nil {
+		t.Fatal(err)
+	}
+	want, err := ReadWith(text, ReadOptions{DecimalMark: "point"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i, v := range []float64{1234, 1198, nan, 2} {
+		if !sameFloat(c.Values[i], v) || c.Text(i) != want.Columns[0].Text(i) || c.Dec[i] != want.Columns[0].Dec[i] {
+			t.Errorf("cell %d: %v %q %d", i, c.Values[i], c.Text(i), c.Dec[i])
+		}
+	}
+	if c.DecimalComma || tab.Summary() != want.Summary() {
+		t.Errorf("summary %q, want %q", tab.Summary(), want.Summary())
+	}
+	if err := tab.SetDecimalMark("comma"); err != nil || c.Values[0] != 1.234 || c.Text(0) != "1,234" {
+		t.Errorf("back to comma: %v %v %q", err, c.Values[0], c.Text(0))
+	}
+	if tab.SetDecimalMark("dot") == nil {
+		t.Error("unknown mark accepted")
+	}
+}
