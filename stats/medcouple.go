@@ -63,7 +63,7 @@ type imBound struct {
 
 // Sizes of the selection rounds.
 const (
-	imSample       = 1 << 16 // sample size per round
+	imSample       = 1 << 16 // largest sample per round (smaller for small matrices, see imSelectHint)
 	imMinCollect   = 1 << 16 // gather the candidates once this few remain
 	imCollectShare = 8       // ... or once at most (rows+cols)/8 remain: about 1 byte per value
 )
@@ -90,6 +90,8 @@ func imSelectHint(m *imMatrix, k int64, next bool, hint *imHint) (vk, vk1 float6
 	below := int64(0) // entries excluded by the lower bound (all smaller)
 	W := m.total()    // active entries
 	collectLimit := max(int64(imMinCollect), int64(m.rows+m.cols)/imCollectShare)
+	// Sorting the sample should cost less than a pass over the rows.
+	sampleN := min(imSample, max(4096, (m.rows+m.cols)/8))
 	single := false // next round uses one pivot (progress through ties)
 	var samp, buf []float64
 	sampOK, bufOK := false, false
@@ -185,7 +187,7 @@ func imSelectHint(m *imMatrix, k int64, next bool, hint *imHint) (vk, vk1 float6
 			wExp = hint.share * float64(W)
 		} else {
 			if !sampOK {
-				samp = sampleActive(imSample)
+				samp = sampleActive(sampleN)
 			}
 			slices.Sort(samp)
 			s := len(samp)
@@ -205,7 +207,7 @@ func imSelectHint(m *imMatrix, k int64, next bool, hint *imHint) (vk, vk1 float6
 		// One pass: count below lo and up to hi, and sample (or gather)
 		// the band [lo, hi] for the next round in case it holds rank k.
 		gatherBand := wExp <= float64(collectLimit)
-		p := min(1, float64(imSample)/math.Max(wExp, 1))
+		p := min(1, float64(sampleN)/math.Max(wExp, 1))
 		lq := math.Log1p(-p)
 		skip := func() int64 {
 			if p >= 1 {
@@ -218,7 +220,7 @@ func imSelectHint(m *imMatrix, k int64, next bool, hint *imHint) (vk, vk1 float6
 		samp = samp[:0]
 		buf = buf[:0]
 		overflow := false
-		maxSamp := 4 * imSample
+		maxSamp := 4 * sampleN
 		maxBuf := int(2 * collectLimit)
 		cLT, cLE := m.walk2(lo, true, hi, false, func(r0 int, b1s, b2s []int32) {
 			for i := range b1s {
@@ -280,7 +282,7 @@ func imSelectHint(m *imMatrix, k int64, next bool, hint *imHint) (vk, vk1 float6
 				if gatherBand {
 					bufOK = int64(len(buf)) == W
 				} else {
-					sampOK = len(samp) >= imSample/4
+					sampOK = len(samp) >= sampleN/4
 				}
 			}
 		}
