@@ -176,7 +176,7 @@ func (c *Column) sparse(i int) (int, bool) {
 	return lo, lo < len(idx) && int(idx[lo]) == i
 }
 
-func (c *Column) keep(i int, b []byte) {
+func (c *Column) keep(i int, b string) {
 	if len(c.spOff) == 0 {
 		c.spOff = append(c.spOff, 0)
 	}
@@ -411,7 +411,7 @@ func (t *Table) SetDecimalMark(mark string) error {
 			}
 			vals[i], decs[i] = v, d
 			if _, kept := c.sparse(i); kept || (!math.IsNaN(v) && string(formatValue(scratch[:0], v, d, m)) != txt) {
-				nc.keep(i, []byte(txt))
+				nc.keep(i, txt)
 			}
 		}
 		c.Values, c.Dec = vals, decs

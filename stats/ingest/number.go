@@ -5,6 +5,7 @@ import (
 	"strconv"
 	"strings"
 	"unicode/utf8"
+	"unsafe"
 )
 
 // pow10 holds the powers of ten that are exact in float64 (10^0..10^22).
@@ -269,7 +270,6 @@ func parseBody(body string, mark byte, dst []byte) (norm []byte, frac int, reaso
 	var sep rune = -1
 	groups := 0
 	run := 0
-	first := -1
 	for _, r := range intPart {
 		if r >= '0' && r <= '9' {
 			run++
@@ -283,7 +283,6 @@ func parseBody(body string, mark byte, dst []byte) (norm []byte, frac int, reaso
 		}
 		sep = r
 		if groups == 0 {
-			first = run
 			if run == 0 || run > 3 {
 				return nil, 0, badGrouping(r, mark), kindForSep(r, other)
 			}
@@ -296,7 +295,6 @@ func parseBody(body string, mark byte, dst []byte) (norm []byte, frac int, reaso
 	if groups > 0 && run != 3 {
 		return nil, 0, badGrouping(sep, mark), kindForSep(sep, other)
 	}
-	_ = first
 	if countDigits(intPart) == 0 && len(fracPart) == 0 {
 		return nil, 0, "no digits", "not-a-number"
 	}
@@ -367,7 +365,8 @@ func parseNumber(s string, mark byte, scratch *[]byte) (r numResult) {
 		r.dec = -1
 	}
 	*scratch = norm
-	v, err := strconv.ParseFloat(string(norm), 64)
+	// norm is scratch space: ParseFloat does not keep its argument
+	v, err := strconv.ParseFloat(unsafe.String(unsafe.SliceData(norm), len(norm)), 64)
 	if err != nil || math.IsInf(v, 0) || math.IsNaN(v) {
 		return numResult{reason: "number too large", kind: "not-a-number"}
 	}

@@ -286,15 +286,6 @@ func (s *Stream) unit16(dst, b []byte) []byte {
 	return utf8.AppendRune(dst, u)
 }
 
-// decode16All decodes UTF-16 for the sniffing window (no state kept).
-func decode16All(p []byte, le bool) []byte {
-	t := &Stream{enc: encUTF16BE}
-	if le {
-		t.enc = encUTF16LE
-	}
-	return t.decode16(make([]byte, 0, len(p)), p)
-}
-
 // windows1252 maps 0x80..0x9F; other bytes are Latin-1.
 var windows1252 = [32]rune{
 	0x20AC, 0xFFFD, 0x201A, 0x0192, 0x201E, 0x2026, 0x2020, 0x2021, 0x02C6, 0x2030, 0x0160, 0x2039, 0x0152, 0xFFFD, 0x017D, 0xFFFD,
@@ -700,7 +691,7 @@ func (s *Stream) cell(c *Column, b []byte, row int) {
 	if c.num {
 		if v, d, canon, ok := fastDecimal(b, c.mark); ok {
 			if !canon {
-				c.keep(len(c.Values), b)
+				c.keep(len(c.Values), unsafe.String(unsafe.SliceData(b), len(b)))
 			}
 			c.Values = append(c.Values, v)
 			c.Dec = append(c.Dec, d)
@@ -708,7 +699,8 @@ func (s *Stream) cell(c *Column, b []byte, row int) {
 			return
 		}
 	}
-	str := trimCell(string(b))
+	// str aliases the input: clone it before keeping it
+	str := trimCell(unsafe.String(unsafe.SliceData(b), len(b)))
 	i := len(c.Values)
 	if reason, ok := missingToken(str); ok {
 		c.Values = append(c.Values, math.NaN())
@@ -720,9 +712,9 @@ func (s *Stream) cell(c *Column, b []byte, row int) {
 		if str == "" {
 			c.Empty++
 		} else {
-			c.keep(i, []byte(str))
+			c.keep(i, str)
 		}
-		s.problem(Problem{Row: row, Col: c.Position, Column: c.Name, Text: str, Kind: KindMissing, Reason: reason, Action: "counted as missing"})
+		s.problem(Problem{Row: row, Col: c.Position, Column: c.Name, Text: strings.Clone(str), Kind: KindMissing, Reason: reason, Action: "counted as missing"})
 		return
 	}
 	switch c.Kind {
@@ -732,13 +724,14 @@ func (s *Stream) cell(c *Column, b []byte, row int) {
 		l, ok := c.labMap[str]
 		if !ok {
 			l = int32(len(c.labels))
+			str = strings.Clone(str)
 			c.labels = append(c.labels, str)
 			c.labMap[str] = l
 		}
 		c.lab = append(c.lab, l)
 		return
 	case "time":
-		c.keep(i, []byte(str))
+		c.keep(i, str)
 		if dc, ok := parseDate(str); ok {
 			if v, ok := dc.resolve(c.DateOrder != "month-first"); ok {
 				c.Values = append(c.Values, v)
@@ -750,7 +743,7 @@ func (s *Stream) cell(c *Column, b []byte, row int) {
 		c.Values = append(c.Values, math.NaN())
 		c.Dec = append(c.Dec, -1)
 		c.Bad++
-		s.problem(Problem{Row: row, Col: c.Position, Column: c.Name, Text: str, Kind: KindNotTime, Reason: "not a date or time in the column's form", Action: "left out"})
+		s.problem(Problem{Row: row, Col: c.Position, Column: c.Name, Text: strings.Clone(str), Kind: KindNotTime, Reason: "not a date or time in the column's form", Action: "left out"})
 		return
 	}
 	r := parseNumber(str, c.mark, &s.scratch)
@@ -760,12 +753,12 @@ func (s *Stream) cell(c *Column, b []byte, row int) {
 	if r.reason == "" && r.unit != "" && c.Unit != "" && !sameUnit(r.unit, c.Unit) {
 		r = numResult{reason: "unit " + r.unit + " differs from the column's unit " + c.Unit, kind: KindUnit}
 	}
-	c.keep(i, []byte(str))
+	c.keep(i, str)
 	if r.reason != "" {
 		c.Values = append(c.Values, math.NaN())
 		c.Dec = append(c.Dec, -1)
 		c.Bad++
-		s.problem(Problem{Row: row, Col: c.Position, Column: c.Name, Text: str, Kind: r.kind, Reason: r.reason, Action: "left out"})
+		s.problem(Problem{Row: row, Col: c.Position, Column: c.Name, Text: strings.Clone(str), Kind: r.kind, Reason: r.reason, Action: "left out"})
 		return
 	}
 	c.Values = append(c.Values, r.v)
