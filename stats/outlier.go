@@ -49,7 +49,7 @@ func outlierRules(sorted []float64, q1, q3, median float64, alpha float64) ([]Ru
 	// largest set).
 	iqr0 := q3 - q1
 	hint := lowerBound(sorted, q1-1.5*iqr0) + n - upperBound(sorted, q3+1.5*iqr0)
-	flags := &flagSet{m: make(map[int][]Flag, hint+16)}
+	flags := &flagSet{m: make(map[int][]Flag, hint+16), chunk: min(1024, hint+16)}
 	if !(alpha > 0 && alpha < 1) {
 		alpha = 0.05
 	}
@@ -163,13 +163,14 @@ func upperBound(s []float64, v float64) int {
 type flagSet struct {
 	m     map[int][]Flag
 	arena []Flag
+	chunk int // indices per arena allocation
 }
 
 func (fs *flagSet) add(i int, f Flag) {
 	s, ok := fs.m[i]
 	if !ok {
 		if len(fs.arena) < 5 {
-			fs.arena = make([]Flag, 5*1024)
+			fs.arena = make([]Flag, 5*fs.chunk)
 		}
 		s = fs.arena[:0:5]
 		fs.arena = fs.arena[5:]
