@@ -303,3 +303,34 @@ func checkInvariants(t testing.TB, tab *Table) {
 		t.Fatal("empty summary")
 	}
 }
+
+func TestHeaderAndNotesOneColumn(t *testing.T) {
+	// the header row expected for each shape: common practice of instrument
+	// exports (remarks with a colon or in a sentence above the column name)
+	cases := []struct {
+		in       string
+		header   int
+		name     string
+		problems []string
+	}{
+		{"Weight\nerr\n12.5\n", 1, "Weight", []string{"2:not-a-number"}},
+		{"Gauge export v2.1\nStation: 4\nWeight (g)\nerr\n12.5\n", 3, "Weight", []string{"1:note-line", "2:note-line", "4:not-a-number"}},
+		{"Gauge export of the fill line\nWeight (g)\n12.5\n", 2, "Weight", []string{"1:note-line"}},
+		{"Balance export\n\nWeight (g)\n12.5\n12.7\n", 3, "Weight", []string{"1:note-line"}},
+		{"12.5\n12.7\n", 0, "Column 1", nil},
+	}
+	for _, c := range cases {
+		tab, err := Read(c.in)
+		if err != nil {
+			t.Fatalf("%q: %v", c.in, err)
+		}
+		if tab.HeaderRow != c.header || tab.Columns[0].Name != c.name {
+			t.Errorf("%q: header row %d %q, want %d %q", c.in, tab.HeaderRow, tab.Columns[0].Name, c.header, c.name)
+		}
+		for _, p := range c.problems {
+			if !hasProblem(tab, p) {
+				t.Errorf("%q: problem %s not listed: %+v", c.in, p, tab.Problems)
+			}
+		}
+	}
+}

@@ -172,7 +172,7 @@ func isBreak(c byte) bool { return c == '\n' || c == '\r' }
 func (s *Stream) sniff(text []byte, eof bool) {
 	s.sniffed = true
 	lim := s.lim()
-	if len(bytes.TrimFunc(text, unicode.IsSpace)) == 0 {
+	if eof && len(bytes.TrimFunc(text, unicode.IsSpace)) == 0 {
 		s.err = errors.New("the input is empty: paste a column of measurements, or drop a text file (CSV, tab-separated, or one value per line)")
 		return
 	}
@@ -446,6 +446,21 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 		}
 	} else if len(nonEmpty) > 0 && headerLike(recs[nonEmpty[0]]) {
 		header = nonEmpty[0]
+	}
+	if header >= 0 && first >= 0 && m == 1 && header == first-1 {
+		// One column: the text lines right above the first number may be
+		// notes, the header and cells that are not numbers ("Weight", "err",
+		// 12.5). The header is the line after the last note-like one.
+		start := header
+		for start > 0 && !recs[start-1].blank && headerLike(recs[start-1]) {
+			start--
+		}
+		header = start
+		for k := start; k < first; k++ {
+			if noteLike(recs[k].cells[0].text) {
+				header = min(k+1, first-1)
+			}
+		}
 	}
 	switch {
 	case header >= 0:
@@ -943,4 +958,11 @@ func markHint(sep byte, cols [][]sniffCell) byte {
 		return '.'
 	}
 	return 0
+}
+
+// noteLike: a line that reads like a remark rather than a column name
+// ("Station: 4", "Exported by the gauge software on ...").
+func noteLike(s string) bool {
+	name, _ := headerName(s)
+	return strings.ContainsAny(name, ":=") || len(strings.Fields(name)) >= 4
 }

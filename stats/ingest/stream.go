@@ -168,7 +168,7 @@ func (s *Stream) watch(p []byte) {
 		switch c {
 		case '\n', '\r':
 			s.sawBreak = true
-		case ' ', '\t':
+		case ' ', '\t', '\f', '\v':
 		default:
 			if s.sawBreak {
 				s.secondLine = true
