@@ -222,6 +222,11 @@ func imSelectHint(m *imMatrix, k int64, next bool, hint *imHint) (vk, vk1 float6
 		overflow := false
 		maxSamp := 4 * sampleN
 		maxBuf := int(2 * collectLimit)
+		if gatherBand {
+			if want := min(maxBuf, int(wExp*1.25)+1024); cap(buf) < want {
+				buf = make([]float64, 0, want)
+			}
+		}
 		cLT, cLE := m.walk2(lo, true, hi, false, func(r0 int, b1s, b2s []int32) {
 			for i := range b1s {
 				b1, b2 := int(b1s[i]), int(b2s[i])
