@@ -109,6 +109,9 @@ func imSelectHint(m *imMatrix, k int64, next bool, hint *imHint) (vk, vk1 float6
 		return v
 	}
 	finish := func(buf []float64) (float64, float64) {
+		if len(buf) == 0 {
+			return math.NaN(), math.NaN()
+		}
 		kk := int(min(max(k-below, 0), int64(len(buf)-1)))
 		a := floatSelect(buf, kk)
 		b := a
@@ -171,8 +174,10 @@ func imSelectHint(m *imMatrix, k int64, next bool, hint *imHint) (vk, vk1 float6
 		return out
 	}
 	for round := 0; ; round++ {
-		if W <= 0 || round > 200 { // only after rounding inconsistencies
-			return upper.t, upper.t
+		if W <= 0 || round > 200 {
+			// Cannot happen while walks and val agree; never return a
+			// wrong value: the callers leave the figure out.
+			return math.NaN(), math.NaN()
 		}
 		if bufOK {
 			return finish(buf)

@@ -103,7 +103,7 @@ func outlierRules(sorted []float64, q1, q3, median float64, alpha float64) ([]Ru
 			Note: fmt.Sprintf("Hubert and Vandervieren (2008): Tukey's 1.5 IQR fences stretched on the long side by the medcouple MC = %s (Brys, Hubert and Struyf 2004).%s", fmtSig(mc, 4), zeroIQR)})
 	} else {
 		rules = append(rules, Rule{Code: "adjusted-box", Name: "Adjusted box plot for skewed data",
-			Note: "The medcouple needs at least 3 values: rule not applied."})
+			Note: "The medcouple could not be computed (it needs at least 3 values): rule not applied."})
 	}
 
 	// Modified z-scores.
