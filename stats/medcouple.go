@@ -305,31 +305,38 @@ const imChunk = 4096
 
 // mcStair runs the staircase of one threshold over the medcouple rows
 // r0..r1-1 (all with x < m), starting from column c, writing each row's
-// boundary into out[r-r0]; it returns the last boundary and the count. An
-// entry at (r, c) is > t (>= t when strict) when (u+w) - t(u-w) is clearly
-// positive, with u = x[q+c]-m >= 0 and w = x[r]-m < 0; when rounding could
-// decide, it divides exactly as the matrix's val does, so that walks and
-// sampled values agree to the last bit.
+// boundary into out[r-r0]; it returns the last boundary and the count. With
+// u = x[q+c]-m >= 0 and v = m-x[r] > 0 the entry is (u-v)/(u+v), and it is
+// > t (>= t when strict) when u(1-t) - v(1+t) is clearly positive: that
+// difference is computed within 6.7e-16(u+v) of its exact value, and a
+// margin of 2e-15(u+v) keeps the decision equal to comparing val's rounded
+// quotient (relative error below 3.4e-16) with t. Inside the margin it
+// divides exactly as val does, so walks and sampled values agree to the
+// last bit.
 func mcStair(x []float64, m float64, q, r0, r1, c int, t float64, strict bool, out []int32) (int, int64) {
 	var cnt int64
+	a, b := 1-t, 1+t
 	for r := r0; r < r1; r++ {
-		w := x[r] - m
+		v := m - x[r] // > 0
+		vb := v * b
 		for c > 0 {
-			u := x[q+c-1] - m
-			num, den := u+w, u-w
-			td := t * den
-			diff := num - td
-			mg := 4.5e-16 * (math.Abs(num) + math.Abs(td))
+			u := x[q+c-1] - m // >= 0
+			// (u - v) - t(u + v) = u(1-t) - v(1+t), computed within
+			// 6.7e-16(u+v) of its value; a clear sign decides the
+			// comparison of val's rounded quotient with t.
+			diff := u*a - vb
+			s := u + v
+			mg := 2e-15 * s
 			var gt bool
 			switch {
-			case den > 1e-290 && diff > mg:
+			case s > 1e-290 && diff > mg:
 				gt = true
-			case den > 1e-290 && diff < -mg:
+			case s > 1e-290 && diff < -mg:
 				gt = false
 			case strict:
-				gt = num/den >= t
+				gt = (u-v)/(u+v) >= t
 			default:
-				gt = num/den > t
+				gt = (u-v)/(u+v) > t
 			}
 			if !gt {
 				break
