@@ -217,3 +217,29 @@ func TestMedcoupleSkeleton(t *testing.T) {
 		}
 	}
 }
+
+// Far from zero and near the bottom of the floating-point range the
+// staircase's rounding margin must still agree with the division.
+func TestMedcoupleScales(t *testing.T) {
+	rng := rand.New(rand.NewPCG(13, 14))
+	for _, sc := range []struct{ off, scale float64 }{{1e6, 0.01}, {-3e9, 1}, {0, 1e-300}, {0, 1e300}, {1, 1e-9}} {
+		for kind := 0; kind < 5; kind++ {
+			for _, n := range []int{31, 400} {
+				x := randomSample(rng, kind, n)
+				for i := range x {
+					x[i] = sc.off + x[i]*sc.scale
+				}
+				want := naiveMedcouple(x)
+				s := slices.Clone(x)
+				slices.Sort(s)
+				got, ok := medcouple(s)
+				if math.Abs(want) < mcZero {
+					want = 0
+				}
+				if !ok || math.Abs(got-want) > 1e-13 {
+					t.Fatalf("offset %g scale %g kind %d n %d: %v (ok %v), naive %v", sc.off, sc.scale, kind, n, got, ok, want)
+				}
+			}
+		}
+	}
+}
