@@ -259,6 +259,12 @@ func wilcoxonSignedRank(sorted []float64, mu, conf float64) *Test {
 		k := math.Floor(M/2-0.5-zq*sigma) + 1
 		kLo = int64(max(1, k))
 		method = "normal approximation"
+		if k < 1 {
+			// Too few values for the requested level: the widest interval
+			// [min, max] of the Walsh averages, with its own level.
+			level = 1 - 2*normCDF((0.5-M/2)/sigma)
+			method += "; the requested level is not reachable with so few values"
+		}
 	}
 	kHi := int64(M) + 1 - kLo // 1-based rank of the upper limit
 	if kLo > kHi {
