@@ -831,6 +831,10 @@ func (s *Stream) fastLines(data []byte) int {
 	if s.row+1 < s.lay.dataStart || s.lay.transpose {
 		return 0
 	}
+	var one *Column
+	if s.lay.sep == 0 && len(s.cols) == 1 {
+		one = s.cols[0]
+	}
 	pos := 0
 	for {
 		rest := data[pos:]
@@ -860,8 +864,14 @@ func (s *Stream) fastLines(data []byte) int {
 		if i > s.longest {
 			s.longest = i
 		}
-		s.fields = splitPlain(rest[:i], s.lay.sep, s.fields)
-		s.data(s.row, s.fields)
+		if one != nil && len(s.pend) == 0 && !blank(rest[:i]) {
+			// one column: what data would do for a single field
+			s.rows = append(s.rows, int32(s.row))
+			s.cell(one, rest[:i], s.row)
+		} else {
+			s.fields = splitPlain(rest[:i], s.lay.sep, s.fields)
+			s.data(s.row, s.fields)
+		}
 		pos += next
 	}
 }
