@@ -16,7 +16,7 @@ const (
 	// O(n log n) selection over the n(n+1)/2 Walsh averages costs more
 	// than the rest of the analysis, and the median with its interval
 	// says the same for samples that large.
-	hlMaxN = 200_000
+	hlMaxN = 100_000
 )
 
 // targetSection tests the centre of the data against target: sorted is
@@ -35,7 +35,7 @@ const (
 //     Methods, 3.2): exact ranks from the signed-rank distribution, or
 //     ranks n(n+1)/4 ∓ (z·σ + 1/2) from its normal approximation. The
 //     Walsh averages are never formed: imSelect selects them in O(n log n)
-//     (Monahan 1984). Above 200,000 values the estimate and interval are
+//     (Monahan 1984). Above 100,000 values the estimate and interval are
 //     left out (Method says so).
 //
 // Inside and Statement refer to the t interval for the mean.
@@ -227,7 +227,7 @@ func wilcoxonSignedRank(sorted []float64, mu, conf float64) *Test {
 	// Hodges-Lehmann estimate and interval over the non-zero differences
 	// (shifted back by mu, as R does).
 	if nz > hlMaxN {
-		test.Method += "; the pseudo-median and its interval are given up to 200,000 values"
+		test.Method += "; the pseudo-median and its interval are given up to 100,000 values"
 		return test
 	}
 	if math.Abs(sorted[0]) > 1e307 || math.Abs(sorted[n-1]) > 1e307 {
