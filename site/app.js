@@ -104,7 +104,7 @@
   function fmtP(p) {
     if (p === null || p === undefined || !isFinite(p)) return "–";
     if (state.full) return String(p);
-    if (p < 0.0001) return "< 0.0001".replace(".", comma() ? "," : ".");
+    if (p < 0.0001) return "<\u00a00.0001".replace(".", comma() ? "," : ".");
     const s = p.toFixed(p < 0.01 ? 4 : 3);
     return comma() ? s.replace(".", ",") : s;
   }
@@ -122,7 +122,7 @@
   function el(tag, attrs, ...kids) {
     const e = document.createElement(tag);
     if (attrs) for (const k in attrs) {
-      if (k === "class") e.className = attrs[k];
+      if (k === "class") { if (attrs[k]) e.className = attrs[k]; }
       else if (k === "text") e.textContent = attrs[k];
       else if (k.startsWith("on")) e.addEventListener(k.slice(2), attrs[k]);
       else if (attrs[k] !== undefined && attrs[k] !== null && attrs[k] !== false) e.setAttribute(k, attrs[k]);
@@ -160,7 +160,7 @@
       tb.append(tr);
     }
     t.append(tb);
-    return t;
+    return el("div", { class: "tablewrap" }, t); // narrow screens scroll the table, not the page
   }
   function intervalText(ci, extra) {
     if (!ci) return null;
@@ -256,6 +256,7 @@
   const data = $("data");
   function resetForNewData() {
     state.exclude.clear();
+    state.allSuspects = false;
     state.leaveOutRows = []; state.leaveOutText = ""; $("leave-out").value = "";
     state.cols = { value: "", group: "", order: "", subgroup: "" };
   }
@@ -672,13 +673,18 @@
       kids.push(el("p", { class: "quote" }, el("span", { class: "quote-label", text: "Flagged readings " }), el("span", { class: "num big", "data-field": "suspects", "data-value": String(n), text: String(n) })));
       kids.push(el("p", { class: "why", text: "Each reading is checked by several standard rules; one flagged by more than one rule deserves a look at the part or the gauge. Nothing is removed unless you choose to leave it out, and every exclusion is listed in the report." }));
       if (n) {
-        kids.push(table(["Row", "As typed", "Rules that flag it", "In the analysis"], s.readings.map((r) => {
+        const shown = state.allSuspects || n <= 50 ? s.readings : s.readings.slice(0, 50);
+        kids.push(table(["Row", "As typed", "Rules that flag it", "In the analysis"], shown.map((r) => {
           const out = state.exclude.has(r.row);
-          return [String(r.row), r.text + (unit() ? " " + unit() : ""), (r.flags || []).map((f) => f.text || f.rule).join("; "),
-            el("button", { type: "button", class: "toggle", "aria-pressed": out ? "true" : "false", "data-row": String(r.row),
-              "aria-label": (out ? "Put back row " : "Leave out row ") + r.row, text: out ? "Left out \u2013 put back" : "Included \u2013 leave out",
-              onclick: () => toggleExclude(r.row) })];
+          return [String(r.row), r.text + (unit() ? " " + unit() : ""),
+            el("ul", { class: "flags" }, ...(r.flags || []).map((f) => el("li", { "data-rule": f.rule, text: f.text || f.rule }))),
+            [el("span", { class: out ? "state out" : "state in", text: out ? "left out" : "used" }),
+              el("button", { type: "button", class: "toggle", "aria-pressed": out ? "true" : "false", "data-row": String(r.row),
+                "aria-label": (out ? "Put back row " : "Leave out row ") + r.row, text: out ? "Put back" : "Leave out",
+                onclick: () => toggleExclude(r.row) })]];
         }), "figs suspects-t"));
+        if (shown.length < n) kids.push(el("button", { type: "button", class: "small", text: "Show all " + n + " flagged readings",
+          onclick: () => { state.allSuspects = true; render(); } }));
       } else kids.push(el("p", { text: "No reading is flagged by any of the rules." }));
       if (s.rules && s.rules.length) kids.push(el("details", null, el("summary", { text: "The rules as applied" }),
         table(["Rule", "Lower limit", "Upper limit", "Flags", "Note"], s.rules.map((r) => [r.name || r.code,
@@ -702,7 +708,7 @@
     const kids = [];
     const main = sh.shapiroWilk || sh.large || sh.andersonDarling || sh.omnibus;
     if (main) {
-      kids.push(el("p", { class: "quote" }, el("span", { class: "quote-label", text: main.name + ": p = " }), el("span", { class: "num big", "data-field": "normality-p", "data-value": String(main.p), text: fmtP(main.p) })));
+      kids.push(el("p", { class: "quote" }, el("span", { class: "quote-label", text: main.name + " p-value " }), el("span", { class: "num big", "data-field": "normality-p", "data-value": String(main.p), text: fmtP(main.p) })));
       kids.push(el("p", { class: "why", text: main.p < 0.05
         ? "A small p-value says the data are unlikely to come from a normal distribution; figures that assume normality (the mean's interval, capability) need care."
         : "No clear departure from a normal distribution is detected; with few values a test finds only large departures, so look at the plot too." }));

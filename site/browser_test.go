@@ -375,16 +375,18 @@ func TestExclusionRecomputes(t *testing.T) {
 	s.shot(t, "04-exclusion-1024.png")
 }
 
-// TestPrintView renders the print stylesheet: the input panel is hidden, the
-// print header carries title, date, fingerprint, settings and exclusions, and
-// Chromium prints a one- or two-page A4 PDF.
-func TestPrintView(t *testing.T) {
+// TestDemoScreensAndPrint runs the demo, checks the layout at three widths
+// (screens), then renders the print stylesheet: the input panel is hidden,
+// the print header carries title, date, fingerprint, settings and
+// exclusions, and Chromium prints a one- or two-page A4 PDF.
+func TestDemoScreensAndPrint(t *testing.T) {
 	s := browser(t)
 	s.open(t)
 	if err := chromedp.Run(s.ctx, chromedp.Click("#demo", chromedp.ByID), analysed(1)); err != nil {
 		t.Fatal(err)
 	}
 	s.state(t)
+	screens(t, s)
 	var head string
 	var panelShown, headShown bool
 	var pdf []byte
@@ -567,17 +569,12 @@ func TestHeaderShownAsText(t *testing.T) {
 	s.shot(t, "07-header-as-text.png")
 }
 
-// TestNarrowScreens takes screenshots at phone and tablet-portrait widths
-// and checks that every control is at least 44 px tall and nothing scrolls
-// sideways.
-func TestNarrowScreens(t *testing.T) {
-	s := browser(t)
-	s.open(t)
-	if err := chromedp.Run(s.ctx, chromedp.Click("#demo", chromedp.ByID), analysed(1)); err != nil {
-		t.Fatal(err)
-	}
-	s.state(t)
-	for _, w := range []int64{768, 390} {
+// screens takes screenshots of the report at desktop, tablet-portrait and
+// phone widths and checks that every control is at least 44 px tall and
+// nothing scrolls sideways.
+func screens(t *testing.T, s *session) {
+	t.Helper()
+	for _, w := range []int64{1280, 768, 390} {
 		var small []string
 		var overflow bool
 		err := chromedp.Run(s.ctx,
@@ -599,5 +596,8 @@ func TestNarrowScreens(t *testing.T) {
 			t.Errorf("width %d: the page scrolls sideways", w)
 		}
 		s.shot(t, fmt.Sprintf("08-demo-%d.png", w))
+	}
+	if err := chromedp.Run(s.ctx, chromedp.EmulateViewport(1024, 768)); err != nil {
+		t.Fatal(err)
 	}
 }

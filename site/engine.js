@@ -21,8 +21,17 @@ async function load() {
     return WebAssembly.instantiate(buf, go.importObject);
   }
 }
+// Warm-up: browsers compile WebAssembly functions lazily, so the first
+// analysis pays for compiling the engine's hot paths. Run one small analysis
+// (invented values) as soon as the engine is up, while the user is still
+// reading the page; a real request that arrives meanwhile simply queues.
+function warmUp() {
+  let t = "", x = 1;
+  for (let i = 0; i < 600; i++) { x = (x * 16807) % 2147483647; t += (5 + (x / 2147483647 - 0.5) * 0.4).toFixed(3) + "\n"; }
+  try { self.lotlensRun(JSON.stringify({ text: t }), false); } catch (e) { /* warm-up only */ }
+}
 load()
-  .then((r) => go.run(r.instance))
+  .then((r) => { setTimeout(warmUp, 0); return go.run(r.instance); })
   .catch((e) => postMessage({ type: "error", error: "The engine did not load (" + e + "). Reload the page; if it persists, the browser may block WebAssembly." }));
 
 let reading = null; // {id, cancelled}

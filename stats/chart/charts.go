@@ -260,11 +260,18 @@ func Box(r *stats.Report) string {
 	if far {
 		items = append(items, legendItem{"line", Vermilion, "2 3", "outer fence"})
 	}
-	if len(sus) > 0 {
+	kinds := map[string]bool{}
+	for _, s := range sus {
+		_, _, class := suspectKind(s.Value, b)
+		kinds[class] = true
+	}
+	if kinds["near"] {
 		items = append(items, legendItem{"open-circle", Orange, "", "beyond inner"})
-		if far {
-			items = append(items, legendItem{"triangle", Vermilion, "", "beyond outer"})
-		}
+	}
+	if kinds["far"] {
+		items = append(items, legendItem{"triangle", Vermilion, "", "beyond outer"})
+	}
+	if kinds["other"] {
 		items = append(items, legendItem{"diamond", Purple, "", "other rules"})
 	}
 	c.legend(items)

@@ -358,6 +358,10 @@ func (c *canvas) legend(items []legendItem) {
 		}
 		c.text(x+27, y, "start", "legend-label", it.label)
 		x += 27 + 8*float64(len([]rune(it.label))) + 18
+		if x > c.w-150 {
+			// next entry on a second line, inside the top margin
+			x, y = marginL, y+17
+		}
 	}
 	c.printf(`</g>`)
 }
