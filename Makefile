@@ -10,7 +10,7 @@ WASMPATH := $(PATH):$(GOROOT)/lib/wasm
 CHROMIUM ?= /usr/bin/chromium
 export CHROMIUM
 
-.PHONY: run dist test test-go test-wasm test-browser test-worker test-worker-assets vet deps-browser deps-node bench fuzz deploy clean
+.PHONY: run dist test test-go test-wasm test-browser test-worker test-worker-assets vet deps-browser deps-node bench bench-page fuzz deploy clean
 
 run: dist ## build dist/ and serve it on http://127.0.0.1:$(PORT)
 	$(GO) run ./build serve -dir dist -port $(PORT)
@@ -74,6 +74,9 @@ deploy: deps-node dist ## deploy the edge worker to your own Cloudflare account 
 
 bench: ## engine and reader benchmarks
 	$(GO) test -run '^$$' -bench . -benchmem ./stats/...
+
+bench-page: deps-browser dist ## page speed in headless Chromium: cold load, 10k paste, 1M-value drop, wasm size
+	$(GO) test -run '^$$' -bench . -benchtime 3x -timeout 30m ./site/
 
 clean:
 	rm -rf dist build/worker/dist build/worker/build
