@@ -304,3 +304,32 @@ func inputHash(t *testing.T, root string) string {
 	}
 	return hex.EncodeToString(h.Sum(nil))
 }
+
+// TestMetaCSPMatchesHeader holds the contract that site/index.html repeats
+// the served Content-Security-Policy in a meta element (without
+// frame-ancestors, which browsers ignore in a meta policy).
+func TestMetaCSPMatchesHeader(t *testing.T) {
+	b, err := os.ReadFile("../../site/index.html")
+	if err != nil {
+		t.Fatal(err)
+	}
+	m := regexp.MustCompile(`http-equiv="Content-Security-Policy"\s+content="([^"]*)"`).FindSubmatch(b)
+	if m == nil {
+		t.Fatal("site/index.html has no meta Content-Security-Policy")
+	}
+	var header []string
+	for _, d := range strings.Split(web.Headers["Content-Security-Policy"], ";") {
+		if d = strings.TrimSpace(d); d != "" && !strings.HasPrefix(d, "frame-ancestors") {
+			header = append(header, d)
+		}
+	}
+	var meta []string
+	for _, d := range strings.Split(string(m[1]), ";") {
+		if d = strings.TrimSpace(d); d != "" {
+			meta = append(meta, d)
+		}
+	}
+	if strings.Join(meta, "; ") != strings.Join(header, "; ") {
+		t.Errorf("meta CSP in site/index.html\n  %s\ndiffers from the served header (build/web.Headers, frame-ancestors aside)\n  %s", strings.Join(meta, "; "), strings.Join(header, "; "))
+	}
+}
