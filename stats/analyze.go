@@ -49,6 +49,11 @@ func AnalyzeTable(tab *ingest.Table, fingerprint string, req Request) (*Report, 
 	if err != nil {
 		return nil, err
 	}
+	// The user's decision for columns like "1,234" (decimal comma or
+	// thousands separator): re-read from the cells as typed, not the file.
+	if err := tab.SetDecimalMark(req.Options.DecimalMark); err != nil {
+		return nil, err
+	}
 	col, err := pickColumn(tab, req.Value)
 	if err != nil {
 		return nil, err
