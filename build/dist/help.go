@@ -355,6 +355,43 @@ func formatValue(v any) string {
 		}
 		return strings.Join(parts, "; ")
 	case map[string]any:
+		if p, ok := x["p"].(float64); ok && len(x) == 2 {
+			if v, ok := x["value"].(float64); ok { // a percentile
+				return num(p) + "th percentile " + num(v)
+			}
+		}
+		if m, ok := x["method"].(string); ok && x["q1"] != nil && x["q3"] != nil && len(x) == 4 { // a quartile set
+			return m + ": Q1 " + formatValue(x["q1"]) + ", median " + formatValue(x["median"]) + ", Q3 " + formatValue(x["q3"])
+		}
+		if code, ok := x["code"].(string); ok && x["count"] != nil { // an outlier rule
+			s := fmt.Sprint(x["name"])
+			if s == "" || s == "<nil>" {
+				s = code
+			}
+			var lim []string
+			if lo, ok := x["lo"].(float64); ok {
+				lim = append(lim, "below "+num(lo))
+			}
+			if hi, ok := x["hi"].(float64); ok {
+				lim = append(lim, "above "+num(hi))
+			}
+			if len(lim) > 0 {
+				s += " (" + strings.Join(lim, " or ") + ")"
+			}
+			return s + ": " + formatValue(x["count"]) + " flagged"
+		}
+		if row, ok := x["row"].(float64); ok && x["flags"] != nil { // a suspect reading
+			var rules []string
+			for _, f := range x["flags"].([]any) {
+				if fm, ok := f.(map[string]any); ok {
+					rules = append(rules, fmt.Sprint(fm["rule"]))
+				}
+			}
+			return "row " + num(row) + " (" + fmt.Sprint(x["text"]) + "): " + strings.Join(rules, ", ")
+		}
+		if t, ok := x["text"].(string); ok && x["code"] != nil { // a reason
+			return t
+		}
 		if lo, ok := x["lo"].(float64); ok {
 			if hi, ok := x["hi"].(float64); ok {
 				s := num(lo) + " to " + num(hi)
@@ -393,39 +430,6 @@ func formatValue(v any) string {
 				s += " (" + m + ")"
 			}
 			return s
-		}
-		if p, ok := x["p"].(float64); ok && len(x) == 2 {
-			if v, ok := x["value"].(float64); ok { // a percentile
-				return num(p) + "th percentile " + num(v)
-			}
-		}
-		if m, ok := x["method"].(string); ok && x["q1"] != nil && x["q3"] != nil && len(x) == 4 { // a quartile set
-			return m + ": Q1 " + formatValue(x["q1"]) + ", median " + formatValue(x["median"]) + ", Q3 " + formatValue(x["q3"])
-		}
-		if code, ok := x["code"].(string); ok && x["count"] != nil { // an outlier rule
-			s := fmt.Sprint(x["name"])
-			if s == "" || s == "<nil>" {
-				s = code
-			}
-			if lo, ok := x["lo"].(float64); ok {
-				s += ", below " + num(lo)
-			}
-			if hi, ok := x["hi"].(float64); ok {
-				s += ", above " + num(hi)
-			}
-			return s + ": " + formatValue(x["count"]) + " flagged"
-		}
-		if row, ok := x["row"].(float64); ok && x["flags"] != nil { // a suspect reading
-			var rules []string
-			for _, f := range x["flags"].([]any) {
-				if fm, ok := f.(map[string]any); ok {
-					rules = append(rules, fmt.Sprint(fm["rule"]))
-				}
-			}
-			return "row " + num(row) + " (" + fmt.Sprint(x["text"]) + "): " + strings.Join(rules, ", ")
-		}
-		if t, ok := x["text"].(string); ok && x["code"] != nil { // a reason
-			return t
 		}
 		keys := make([]string, 0, len(x))
 		for k := range x {
