@@ -373,6 +373,41 @@ func TestExclusionRecomputes(t *testing.T) {
 		t.Errorf("exclusion list %q does not name row 5", listed)
 	}
 	s.shot(t, "04-exclusion-1024.png")
+
+	// The share link carries data, settings and the exclusion: opening it
+	// restores them and gives the same figures.
+	var link string
+	err = chromedp.Run(s.ctx,
+		chromedp.SetValue("#target", "5.00", chromedp.ByID),
+		chromedp.Click("#share", chromedp.ByID),
+		chromedp.Poll(`document.getElementById("share-url").value.includes("#d=")`, nil, chromedp.WithPollingTimeout(10*time.Second)),
+		chromedp.Value("#share-url", &link, chromedp.ByID),
+	)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.HasPrefix(link, s.base+"/#d=") {
+		t.Fatalf("share link %q", link)
+	}
+	var target string
+	err = chromedp.Run(s.ctx,
+		chromedp.Navigate("about:blank"),
+		chromedp.Navigate(link),
+		chromedp.WaitVisible(`body[data-ready="1"]`, chromedp.ByQuery),
+		analysed(1),
+		chromedp.Value("#target", &target, chromedp.ByID),
+		chromedp.Text("#exclusion-list", &listed, chromedp.ByID),
+	)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s.state(t)
+	got = s.fields(t)
+	checkShown(t, got, "used", float64(without.Counts.Used))
+	checkShown(t, got, "mean-all", without.Centre.Mean)
+	if !strings.Contains(listed, "Row 5") || target != "5" {
+		t.Errorf("the shared link restored exclusions %q and target %q, want row 5 and 5", listed, target)
+	}
 }
 
 // TestDemoScreensAndPrint runs the demo, checks the layout at three widths
