@@ -460,6 +460,7 @@
   function showPreview(text, name) {
     const lines = text.split(/\r\n|\n|\r/, 41);
     if (lines.length > 40) lines.length = 40;
+    else if (lines.length && lines[lines.length - 1] === "") lines.pop(); // the final line break
     previewLines = lines; previewName = name;
     renderPreview();
   }
