@@ -325,7 +325,14 @@ func chooseSep(win []byte, brk, other byte) byte {
 	}
 	single := 0
 	for _, l := range tail {
-		c := classify(trimCell(string(l)))
+		t := trimCell(string(l))
+		if spacedIntegers(t) {
+			// "412 413 411": whole numbers apart by spaces are values side by
+			// side, not one number with thousands separators (that would be a
+			// silent wrong number); "12 345,6" keeps its decimal mark and stays one.
+			continue
+		}
+		c := classify(t)
 		if c.cls == cNumber || c.cls == cMissing {
 			single++
 		}
@@ -339,6 +346,27 @@ func chooseSep(win []byte, brk, other byte) byte {
 		}
 	}
 	return 0
+}
+
+// spacedIntegers reports whether s is two or more runs of digits (with an
+// optional sign on each) separated by spaces, with no decimal mark.
+func spacedIntegers(s string) bool {
+	parts := strings.Fields(s)
+	if len(parts) < 2 {
+		return false
+	}
+	for _, p := range parts {
+		p = strings.TrimLeft(p, "+-")
+		if p == "" {
+			return false
+		}
+		for i := 0; i < len(p); i++ {
+			if p[i] < '0' || p[i] > '9' {
+				return false
+			}
+		}
+	}
+	return true
 }
 
 // colPlan is the decision for one column.
