@@ -194,7 +194,7 @@ func imSelectHint(m *imMatrix, k int64, next bool, hint *imHint) (vk, vk1 float6
 			if !sampOK {
 				samp = sampleActive(sampleN)
 			}
-			slices.Sort(samp)
+			sortSample(samp)
 			s := len(samp)
 			kk := k - below
 			centre := int(float64(kk) / float64(W) * float64(s))
@@ -211,7 +211,11 @@ func imSelectHint(m *imMatrix, k int64, next bool, hint *imHint) (vk, vk1 float6
 		}
 		// One pass: count below lo and up to hi, and sample (or gather)
 		// the band [lo, hi] for the next round in case it holds rank k.
-		gatherBand := wExp <= float64(collectLimit)
+		// A band of one value (lo == hi, common in tied data) is neither
+		// sampled nor gathered: if it holds rank k the answer is lo, and
+		// otherwise the next round's bounds exclude all of it.
+		oneValue := lo == hi
+		gatherBand := !oneValue && wExp <= float64(collectLimit)
 		p := min(1, float64(sampleN)/math.Max(wExp, 1))
 		lq := math.Log1p(-p)
 		skip := func() int64 {
@@ -232,7 +236,7 @@ func imSelectHint(m *imMatrix, k int64, next bool, hint *imHint) (vk, vk1 float6
 				buf = make([]float64, 0, want)
 			}
 		}
-		cLT, cLE := m.walk2(lo, true, hi, false, func(r0 int, b1s, b2s []int32) {
+		visit := func(r0 int, b1s, b2s []int32) {
 			for i := range b1s {
 				b1, b2 := int(b1s[i]), int(b2s[i])
 				if overflow {
@@ -263,7 +267,11 @@ func imSelectHint(m *imMatrix, k int64, next bool, hint *imHint) (vk, vk1 float6
 				}
 				acc += w
 			}
-		})
+		}
+		if oneValue {
+			visit = nil
+		}
+		cLT, cLE := m.walk2(lo, true, hi, false, visit)
 		oldW := W
 		sampOK, bufOK = false, false
 		switch {
@@ -298,6 +306,20 @@ func imSelectHint(m *imMatrix, k int64, next bool, hint *imHint) (vk, vk1 float6
 		}
 		single = W > oldW/2
 	}
+}
+
+// sortSample sorts a pivot sample in place: by the radix sort of sortFloats
+// (several times faster than a comparison sort at the sample sizes used),
+// unless the sample holds a NaN (the kernel of values near the float64
+// limit can give one), which only a comparison sort orders.
+func sortSample(samp []float64) {
+	for _, v := range samp {
+		if v != v {
+			slices.Sort(samp)
+			return
+		}
+	}
+	sortFloats(samp)
 }
 
 // imChunk is the number of rows a walk hands to its visitor at once.
