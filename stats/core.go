@@ -221,10 +221,10 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 
 	suspects := &Suspects{Rules: []Rule{}, Readings: []Suspect{}}
 	if hookOutliers != nil && n >= 3 {
-		rules, flags := hookOutliers(sorted, qs.Q1, qs.Q3, median, 1-opts.Confidence)
+		rules, flags, flagged := hookOutliers(sorted, qs.Q1, qs.Q3, median, 1-opts.Confidence)
 		suspects.Rules = rules
 		var note *Note
-		suspects.Readings, note = mapFlags(sorted, flags, cv)
+		suspects.Readings, note = mapFlags(sorted, flags, flagged, cv)
 		if note != nil {
 			rep.Notes = append(rep.Notes, *note)
 		}
@@ -504,8 +504,9 @@ const maxSuspects = 1000
 // column and text. Equal values carry the same flags, so every reading
 // holding a flagged value is listed. Beyond maxSuspects readings the most
 // extreme (farthest from the middle of the ordered data) are kept and a Note
-// says how many were flagged.
-func mapFlags(sorted []float64, flags map[int][]Flag, cv *colView) ([]Suspect, *Note) {
+// says how many were flagged: flagged, the count of all flagged indices
+// (flags itself need only hold the maxSuspects most extreme).
+func mapFlags(sorted []float64, flags map[int][]Flag, flagged int, cv *colView) ([]Suspect, *Note) {
 	out := []Suspect{}
 	if len(flags) == 0 {
 		return out, nil
@@ -525,8 +526,10 @@ func mapFlags(sorted []float64, flags map[int][]Flag, cv *colView) ([]Suspect, *
 		return idx[a] < idx[b]
 	})
 	var note *Note
+	if flagged > maxSuspects {
+		note = &Note{Field: "suspects.readings", Text: fmt.Sprintf("%d readings are flagged; the %d most extreme are listed (the rules give the full counts)", flagged, maxSuspects)}
+	}
 	if len(idx) > maxSuspects {
-		note = &Note{Field: "suspects.readings", Text: fmt.Sprintf("%d readings are flagged; the %d most extreme are listed (the rules give the full counts)", len(idx), maxSuspects)}
 		idx = idx[:maxSuspects]
 	}
 	ix := newF64index(len(idx))

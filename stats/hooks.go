@@ -7,6 +7,6 @@ package stats
 var (
 	hookShape    func(sorted []float64, mean, sd float64) (*Shape, []Note)
 	hookProbPlot func(sorted []float64, mean, sd, conf float64, maxPoints int) ProbPlot
-	hookOutliers func(sorted []float64, q1, q3, median float64, alpha float64) ([]Rule, map[int][]Flag)
+	hookOutliers func(sorted []float64, q1, q3, median float64, alpha float64) (rules []Rule, flags map[int][]Flag, flagged int)
 	hookTarget   func(sorted []float64, mean, sd float64, target, conf float64) *Target
 )

@@ -39,17 +39,17 @@ const (
 //     r = min(10, max(1, ⌊n/10⌋)) suspects. With r = 1 it is Grubbs' (1969)
 //     two-sided test for a single outlier. Score: Ri, the step's Studentized
 //     deviate.
-func outlierRules(sorted []float64, q1, q3, median float64, alpha float64) ([]Rule, map[int][]Flag) {
+//
+// The report lists at most maxSuspects readings, the most extreme, so the
+// flags themselves are kept only for the indices within maxSuspects of
+// either end of sorted (see flagSet); flagged counts every flagged index.
+func outlierRules(sorted []float64, q1, q3, median float64, alpha float64) (rules []Rule, flags map[int][]Flag, flagged int) {
 	n := len(sorted)
-	rules := []Rule{}
+	rules = []Rule{}
 	if n == 0 {
-		return rules, map[int][]Flag{}
+		return rules, map[int][]Flag{}, 0
 	}
-	// Size the map for the readings beyond the inner fences (usually the
-	// largest set).
-	iqr0 := q3 - q1
-	hint := lowerBound(sorted, q1-1.5*iqr0) + n - upperBound(sorted, q3+1.5*iqr0)
-	flags := &flagSet{m: make(map[int][]Flag, hint+16), chunk: min(1024, hint+16)}
+	fs := newFlagSet(sorted, q1, q3)
 	if !(alpha > 0 && alpha < 1) {
 		alpha = 0.05
 	}
@@ -71,7 +71,7 @@ func outlierRules(sorted []float64, q1, q3, median float64, alpha float64) ([]Ru
 		if f.k == 3 {
 			label = "far out, beyond the outer fence"
 		}
-		cnt := fenceFlags(sorted, lo, hi, f.code, flags, func(x float64) string {
+		cnt := fenceFlags(sorted, lo, hi, f.code, fs, func(x float64) string {
 			if iqr == 0 {
 				return label
 			}
@@ -93,7 +93,7 @@ func outlierRules(sorted []float64, q1, q3, median float64, alpha float64) ([]Ru
 		} else {
 			lo, hi = q1-1.5*math.Exp(-3*mc)*iqr, q3+1.5*math.Exp(4*mc)*iqr
 		}
-		cnt := fenceFlags(sorted, lo, hi, "adjusted-box", flags, func(x float64) string {
+		cnt := fenceFlags(sorted, lo, hi, "adjusted-box", fs, func(x float64) string {
 			if x < lo {
 				return fmt.Sprintf("%s below the adjusted lower fence (medcouple %s)", fmtSig(lo-x, 3), fmtSig(mc, 3))
 			}
@@ -124,13 +124,17 @@ func outlierRules(sorted []float64, q1, q3, median float64, alpha float64) ([]Ru
 			return lastText
 		}
 		for i := 0; i < n && score(sorted[i]) > modZLimit && sorted[i] < median; i++ {
-			m := score(sorted[i])
-			flags.add(i, Flag{Rule: "modified-z", Score: m, Text: text(sorted[i], m)})
+			if fs.mark(i) {
+				m := score(sorted[i])
+				fs.add(i, Flag{Rule: "modified-z", Score: m, Text: text(sorted[i], m)})
+			}
 			cnt++
 		}
 		for i := n - 1; i >= 0 && score(sorted[i]) > modZLimit && sorted[i] > median; i-- {
-			m := score(sorted[i])
-			flags.add(i, Flag{Rule: "modified-z", Score: m, Text: text(sorted[i], m)})
+			if fs.mark(i) {
+				m := score(sorted[i])
+				fs.add(i, Flag{Rule: "modified-z", Score: m, Text: text(sorted[i], m)})
+			}
 			cnt++
 		}
 		rules = append(rules, Rule{Code: "modified-z", Name: "Modified z-score above 3.5", Lo: fptr(lo), Hi: fptr(hi), Count: cnt,
@@ -140,8 +144,8 @@ func outlierRules(sorted []float64, q1, q3, median float64, alpha float64) ([]Ru
 			Note: "The median absolute deviation is 0 (more than half the values equal the median), so the modified z-score is not defined: rule not applied."})
 	}
 
-	rules = append(rules, gesdRule(sorted, alpha, flags.m))
-	return rules, flags.m
+	rules = append(rules, gesdRule(sorted, alpha, fs))
+	return rules, fs.m, fs.total
 }
 
 // upperBound is the first index with s[i] > v.
@@ -160,12 +164,44 @@ func upperBound(s []float64, v float64) int {
 
 // flagSet collects flags by index with few allocations: each flagged
 // index gets a slice of capacity 5 (one per rule) cut from a shared arena.
+//
+// Every rule flags the values beyond a cut-off at either end of the sorted
+// data (fences, modified z-score, the ESD's extremes), so the flagged
+// indices form a run at each end, and the maxSuspects most extreme of them
+// (all the report lists, see mapFlags) lie within maxSuspects of an end.
+// Only those indices keep their flags; the others are counted. Without this
+// limit, data with many readings beyond the fences (an IQR of 0 flags about
+// half of them) would cost some 250 bytes per flagged reading.
 type flagSet struct {
 	m     map[int][]Flag
 	arena []Flag
-	chunk int // indices per arena allocation
+	chunk int      // indices per arena allocation
+	n     int      // number of values
+	seen  []uint64 // flagged indices, one bit each
+	total int      // flagged indices
 }
 
+// newFlagSet sizes the set for the readings beyond the inner fences
+// (usually the largest set) among the indices it keeps.
+func newFlagSet(sorted []float64, q1, q3 float64) *flagSet {
+	n := len(sorted)
+	iqr := q3 - q1
+	hint := lowerBound(sorted, q1-1.5*iqr) + n - upperBound(sorted, q3+1.5*iqr)
+	hint = min(hint, 2*maxSuspects) + 16
+	return &flagSet{m: make(map[int][]Flag, hint), chunk: min(1024, hint), n: n, seen: make([]uint64, (n+63)/64)}
+}
+
+// mark counts index i as flagged and tells whether its flags are kept:
+// call add for i only when it returns true.
+func (fs *flagSet) mark(i int) bool {
+	if fs.seen[i/64]&(1<<(i%64)) == 0 {
+		fs.seen[i/64] |= 1 << (i % 64)
+		fs.total++
+	}
+	return min(i, fs.n-1-i) < maxSuspects
+}
+
+// add records flag f of index i (after mark).
 func (fs *flagSet) add(i int, f Flag) {
 	s, ok := fs.m[i]
 	if !ok {
@@ -193,11 +229,15 @@ func fenceFlags(sorted []float64, lo, hi float64, code string, flags *flagSet, t
 		return lastText
 	}
 	for ; i < n && sorted[i] < lo; i++ {
-		flags.add(i, Flag{Rule: code, Score: lo - sorted[i], Text: cached(sorted[i])})
+		if flags.mark(i) {
+			flags.add(i, Flag{Rule: code, Score: lo - sorted[i], Text: cached(sorted[i])})
+		}
 		cnt++
 	}
 	for j := n - 1; j >= i && sorted[j] > hi; j-- {
-		flags.add(j, Flag{Rule: code, Score: sorted[j] - hi, Text: cached(sorted[j])})
+		if flags.mark(j) {
+			flags.add(j, Flag{Rule: code, Score: sorted[j] - hi, Text: cached(sorted[j])})
+		}
 		cnt++
 	}
 	return cnt
@@ -248,7 +288,7 @@ func rawMAD(sorted []float64, med float64) float64 {
 // gesdRule runs Rosner's (1983) generalized ESD procedure, see outlierRules.
 // The extremes of the remaining values are always at the two ends of the
 // sorted data, so each step is O(1) after one pass for the moments.
-func gesdRule(sorted []float64, alpha float64, flags map[int][]Flag) Rule {
+func gesdRule(sorted []float64, alpha float64, flags *flagSet) Rule {
 	n := len(sorted)
 	rule := Rule{Code: "gesd", Name: "Generalized ESD (Grubbs' test for one suspect)"}
 	r := min(gesdMaxR, max(1, n/10))
@@ -336,7 +376,9 @@ func gesdRule(sorted []float64, alpha float64, flags map[int][]Flag) Rule {
 		} else {
 			txt = fmt.Sprintf("step %d of the generalized ESD: R = %s, critical %s", i+1, fmtSig(st.R, 4), fmtSig(st.lam, 4))
 		}
-		flags[st.idx] = append(flags[st.idx], Flag{Rule: "gesd", Score: st.R, Text: txt})
+		if flags.mark(st.idx) {
+			flags.add(st.idx, Flag{Rule: "gesd", Score: st.R, Text: txt})
+		}
 	}
 	rule.Count = nout
 	note := fmt.Sprintf("Rosner (1983) at α = %s, testing up to %d suspect(s) (our limit: min(10, max(1, n/10))); with one suspect this is Grubbs' two-sided test. It assumes the other values are roughly normal.", fmtSig(alpha, 3), r)

@@ -15,7 +15,7 @@ func TestOutlierR(t *testing.T) {
 	for set, r := range ref {
 		x, _, _ := methodsSet(t, set)
 		q1, med, q3 := quantileHF(x, 0.25, 7), quantileHF(x, 0.5, 7), quantileHF(x, 0.75, 7)
-		rules, flags := outlierRules(x, q1, q3, med, 0.05)
+		rules, flags, _ := outlierRules(x, q1, q3, med, 0.05)
 		byCode := map[string]Rule{}
 		for _, ru := range rules {
 			byCode[ru.Code] = ru
@@ -72,8 +72,9 @@ func TestOutlierR(t *testing.T) {
 func checkGESDSteps(t *testing.T, set string, x []float64, r map[string]float64) int {
 	// Recompute the statistics the way gesdRule does, step by step, and
 	// compare with R's gesdR<i> and gesdLambda<i>.
-	flags := map[int][]Flag{}
-	rule := gesdRule(x, 0.05, flags)
+	fs := newFlagSet(x, 0, 0)
+	rule := gesdRule(x, 0.05, fs)
+	flags := fs.m
 	n := 0
 	for i := 1; i <= gesdMaxR; i++ {
 		wantR, ok := r[fmt.Sprintf("gesdR%d", i)]

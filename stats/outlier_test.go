@@ -1,8 +1,12 @@
 package stats
 
 import (
+	"fmt"
 	"math"
+	"math/rand/v2"
 	"slices"
+	"strconv"
+	"strings"
 	"testing"
 )
 
@@ -19,8 +23,9 @@ func TestGESDRosnerExample(t *testing.T) {
 	if len(x) != 54 {
 		t.Fatal("data")
 	}
-	flags := map[int][]Flag{}
-	rule := gesdRule(x, 0.05, flags)
+	fs := newFlagSet(x, 0, 0)
+	rule := gesdRule(x, 0.05, fs)
+	flags := fs.m
 	if rule.Count != 3 {
 		t.Fatalf("GESD count %d, published 3", rule.Count)
 	}
@@ -48,7 +53,7 @@ func TestOutlierRulesDefinitions(t *testing.T) {
 	x := []float64{1, 2, 3, 4, 5, 6, 7, 8, 9, 30}
 	q1, med, q3 := quantileHF(x, 0.25, 7), quantileHF(x, 0.5, 7), quantileHF(x, 0.75, 7)
 	// type 7: q1 = 3.25, q3 = 7.75, IQR 4.5: inner hi 14.5, outer hi 21.25
-	rules, flags := outlierRules(x, q1, q3, med, 0.05)
+	rules, flags, _ := outlierRules(x, q1, q3, med, 0.05)
 	got := map[string]Rule{}
 	for _, r := range rules {
 		got[r.Code] = r
@@ -85,7 +90,7 @@ func TestOutlierRulesDefinitions(t *testing.T) {
 // MAD = 0: the modified z-score is not defined and flags nothing.
 func TestModifiedZZeroMAD(t *testing.T) {
 	x := []float64{5, 5, 5, 5, 5, 5, 7, 9}
-	rules, flags := outlierRules(x, 5, 5.5, 5, 0.05)
+	rules, flags, _ := outlierRules(x, 5, 5.5, 5, 0.05)
 	for _, r := range rules {
 		if r.Code == "modified-z" && (r.Count != 0 || r.Lo != nil || r.Note == "") {
 			t.Errorf("modified z with MAD 0: %+v", r)
@@ -112,6 +117,55 @@ func TestRawMAD(t *testing.T) {
 		want := quantileHF(d, 0.5, 7)
 		if got := rawMAD(x, med); got != want {
 			t.Errorf("rawMAD(%v) = %v, want %v", x, got, want)
+		}
+	}
+}
+
+// More flagged readings than the report lists: with an IQR of 0 the fences
+// sit on the quartiles and every value off the middle is flagged (common
+// practice: Tukey's fences, 1.5 and 3 IQR beyond the quartiles). The rules
+// count all 3000, the note gives that number, and the 1000 listed are the
+// most extreme: the 500 lowest and the 500 highest, each with its own row
+// and text.
+func TestSuspectsMoreThanListed(t *testing.T) {
+	const side, middle = 1500, 4000
+	var vals []string
+	for i := 1; i <= side; i++ {
+		vals = append(vals, strconv.FormatFloat(5-float64(i)/1000, 'f', 3, 64), strconv.FormatFloat(15+float64(i)/1000, 'f', 3, 64))
+	}
+	for range middle {
+		vals = append(vals, "10.000")
+	}
+	rand.New(rand.NewPCG(3, 4)).Shuffle(len(vals), func(i, j int) { vals[i], vals[j] = vals[j], vals[i] })
+	rep, err := Analyze(Request{Text: strings.Join(vals, "\n")})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, r := range rep.Suspects.Rules {
+		if r.Code == "tukey-inner" && r.Count != 2*side {
+			t.Errorf("inner fences flag %d, want %d", r.Count, 2*side)
+		}
+	}
+	want := fmt.Sprintf("%d readings are flagged; the %d most extreme are listed", 2*side, maxSuspects)
+	found := false
+	for _, nt := range rep.Notes {
+		found = found || strings.HasPrefix(nt.Text, want)
+	}
+	if !found {
+		t.Errorf("no note %q in %+v", want, rep.Notes)
+	}
+	if len(rep.Suspects.Readings) != maxSuspects {
+		t.Fatalf("%d readings listed, want %d", len(rep.Suspects.Readings), maxSuspects)
+	}
+	seen := map[int]bool{}
+	for _, s := range rep.Suspects.Readings {
+		if vals[s.Row-1] != s.Text || strconv.FormatFloat(s.Value, 'f', 3, 64) != s.Text || seen[s.Row] {
+			t.Fatalf("reading %+v: row holds %q", s.Reading, vals[s.Row-1])
+		}
+		seen[s.Row] = true
+		// the 500 most extreme on each side: below 4 or above 16
+		if !(s.Value < 4 || s.Value > 16) || len(s.Flags) == 0 {
+			t.Errorf("listed %+v, not among the most extreme", s)
 		}
 	}
 }

@@ -98,7 +98,7 @@ func TestMethodsFinite(t *testing.T) {
 		}
 		sh, notes := shapeSection(x, m, sd)
 		q1, med, q3 := quantileHF(x, 0.25, 7), quantileHF(x, 0.5, 7), quantileHF(x, 0.75, 7)
-		rules, flags := outlierRules(x, q1, q3, med, 0.05)
+		rules, flags, _ := outlierRules(x, q1, q3, med, 0.05)
 		tg := targetSection(x, m, sd, med+sd/3, 0.95)
 		pp := probPlot(x, m, sd, 0.95, 50)
 		out := map[string]any{"shape": sh, "notes": notes, "rules": rules, "flags": flags, "target": tg, "pp": pp}
