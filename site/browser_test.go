@@ -36,10 +36,16 @@ import (
 	"lotlens/stats"
 )
 
-const (
-	distDir   = "../dist"
-	artefacts = "../testdata/artefacts"
-)
+const artefacts = "../testdata/artefacts"
+
+// distDir is the built site under test: ../dist, or $LOTLENS_DIST (an
+// absolute path) to compare two builds side by side without touching dist/.
+var distDir = func() string {
+	if d := os.Getenv("LOTLENS_DIST"); d != "" {
+		return d
+	}
+	return "../dist"
+}()
 
 func awaitPromise(p *runtime.EvaluateParams) *runtime.EvaluateParams { return p.WithAwaitPromise(true) }
 

@@ -8,6 +8,7 @@ import (
 	"strings"
 	"unicode"
 	"unicode/utf8"
+	"unsafe"
 )
 
 // layout is what the sniffing decided.
@@ -215,9 +216,14 @@ func (s *Stream) sniff(text []byte, eof bool) {
 	s.lay.sep = chooseSep(win, s.lay.brk, other)
 	s.tab.Format.Separator = map[byte]string{'\t': "tab", ',': "comma", ';': "semicolon", '|': "pipe", ' ': "spaces", 0: "none"}[s.lay.sep]
 
-	// records of the window, split as the main pass will split them
-	var recs []sniffRec
-	var conv []byte
+	// records of the window, split as the main pass will split them. The
+	// cells' texts alias the window (or buffers made for one record and
+	// never reused): plan clones what it keeps. Records and cells are
+	// allocated in blocks, not one by one: this pass is most of the cost of
+	// reading a short paste.
+	lines := bytes.Count(win, []byte{s.lay.brk}) + 1
+	recs := make([]sniffRec, 0, lines)
+	var arena []sniffCell
 	row := 0
 	tmp := splitter{brk: s.lay.brk, other: other, sep: s.lay.sep}
 	var fields [][]byte
@@ -227,8 +233,7 @@ func (s *Stream) sniff(text []byte, eof bool) {
 			return
 		}
 		if !utf8.Valid(rec) {
-			conv = fromWindows1252(conv[:0], rec)
-			rec = conv
+			rec = fromWindows1252(nil, rec)
 		}
 		if quoted {
 			fields = splitQuoted(rec, s.lay.sep, fields)
@@ -237,10 +242,14 @@ func (s *Stream) sniff(text []byte, eof bool) {
 		}
 		r := sniffRec{row: row, blank: blankFields(fields)}
 		if !r.blank {
-			r.cells = make([]sniffCell, 0, len(fields))
-			for _, f := range fields {
-				r.cells = append(r.cells, classify(trimCell(string(f))))
+			if cap(arena)-len(arena) < len(fields) {
+				arena = make([]sniffCell, 0, max(len(fields)*max(lines-row+1, 1), 64))
 			}
+			k := len(arena)
+			for _, f := range fields {
+				arena = append(arena, classify(trimCell(unsafe.String(unsafe.SliceData(f), len(f)))))
+			}
+			r.cells = arena[k:len(arena):len(arena)]
 		}
 		recs = append(recs, r)
 	}
@@ -270,19 +279,28 @@ func chooseSep(win []byte, brk, other byte) byte {
 			}
 			counts = append(counts, len(fs))
 			if sep == 0 {
-				lines = append(lines, append([]byte(nil), rec...))
+				if quoted {
+					rec = append([]byte(nil), rec...) // the splitter reuses its buffer
+				}
+				lines = append(lines, rec) // otherwise a part of win
 			}
 		}
 		sp.feed(win)
 		sp.finish()
 		return counts, lines
 	}
+	// Without quotes, a separator absent from the window gives every record
+	// one field: not consistent, and no need to split the window again.
+	noQuotes := bytes.IndexByte(win, '"') < 0
 	_, lines := records(0)
 	if len(lines) == 0 {
 		return 0
 	}
 	tail := lines[len(lines)/2:]
 	consistent := func(sep byte) bool {
+		if noQuotes && bytes.IndexByte(win, sep) < 0 && (sep != ' ' || bytes.IndexByte(win, '\t') < 0) {
+			return false
+		}
 		counts, _ := records(sep)
 		if len(counts) == 0 {
 			return false
@@ -325,7 +343,7 @@ func chooseSep(win []byte, brk, other byte) byte {
 	}
 	single := 0
 	for _, l := range tail {
-		t := trimCell(string(l))
+		t := trimCell(unsafe.String(unsafe.SliceData(l), len(l)))
 		if spacedIntegers(t) {
 			// "412 413 411": whole numbers apart by spaces are values side by
 			// side, not one number with thousands separators (that would be a
@@ -351,6 +369,9 @@ func chooseSep(win []byte, brk, other byte) byte {
 // spacedIntegers reports whether s is two or more runs of digits (with an
 // optional sign on each) separated by spaces, with no decimal mark.
 func spacedIntegers(s string) bool {
+	if strings.IndexFunc(s, unicode.IsSpace) < 0 {
+		return false // one part at most: skip the allocation of Fields
+	}
 	parts := strings.Fields(s)
 	if len(parts) < 2 {
 		return false
@@ -378,7 +399,7 @@ type colPlan struct {
 func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 	lay := &s.lay
 	lay.dataStart = 1
-	var nonEmpty []int // indexes into recs
+	nonEmpty := make([]int, 0, len(recs)) // indexes into recs
 	for i, r := range recs {
 		if !r.blank {
 			nonEmpty = append(nonEmpty, i)
@@ -420,7 +441,7 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 			name, unit, header := "Column 1", "", ""
 			if r.cells[0].cls == cText {
 				lay.transposeName = true
-				header = r.cells[0].text
+				header = strings.Clone(r.cells[0].text)
 				name, unit = headerName(header)
 			}
 			cells := r.cells
@@ -511,7 +532,7 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 	for j := range plans {
 		p := &plans[j]
 		if header >= 0 && j < len(recs[header].cells) {
-			p.header = recs[header].cells[j].text
+			p.header = strings.Clone(recs[header].cells[j].text)
 			p.name, p.unit = headerName(p.header)
 		}
 		if p.name == "" {
@@ -532,11 +553,23 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 	// cells of each column in the window
 	colCells := make([][]sniffCell, ncols)
 	dataRecs := 0
+	counts := make([]int, ncols)
 	for _, r := range recs {
 		if r.row < lay.dataStart || r.blank {
 			continue
 		}
 		dataRecs++
+		for j := 0; j < ncols && j < len(r.cells); j++ {
+			counts[j]++
+		}
+	}
+	for j := range colCells {
+		colCells[j] = make([]sniffCell, 0, counts[j])
+	}
+	for _, r := range recs {
+		if r.row < lay.dataStart || r.blank {
+			continue
+		}
 		for j := 0; j < ncols && j < len(r.cells); j++ {
 			colCells[j] = append(colCells[j], r.cells[j])
 		}
@@ -658,7 +691,7 @@ func (s *Stream) newColumn(p colPlan, pos int, cells []sniffCell, hint byte) *Co
 					best = u
 				}
 			}
-			c.Unit = best
+			c.Unit = strings.Clone(best) // cells' texts alias the input
 		}
 	}
 	if c.Kind == "time" && (dayEv > 0 || monthEv > 0 || hasSlash(cells)) {
