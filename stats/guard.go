@@ -53,17 +53,29 @@ func guardFinite(rep *Report) {
 	}
 }
 
-// nonFinite reports the path of the first NaN or Inf inside v.
+// nonFinite reports the path of the first NaN or Inf inside v, path being
+// v's own. The path is built only on the way back from a bad value: the
+// report holds thousands of chart points, and a string per point would be
+// a megabyte of garbage for every report.
 func nonFinite(v reflect.Value, path string) (string, bool) {
+	if sub, bad := nonFiniteBelow(v); bad {
+		return path + sub, true
+	}
+	return "", false
+}
+
+// nonFiniteBelow reports the path below v (".Field", "[3]", ".key") of the
+// first NaN or Inf inside v.
+func nonFiniteBelow(v reflect.Value) (string, bool) {
 	switch v.Kind() {
 	case reflect.Float32, reflect.Float64:
 		f := v.Float()
 		if math.IsNaN(f) || math.IsInf(f, 0) {
-			return path, true
+			return "", true
 		}
 	case reflect.Pointer, reflect.Interface:
 		if !v.IsNil() {
-			return nonFinite(v.Elem(), path)
+			return nonFiniteBelow(v.Elem())
 		}
 	case reflect.Struct:
 		t := v.Type()
@@ -71,21 +83,21 @@ func nonFinite(v reflect.Value, path string) (string, bool) {
 			if !t.Field(i).IsExported() {
 				continue
 			}
-			if p, bad := nonFinite(v.Field(i), path+"."+t.Field(i).Name); bad {
-				return p, true
+			if p, bad := nonFiniteBelow(v.Field(i)); bad {
+				return "." + t.Field(i).Name + p, true
 			}
 		}
 	case reflect.Slice, reflect.Array:
 		for i := 0; i < v.Len(); i++ {
-			if p, bad := nonFinite(v.Index(i), fmt.Sprintf("%s[%d]", path, i)); bad {
-				return p, true
+			if p, bad := nonFiniteBelow(v.Index(i)); bad {
+				return fmt.Sprintf("[%d]", i) + p, true
 			}
 		}
 	case reflect.Map:
 		it := v.MapRange()
 		for it.Next() {
-			if p, bad := nonFinite(it.Value(), path+"."+fmt.Sprint(it.Key().Interface())); bad {
-				return p, true
+			if p, bad := nonFiniteBelow(it.Value()); bad {
+				return "." + fmt.Sprint(it.Key().Interface()) + p, true
 			}
 		}
 	}
