@@ -139,8 +139,10 @@ func imSelectHint(m *imMatrix, k int64, next bool, hint *imHint) (vk, vk1 float6
 	// sampleActive draws about s active entries uniformly.
 	sampleActive := func(s int) []float64 {
 		out := samp[:0]
-		if cap(out) < s {
-			out = make([]float64, 0, s) // sized once, not grown
+		if cap(out) < s+s/16 {
+			// sized once: the next walk's sample (about s, binomial
+			// with SD √s) usually fits too
+			out = make([]float64, 0, s+s/16)
 		}
 		if math.IsInf(lower.t, -1) && math.IsInf(upper.t, 1) {
 			// Whole matrix: draw cells directly (the triangle's diagonal
