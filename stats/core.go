@@ -96,7 +96,10 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 		return
 	}
 
-	sorted := sortFloats(xs)
+	sorted := xs
+	if !allFixed || !countSortFixed(sorted, int(maxD)) {
+		sortFloats(sorted)
+	}
 	xs = nil
 	lo, hi := sorted[0], sorted[n-1]
 

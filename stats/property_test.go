@@ -198,3 +198,60 @@ func TestRadixSort(t *testing.T) {
 		}
 	}
 }
+
+// TestCountSortFixed: the counting sort of fixed-point decimals gives the
+// same values, bit for bit, as the radix sort, and declines (leaving the
+// data untouched) for -0, values off the decimal grid and wide ranges.
+func TestCountSortFixed(t *testing.T) {
+	r := rand.New(rand.NewPCG(9, 10))
+	for _, c := range []struct {
+		n, d, D      int
+		centre, step float64
+		want         bool
+	}{
+		{5000, 2, 2, 500, 0.01, true},        // fill weights to 0.01
+		{100000, 3, 3, -0.2, 0.001, true},    // signs mixed around 0
+		{50000, 1, 2, 12.5, 0.1, true},       // typed to 0.1 on a grid of 0.01
+		{200000, 0, 0, 1e12, 1, true},        // large whole numbers
+		{1000, 6, 6, 0.5, 1e-6, false},       // range wider than n/8 steps
+		{100, 2, 2, 500, 0.01, false},        // too few values to pay
+		{300000, 22, 22, 1e-19, 1e-22, true}, // the finest grid handled
+	} {
+		xs := make([]float64, c.n)
+		for i := range xs {
+			m := math.Round(r.NormFloat64() * 30)
+			if c.d == 6 {
+				m = math.Round(r.NormFloat64() * 1e5)
+			}
+			xs[i], _ = strconv.ParseFloat(strconv.FormatFloat(c.centre+m*c.step, 'f', c.d, 64), 64)
+		}
+		want := append([]float64(nil), xs...)
+		sortFloats(want)
+		got := append([]float64(nil), xs...)
+		if ok := countSortFixed(got, c.D); ok != c.want {
+			t.Fatalf("%+v: applies %v, want %v", c, ok, c.want)
+		} else if !ok {
+			got = sortFloats(got)
+		}
+		for i := range got {
+			if math.Float64bits(got[i]) != math.Float64bits(want[i]) {
+				t.Fatalf("%+v: index %d: %v, want %v", c, i, got[i], want[i])
+			}
+		}
+	}
+	// declined: the data are left as they were
+	for _, xs := range [][]float64{
+		append(make([]float64, 300), math.Copysign(0, -1)), // -0 would come back as +0
+		append(make([]float64, 300), 0.125),                // three decimals on a grid of two
+	} {
+		before := append([]float64(nil), xs...)
+		if countSortFixed(xs, 2) {
+			t.Fatalf("counting sort applied to %v", xs[len(xs)-1])
+		}
+		for i := range xs {
+			if math.Float64bits(xs[i]) != math.Float64bits(before[i]) {
+				t.Fatalf("declined but changed index %d", i)
+			}
+		}
+	}
+}
