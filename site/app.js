@@ -182,16 +182,20 @@
   }
 
   // ---------- charts ----------
-  const parser = new DOMParser();
+  // The engine's SVG text is parsed by the HTML parser of an inert
+  // <template> (no script runs, nothing loads; the text in it is escaped by
+  // the Go chart package): several times faster than DOMParser's XML parser
+  // plus importNode, which took most of the page's rendering time.
   function chartFigure(key, caption) {
     const src = state.svg && state.svg[key];
     if (!src) return el("p", { class: "missing", text: "No chart: the report has no data for it." });
-    const doc = parser.parseFromString(src, "image/svg+xml");
-    const svg = doc.documentElement;
-    if (svg.nodeName !== "svg") return el("p", { class: "missing", text: "The chart could not be drawn." });
+    const tpl = document.createElement("template");
+    tpl.innerHTML = src;
+    const svg = tpl.content.firstElementChild;
+    if (!svg || svg.nodeName !== "svg" || tpl.content.childElementCount !== 1) return el("p", { class: "missing", text: "The chart could not be drawn." });
     const fig = el("figure", { class: "chart-fig", "data-chart": key, tabindex: "0",
       "aria-describedby": "kbd-" + key });
-    fig.append(document.importNode(svg, true));
+    fig.append(svg);
     const save = el("button", { type: "button", class: "small", text: "Save SVG", onclick: () => download(fileBase() + "-" + key + ".svg", src, "image/svg+xml") });
     fig.append(el("figcaption", null, el("span", { text: caption + " " }),
       el("span", { id: "kbd-" + key, class: "kbd-hint", text: "Tap or hover a point for its row; with the keyboard, arrow keys step through the points and Enter leaves one out or puts it back." }),

@@ -1,6 +1,7 @@
 package ingest
 
 import (
+	"math/rand"
 	"strings"
 	"testing"
 )
@@ -44,5 +45,31 @@ func TestChunkBufferReuse(t *testing.T) {
 		if w == nil || w.Unit != "g" || w.Header != "Weight (g)" || !w.DecimalComma || l == nil || l.Unit != "mm" {
 			t.Fatalf("chunks of %d bytes: %+v", size, got.Infos())
 		}
+	}
+}
+
+// classify's shortcut for plain decimals decides as the general path does.
+func TestClassifyPlainDecimal(t *testing.T) {
+	r := rand.New(rand.NewSource(3))
+	alpha := "0123456789.,-"
+	plain := 0
+	for i := 0; i < 200000; i++ {
+		b := make([]byte, 1+r.Intn(9))
+		for k := range b {
+			b[k] = alpha[r.Intn(len(alpha))]
+		}
+		s := string(b)
+		if _, ok := plainDecimal(s); ok {
+			plain++
+		}
+		got, want := classify(s), classifyAny(s)
+		same := got.text == want.text && got.cls == want.cls && got.ev == want.ev && got.unit == want.unit &&
+			(got.date == nil) == (want.date == nil) && (got.date == nil || *got.date == *want.date)
+		if !same {
+			t.Fatalf("%q: %+v, general path %+v", s, got, want)
+		}
+	}
+	if plain < 1000 {
+		t.Fatalf("only %d plain decimals drawn", plain)
 	}
 }

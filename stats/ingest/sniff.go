@@ -46,6 +46,16 @@ type sniffRec struct {
 }
 
 func classify(s string) sniffCell {
+	if body, ok := plainDecimal(s); ok {
+		// what the general path below decides for such a cell: a number
+		// without unit, read with the mark it holds
+		return sniffCell{text: s, cls: cNumber, ev: evidence(body)}
+	}
+	return classifyAny(s)
+}
+
+// classifyAny is classify without the shortcut for plain decimals.
+func classifyAny(s string) sniffCell {
 	c := sniffCell{text: s}
 	if _, ok := missingToken(s); ok {
 		c.cls = cMissing
@@ -75,6 +85,29 @@ func classify(s string) sniffCell {
 	}
 	c.cls = cText
 	return c
+}
+
+// plainDecimal reports whether s is digits with an optional leading minus
+// and at most one decimal mark ('.' or ',') between digits, the common cell
+// of a pasted column, and returns s without its sign.
+func plainDecimal(s string) (string, bool) {
+	body := s
+	if len(body) > 0 && body[0] == '-' {
+		body = body[1:]
+	}
+	if len(body) == 0 || body[0]-'0' >= 10 || body[len(body)-1]-'0' >= 10 {
+		return "", false
+	}
+	marks := 0
+	for i := 1; i < len(body)-1; i++ {
+		if c := body[i]; c-'0' >= 10 {
+			if c != '.' && c != ',' {
+				return "", false
+			}
+			marks++
+		}
+	}
+	return body, marks <= 1
 }
 
 // Errors for inputs that are not tables of text.
@@ -265,7 +298,12 @@ func (s *Stream) sniff(text []byte, eof bool) {
 // chooseSep picks the separator from the window's lines.
 func chooseSep(win []byte, brk, other byte) byte {
 	// records under a separator (quotes decide where records end)
+	n := bytes.Count(win, []byte{brk}) + 1
 	records := func(sep byte) (counts []int, lines [][]byte) {
+		counts = make([]int, 0, n)
+		if sep == 0 {
+			lines = make([][]byte, 0, n)
+		}
 		var fs [][]byte
 		sp := splitter{brk: brk, other: other, sep: sep}
 		sp.emit = func(rec []byte, quoted bool) {

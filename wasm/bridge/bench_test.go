@@ -38,6 +38,14 @@ func BenchmarkSession10k(b *testing.B) {
 			}
 		}
 	})
+	b.Run("request", func(b *testing.B) {
+		for i := 0; i < b.N; i++ {
+			var r stats.Request
+			if err := json.Unmarshal(req, &r); err != nil {
+				b.Fatal(err)
+			}
+		}
+	})
 	var r stats.Request
 	if err := json.Unmarshal(req, &r); err != nil {
 		b.Fatal(err)
