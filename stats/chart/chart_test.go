@@ -4,6 +4,7 @@ import (
 	"encoding/xml"
 	"fmt"
 	"math"
+	"math/rand"
 	"strconv"
 	"strings"
 	"testing"
@@ -399,5 +400,22 @@ func TestLongSeriesCapped(t *testing.T) {
 	Box(r)
 	if fmt.Sprint(r.Suspects.Readings) != before {
 		t.Error("drawing reordered the report's suspect readings")
+	}
+}
+
+// appendF's shortcut writes what strconv's shortest form writes for the
+// value rounded to tenths (Go's standard library is the reference).
+func TestAppendFAgreesWithStrconv(t *testing.T) {
+	r := rand.New(rand.NewSource(5))
+	vals := []float64{0, -0.0, 0.04, -0.04, -0.05, 0.05, 0.95, -0.95, 1e9, -1e9, 999999999.94, 1e300, math.Inf(1), math.NaN(), 12.25, -12.25}
+	for i := 0; i < 200000; i++ {
+		scale := math.Pow(10, float64(r.Intn(12)-3))
+		vals = append(vals, (r.Float64()-0.5)*scale)
+	}
+	for _, v := range vals {
+		want := strconv.AppendFloat(nil, math.Round(v*10)/10, 'f', -1, 64)
+		if got := appendF(nil, v); string(got) != string(want) {
+			t.Fatalf("%v: %s, strconv %s", v, got, want)
+		}
 	}
 }

@@ -288,7 +288,22 @@ func (c *canvas) pointGroup(colour string) {
 
 // appendF appends v rounded to 0.1 px.
 func appendF(b []byte, v float64) []byte {
-	return strconv.AppendFloat(b, math.Round(v*10)/10, 'f', -1, 64)
+	r := math.Round(v*10) / 10
+	if !(math.Abs(r) < 1e9) || (r == 0 && math.Signbit(r)) {
+		return strconv.AppendFloat(b, r, 'f', -1, 64)
+	}
+	// the same text without the general shortest-form search: r is a whole
+	// number of tenths well inside the exact range of float64
+	n := int64(math.Round(v * 10))
+	if n < 0 {
+		b = append(b, '-')
+		n = -n
+	}
+	b = strconv.AppendInt(b, n/10, 10)
+	if d := n % 10; d != 0 {
+		b = append(b, '.', byte('0'+d))
+	}
+	return b
 }
 
 // appendEsc appends s escaped for XML.
