@@ -14,33 +14,25 @@ func guardFinite(rep *Report) {
 	drop := func(field string, bad string) {
 		rep.Notes = append(rep.Notes, Note{Field: field, Text: fmt.Sprintf("omitted: %s is beyond the range of double-precision numbers for these values", bad)})
 	}
-	if p, bad := nonFinite(reflect.ValueOf(rep.Centre), "centre"); bad {
-		rep.Centre = nil
-		drop("centre", p)
+	// Each optional section is checked whole and removed whole.
+	sections := []struct {
+		name  string
+		v     any
+		clear func()
+	}{
+		{"centre", rep.Centre, func() { rep.Centre = nil }},
+		{"spread", rep.Spread, func() { rep.Spread = nil }},
+		{"quantiles", rep.Quantile, func() { rep.Quantile = nil }},
+		{"shape", rep.Shape, func() { rep.Shape = nil }},
+		{"suspects", rep.Suspects, func() { rep.Suspects = nil }},
+		{"target", rep.Target, func() { rep.Target = nil }},
+		{"charts", rep.Charts, func() { rep.Charts = nil }},
 	}
-	if p, bad := nonFinite(reflect.ValueOf(rep.Spread), "spread"); bad {
-		rep.Spread = nil
-		drop("spread", p)
-	}
-	if p, bad := nonFinite(reflect.ValueOf(rep.Quantile), "quantiles"); bad {
-		rep.Quantile = nil
-		drop("quantiles", p)
-	}
-	if p, bad := nonFinite(reflect.ValueOf(rep.Shape), "shape"); bad {
-		rep.Shape = nil
-		drop("shape", p)
-	}
-	if p, bad := nonFinite(reflect.ValueOf(rep.Suspects), "suspects"); bad {
-		rep.Suspects = nil
-		drop("suspects", p)
-	}
-	if p, bad := nonFinite(reflect.ValueOf(rep.Target), "target"); bad {
-		rep.Target = nil
-		drop("target", p)
-	}
-	if p, bad := nonFinite(reflect.ValueOf(rep.Charts), "charts"); bad {
-		rep.Charts = nil
-		drop("charts", p)
+	for _, sec := range sections {
+		if p, bad := nonFinite(reflect.ValueOf(sec.v), sec.name); bad {
+			sec.clear()
+			drop(sec.name, p)
+		}
 	}
 	if p, bad := nonFinite(reflect.ValueOf(&rep.Verdict), "verdict"); bad {
 		rep.Verdict.Reasons = []Reason{{Code: "out-of-range", Text: "The values are too large or too small for the verdict's figures; see the notes."}}

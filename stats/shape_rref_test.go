@@ -1,7 +1,6 @@
 package stats
 
 import (
-	"bufio"
 	"math"
 	"os"
 	"path/filepath"
@@ -17,28 +16,7 @@ import (
 
 func methodsRef(t *testing.T) map[string]map[string]float64 {
 	t.Helper()
-	f, err := os.Open(filepath.Join("..", "testdata", "rref", "methods.tsv"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	ref := map[string]map[string]float64{}
-	sc := bufio.NewScanner(f)
-	sc.Scan() // header
-	for sc.Scan() {
-		p := strings.Split(sc.Text(), "\t")
-		if len(p) != 3 {
-			t.Fatalf("bad line %q", sc.Text())
-		}
-		v, err := strconv.ParseFloat(p[2], 64)
-		if err != nil {
-			t.Fatalf("bad value in %q", sc.Text())
-		}
-		if ref[p[0]] == nil {
-			ref[p[0]] = map[string]float64{}
-		}
-		ref[p[0]][p[1]] = v
-	}
+	ref := readRefTSV(t, filepath.Join("..", "testdata", "rref", "methods.tsv"))
 	if len(ref) < 24 {
 		t.Fatalf("methods.tsv holds %d sets, want 24", len(ref))
 	}
