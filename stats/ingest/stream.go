@@ -646,13 +646,7 @@ func (s *Stream) flushEmpty() {
 	for _, r := range s.pend {
 		s.rows = append(s.rows, r)
 		for _, c := range s.cols {
-			c.Values = append(c.Values, math.NaN())
-			c.Dec = append(c.Dec, -1)
-			if c.lab != nil {
-				c.lab = append(c.lab, -1)
-			}
-			c.Missing++
-			c.Empty++
+			c.appendEmpty()
 		}
 		if len(s.cols) == 1 {
 			c := s.cols[0]
@@ -664,7 +658,8 @@ func (s *Stream) flushEmpty() {
 	s.pend = s.pend[:0]
 }
 
-func (s *Stream) absent(c *Column, row int) {
+// appendEmpty adds one empty (missing) cell to c.
+func (c *Column) appendEmpty() {
 	c.Values = append(c.Values, math.NaN())
 	c.Dec = append(c.Dec, -1)
 	if c.lab != nil {
@@ -672,6 +667,10 @@ func (s *Stream) absent(c *Column, row int) {
 	}
 	c.Missing++
 	c.Empty++
+}
+
+func (s *Stream) absent(c *Column, row int) {
+	c.appendEmpty()
 	s.problem(Problem{Row: row, Col: c.Position, Column: c.Name, Kind: KindMissing, Reason: "no cell: the row is shorter than the header", Action: "counted as missing"})
 }
 
