@@ -267,6 +267,7 @@
 
   function readSettings() {
     const o = { confidence: Number($("confidence").value), quantile: $("quantile").value };
+    if ($("decimal-mark").value) o.decimalMark = $("decimal-mark").value;
     const errs = [];
     for (const [id, key, label] of [["target", "target", "Target"], ["lsl", "lsl", "LSL"], ["usl", "usl", "USL"]]) {
       const v = parseNum($(id).value);
@@ -925,6 +926,7 @@
     for (const k of ["target", "lsl", "usl"]) $(k).value = o[k] !== undefined && o[k] !== null ? String(o[k]) : "";
     if (o.confidence) $("confidence").value = String(o.confidence);
     if (o.quantile) $("quantile").value = o.quantile;
+    $("decimal-mark").value = o.decimalMark || "";
     state.source = "text"; state.text = p.text; state.file = null;
     state.exclude = new Set(o.exclude || []);
     state.leaveOutRows = []; state.leaveOutText = ""; $("leave-out").value = "";
@@ -1012,7 +1014,7 @@
     clearTimeout(settingsTimer);
     settingsTimer = setTimeout(() => { if (state.source) analyseNow(); }, 400);
   });
-  for (const id of ["confidence", "quantile"]) $(id).addEventListener("change", () => { if (state.source) analyseNow(); });
+  for (const id of ["confidence", "quantile", "decimal-mark"]) $(id).addEventListener("change", () => { if (state.source) analyseNow(); });
   $("precision").addEventListener("change", (ev) => { state.full = ev.target.checked; if (state.report) render(); });
 
   $("copy").addEventListener("click", async () => {

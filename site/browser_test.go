@@ -642,3 +642,32 @@ func screens(t *testing.T, s *session) {
 		t.Fatal(err)
 	}
 }
+
+// TestDecimalMarkChoice: a column like "1,234" is read with the reader's
+// default until the user chooses the decimal mark; the choice re-runs the
+// analysis. Check values: the engine's own answers for each choice (run
+// natively here).
+func TestDecimalMarkChoice(t *testing.T) {
+	s := browser(t)
+	const text = "Torque (N m)\n1,234\n1,567\n1,890\n1,402\n"
+	s.open(t)
+	if err := chromedp.Run(s.ctx, paste(text), analysed(1)); err != nil {
+		t.Fatal(err)
+	}
+	s.state(t)
+	for i, mark := range []string{"point", "comma"} {
+		want, err := stats.Analyze(stats.Request{Text: text, Options: stats.Options{DecimalMark: mark}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		err = chromedp.Run(s.ctx,
+			chromedp.SetValue("#decimal-mark", mark, chromedp.ByID),
+			chromedp.Evaluate(`document.getElementById("decimal-mark").dispatchEvent(new Event("change", {bubbles: true})), true`, nil),
+			analysed(i+2))
+		if err != nil {
+			t.Fatal(err)
+		}
+		s.state(t)
+		checkShown(t, s.fields(t), "mean-all", want.Centre.Mean)
+	}
+}
