@@ -210,22 +210,37 @@ const standingCaution = "These figures describe the data as entered. Where a dec
 // AnalyzeJSON is Analyze on JSON bytes: the form the page and automation use.
 // It always returns a JSON object: the report, or {"error": "..."}.
 func AnalyzeJSON(in []byte) []byte {
+	req, err := ParseRequest(in)
+	if err != nil {
+		return ErrorJSON(err)
+	}
+	return ReportJSON(Analyze(req))
+}
+
+// ParseRequest decodes a request, with an error the user can act on.
+func ParseRequest(in []byte) (Request, error) {
 	var req Request
 	if err := json.Unmarshal(in, &req); err != nil {
-		return errorJSON(fmt.Errorf("the request is not valid JSON: %v", err))
+		return req, fmt.Errorf("the request is not valid JSON: %v", err)
 	}
-	rep, err := Analyze(req)
+	return req, nil
+}
+
+// ReportJSON encodes the result of Analyze or AnalyzeTable: the report, or
+// {"error": "..."} when err is set.
+func ReportJSON(rep *Report, err error) []byte {
 	if err != nil {
-		return errorJSON(err)
+		return ErrorJSON(err)
 	}
 	out, err := json.Marshal(rep)
 	if err != nil {
-		return errorJSON(fmt.Errorf("internal error encoding the report: %v", err))
+		return ErrorJSON(fmt.Errorf("internal error encoding the report: %v", err))
 	}
 	return out
 }
 
-func errorJSON(err error) []byte {
+// ErrorJSON is the error object every JSON entry point returns: {"error": "..."}.
+func ErrorJSON(err error) []byte {
 	b, _ := json.Marshal(map[string]string{"error": err.Error()})
 	return b
 }

@@ -238,22 +238,16 @@ func (c *canvas) marker(shape string, x, y, r float64, colour string, row int, t
 		b = append(b, 'L')
 		pt(x-r*1.3, y)
 		b = append(b, `Z" stroke="#000000" stroke-width="1" fill="`...)
-	case "open-circle":
+	default: // "circle" and "open-circle"
 		b = append(b, `<circle cx="`...)
 		b = appendF(b, x)
 		b = append(b, `" cy="`...)
 		b = appendF(b, y)
 		b = append(b, `" r="`...)
 		b = appendF(b, r)
-		b = append(b, `" fill="#ffffff" stroke-width="2" stroke="`...)
-	default:
-		b = append(b, `<circle cx="`...)
-		b = appendF(b, x)
-		b = append(b, `" cy="`...)
-		b = appendF(b, y)
-		b = append(b, `" r="`...)
-		b = appendF(b, r)
-		if colour != "" {
+		if shape == "open-circle" {
+			b = append(b, `" fill="#ffffff" stroke-width="2" stroke="`...)
+		} else if colour != "" {
 			b = append(b, `" fill-opacity="0.85" stroke="#000000" stroke-width="0.5" fill="`...)
 		}
 	}

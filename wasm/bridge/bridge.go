@@ -59,7 +59,7 @@ func (s *Session) Write(p []byte) (int64, error) {
 // {"name","bytes","fingerprint","columns","summary"} or {"error"}.
 func (s *Session) End() []byte {
 	if !s.active {
-		return errorJSON(errors.New("no file is being read"))
+		return stats.ErrorJSON(errors.New("no file is being read"))
 	}
 	tab, err := s.rd.Finish()
 	fp := hex.EncodeToString(s.h.Sum(nil))
@@ -67,7 +67,7 @@ func (s *Session) End() []byte {
 	s.active, s.rd, s.h = false, nil, nil
 	if err != nil {
 		s.tab, s.fp = nil, ""
-		return errorJSON(fmt.Errorf("%s: %w", name, err))
+		return stats.ErrorJSON(fmt.Errorf("%s: %w", name, err))
 	}
 	s.tab, s.fp = tab, fp
 	cols := make([]ingest.ColumnInfo, 0, len(tab.Columns))
@@ -95,39 +95,29 @@ func (s *Session) Forget() { s.tab, s.fp = nil, "" }
 // text keyed by chart name (nil on error). The charts travel beside the JSON
 // rather than inside it: JSON-escaping SVG costs time and size.
 func (s *Session) Analyze(reqJSON []byte, useTable bool) ([]byte, map[string]string) {
-	var req stats.Request
-	if err := json.Unmarshal(reqJSON, &req); err != nil {
-		return errorJSON(fmt.Errorf("the request is not valid JSON: %v", err)), nil
+	req, err := stats.ParseRequest(reqJSON)
+	if err != nil {
+		return stats.ErrorJSON(err), nil
 	}
 	var rep *stats.Report
-	var err error
 	if useTable {
 		if s.tab == nil {
-			return errorJSON(errors.New("no file is loaded: drop or pick the file again")), nil
+			return stats.ErrorJSON(errors.New("no file is loaded: drop or pick the file again")), nil
 		}
 		rep, err = stats.AnalyzeTable(s.tab, s.fp, req)
 	} else {
 		rep, err = stats.Analyze(req)
 	}
 	if err != nil {
-		return errorJSON(err), nil
+		return stats.ErrorJSON(err), nil
 	}
-	b, err := json.Marshal(rep)
-	if err != nil {
-		return errorJSON(fmt.Errorf("internal error encoding the report: %v", err)), nil
-	}
-	return b, chart.All(rep)
+	return stats.ReportJSON(rep, nil), chart.All(rep)
 }
 
 func mustJSON(v any) []byte {
 	b, err := json.Marshal(v)
 	if err != nil {
-		return errorJSON(fmt.Errorf("internal error encoding the result: %v", err))
+		return stats.ErrorJSON(fmt.Errorf("internal error encoding the result: %v", err))
 	}
-	return b
-}
-
-func errorJSON(err error) []byte {
-	b, _ := json.Marshal(map[string]string{"error": err.Error()})
 	return b
 }
