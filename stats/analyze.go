@@ -3,12 +3,15 @@
 package stats
 
 import (
+	"bytes"
 	"crypto/sha256"
 	"encoding/hex"
 	"encoding/json"
 	"errors"
 	"fmt"
+	"io"
 	"math"
+	"reflect"
 	"slices"
 	"strings"
 
@@ -18,18 +21,21 @@ import (
 // Analyze runs the whole analysis. An error means no report could be made;
 // its text says what was wrong and what to do.
 func Analyze(req Request) (*Report, error) {
-	if req.Schema != "" && req.Schema != RequestSchema {
-		return nil, fmt.Errorf("request schema %q is not supported: use %q", req.Schema, RequestSchema)
+	if err := checkSchema(req.Schema); err != nil {
+		return nil, err
+	}
+	if req.Text != "" && len(req.Cells) > 0 {
+		return nil, errorf(CodeBadRequest, "cells", "the request has both text and cells: give one of them")
 	}
 	if req.Text == "" && len(req.Cells) > 0 {
 		return analyzeCells(req)
 	}
 	if strings.TrimSpace(req.Text) == "" {
-		return nil, errors.New("no data: paste or drop a column of measurements")
+		return nil, errNoData
 	}
 	tab, err := ingest.Read(req.Text)
 	if err != nil {
-		return nil, err
+		return nil, readError(err)
 	}
 	return AnalyzeTable(tab, fingerprintOf(req.Text), req)
 }
@@ -53,11 +59,11 @@ func fingerprintOf(text string) string {
 // streaming path reads large files in chunks). fingerprint is the hex SHA-256
 // of the input bytes as read. Text and Cells in req are ignored.
 func AnalyzeTable(tab *ingest.Table, fingerprint string, req Request) (*Report, error) {
-	if req.Schema != "" && req.Schema != RequestSchema {
-		return nil, fmt.Errorf("request schema %q is not supported: use %q", req.Schema, RequestSchema)
+	if err := checkSchema(req.Schema); err != nil {
+		return nil, err
 	}
 	if tab == nil || len(tab.Columns) == 0 {
-		return nil, errors.New("no data: paste or drop a column of measurements")
+		return nil, errNoData
 	}
 	opts, err := checkOptions(req.Options)
 	if err != nil {
@@ -66,12 +72,13 @@ func AnalyzeTable(tab *ingest.Table, fingerprint string, req Request) (*Report, 
 	// The user's decision for columns like "1,234" (decimal comma or
 	// thousands separator): re-read from the cells as typed, not the file.
 	if err := tab.SetDecimalMark(req.Options.DecimalMark); err != nil {
-		return nil, err
+		return nil, errorf(CodeBadOption, "options.decimalMark", "%v", err)
 	}
-	col, err := pickColumn(tab, req.Value)
+	cols, err := pickColumns(tab, req)
 	if err != nil {
 		return nil, err
 	}
+	col := cols.value
 	cv := &colView{
 		name: col.Name, unit: col.Unit, rows: col.Rows, vals: col.Values, dec: col.Dec,
 		text: col.Text, decimalComma: col.DecimalComma,
@@ -87,7 +94,22 @@ func AnalyzeTable(tab *ingest.Table, fingerprint string, req Request) (*Report, 
 	// clipped: appending to the report's list must never write into the
 	// reader's array (the page analyses one table many times)
 	rep.Input.Problems = slices.Clip(tab.Problems)
+	if probs, counts := cols.incompleteRows(maxIncompleteListed); len(counts) > 0 {
+		rep.Input.Problems = append(rep.Input.Problems, probs...)
+		for _, key := range []string{"order", "subgroup", "group"} {
+			if k := counts[key]; k > maxIncompleteListed {
+				rep.Notes = append(rep.Notes, Note{Field: "input.problems", Text: fmt.Sprintf("%d rows have a value but no usable %s; the first %d are listed", k, key, maxIncompleteListed)})
+			}
+		}
+	}
+	cv.seq, cv.outOfOrder = cols.orderSequence()
+	if cols.order != nil {
+		rep.Input.Order = cols.order.Name
+	}
 	analyzeColumn(rep, cv, opts)
+	if cv.outOfOrder > 0 {
+		rep.Notes = append(rep.Notes, Note{Field: "charts.series", Text: fmt.Sprintf("%d rows are not in the order of column %q; the series over time follows that column, not the rows", cv.outOfOrder, cols.order.Name)})
+	}
 	return rep, nil
 }
 
@@ -102,26 +124,38 @@ type colView struct {
 	missing, bad   int
 	extraProblems  []ingest.Problem
 	excludedByUser map[int32]bool
+	// seq is the order of the cells for the series over time (indices
+	// into vals), from the request's order column; nil means row order.
+	seq        []int32
+	outOfOrder int // rows out of order in the file, by the order column
+}
+
+// maxIncompleteListed bounds the incomplete rows listed per optional column.
+const maxIncompleteListed = 200
+
+// errNoData is the error for input without any cell.
+var errNoData = errorf(CodeNoData, "text", "no data: paste or drop a column of measurements")
+
+func checkSchema(s string) error {
+	if s != "" && s != RequestSchema {
+		return errorf(CodeSchema, "schema", "request schema %q is not supported: use %q", s, RequestSchema)
+	}
+	return nil
+}
+
+// readError gives the reader's refusal its code.
+func readError(err error) error {
+	var e *Error
+	if errors.As(err, &e) {
+		return err
+	}
+	return &Error{Code: CodeRead, Field: "text", Msg: err.Error()}
 }
 
 // pickColumn returns the named column, or the first mostly-numeric one.
 func pickColumn(tab *ingest.Table, name string) (*ingest.Column, error) {
 	if name != "" {
-		for _, c := range tab.Columns {
-			if c.Name == name {
-				return c, nil
-			}
-		}
-		for _, c := range tab.Columns {
-			if strings.EqualFold(strings.TrimSpace(c.Name), strings.TrimSpace(name)) || (c.Header != "" && c.Header == name) {
-				return c, nil
-			}
-		}
-		names := make([]string, len(tab.Columns))
-		for i, c := range tab.Columns {
-			names[i] = fmt.Sprintf("%q", c.Name)
-		}
-		return nil, fmt.Errorf("no column named %q: the data have %s; choose one of those", name, strings.Join(names, ", "))
+		return findColumn(tab, name, "value")
 	}
 	for _, c := range tab.Columns {
 		if c.Role == "value" && c.Numbers > 0 {
@@ -138,7 +172,7 @@ func pickColumn(tab *ingest.Table, name string) (*ingest.Column, error) {
 			return c, nil
 		}
 	}
-	return nil, errors.New("no column holds numbers: paste or drop a column of measurements (one value a line, or a table with a header row)")
+	return nil, errorf(CodeNoData, "value", "no column holds numbers: paste or drop a column of measurements (one value a line, or a table with a header row)")
 }
 
 // checkOptions fills defaults and rejects impossible settings with a clear
@@ -149,30 +183,35 @@ func checkOptions(o Options) (Options, error) {
 	}
 	if math.IsNaN(o.Confidence) || o.Confidence <= 0 || o.Confidence >= 1 {
 		if o.Confidence > 1 && o.Confidence < 100 {
-			return o, fmt.Errorf("confidence %g is not between 0 and 1: for %g%% use %g", o.Confidence, o.Confidence, o.Confidence/100)
+			return o, errorf(CodeBadOption, "options.confidence", "confidence %g is not between 0 and 1: for %g%% use %g", o.Confidence, o.Confidence, o.Confidence/100)
 		}
-		return o, fmt.Errorf("confidence %g is not between 0 and 1: use e.g. 0.95 for 95%%", o.Confidence)
+		return o, errorf(CodeBadOption, "options.confidence", "confidence %g is not between 0 and 1: use e.g. 0.95 for 95%%", o.Confidence)
 	}
 	if o.Confidence < 0.5 {
-		return o, fmt.Errorf("confidence %g is below 0.5: use a level such as 0.90, 0.95 or 0.99", o.Confidence)
+		return o, errorf(CodeBadOption, "options.confidence", "confidence %g is below 0.5: use a level such as 0.90, 0.95 or 0.99", o.Confidence)
+	}
+	switch o.DecimalMark {
+	case "", "comma", "point":
+	default:
+		return o, errorf(CodeBadOption, "options.decimalMark", "decimal mark %q is not known: use \"comma\", \"point\" or leave it empty to decide from the data", o.DecimalMark)
 	}
 	if o.Quantile == "" {
 		o.Quantile = DefaultQuantile
 	}
 	o.Quantile = strings.ToLower(strings.TrimSpace(o.Quantile))
 	if hfType(o.Quantile) < 0 {
-		return o, fmt.Errorf("quantile definition %q is not known: use one of %s", o.Quantile, strings.Join(QuantileMethods, ", "))
+		return o, errorf(CodeBadOption, "options.quantile", "quantile definition %q is not known: use one of %s", o.Quantile, strings.Join(QuantileMethods, ", "))
 	}
 	for _, p := range []struct {
 		name string
 		v    *float64
 	}{{"target", o.Target}, {"lsl", o.LSL}, {"usl", o.USL}} {
 		if p.v != nil && (math.IsNaN(*p.v) || math.IsInf(*p.v, 0)) {
-			return o, fmt.Errorf("%s is not a finite number: give a value such as 12.5", p.name)
+			return o, errorf(CodeBadOption, "options."+p.name, "%s is not a finite number: give a value such as 12.5", p.name)
 		}
 	}
 	if o.LSL != nil && o.USL != nil && *o.LSL >= *o.USL {
-		return o, fmt.Errorf("the lower specification limit %g is not below the upper limit %g: swap them or correct one", *o.LSL, *o.USL)
+		return o, errorf(CodeBadOption, "options.lsl", "the lower specification limit %g is not below the upper limit %g: swap them or correct one", *o.LSL, *o.USL)
 	}
 	return o, nil
 }
@@ -217,13 +256,76 @@ func AnalyzeJSON(in []byte) []byte {
 	return ReportJSON(Analyze(req))
 }
 
-// ParseRequest decodes a request, with an error the user can act on.
+// ParseRequest decodes a request strictly: a key the schema does not have
+// (a misspelt option such as "lls") and a value of the wrong type are
+// refused with CodeBadRequest and the JSON path of the key, and an explicit
+// "confidence": 0 is refused (in Go, a zero Confidence means the default;
+// in JSON an explicit 0 is a mistake, not a request for the default).
 func ParseRequest(in []byte) (Request, error) {
 	var req Request
-	if err := json.Unmarshal(in, &req); err != nil {
-		return req, fmt.Errorf("the request is not valid JSON: %v", err)
+	dec := json.NewDecoder(bytes.NewReader(in))
+	dec.DisallowUnknownFields()
+	if err := dec.Decode(&req); err != nil {
+		return Request{}, requestError(err)
+	}
+	if dec.More() {
+		return Request{}, errorf(CodeBadRequest, "", "the request has more than one JSON value: send one object")
+	}
+	if req.Options.Confidence == 0 {
+		var raw struct {
+			Options map[string]json.RawMessage `json:"options"`
+		}
+		if json.Unmarshal(in, &raw) == nil {
+			if _, given := raw.Options["confidence"]; given {
+				return Request{}, errorf(CodeBadOption, "options.confidence", "confidence 0 is not a confidence level: use e.g. 0.95 for 95%%, or leave it out for the default 0.95")
+			}
+		}
 	}
 	return req, nil
+}
+
+// requestKeys and optionKeys are the keys a request may hold, for messages.
+var (
+	requestKeys = jsonKeys(reflect.TypeOf(Request{}))
+	optionKeys  = jsonKeys(reflect.TypeOf(Options{}))
+)
+
+func jsonKeys(t reflect.Type) string {
+	var ks []string
+	for i := 0; i < t.NumField(); i++ {
+		if name, _, _ := strings.Cut(t.Field(i).Tag.Get("json"), ","); name != "" && name != "-" {
+			ks = append(ks, name)
+		}
+	}
+	return strings.Join(ks, ", ")
+}
+
+// requestError turns a decoding error into a message naming the key.
+func requestError(err error) error {
+	var te *json.UnmarshalTypeError
+	var se *json.SyntaxError
+	msg := err.Error()
+	switch {
+	case errors.As(err, &te):
+		field := te.Field
+		want := map[string]string{"string": "text", "float64": "a number", "int": "a whole number", "bool": "true or false", "[]int": "a list of row numbers",
+			"[]stats.InCell": `a list of {"row": 2, "text": "5.12"}`, "stats.Options": "an object", "stats.Request": "an object"}[te.Type.String()]
+		if want == "" {
+			want = te.Type.String()
+		}
+		if field == "" {
+			return errorf(CodeBadRequest, "", "the request must be a JSON object, not %s", te.Value)
+		}
+		return errorf(CodeBadRequest, field, "%s must be %s, not %s", field, want, te.Value)
+	case errors.As(err, &se):
+		return errorf(CodeBadRequest, "", "the request is not valid JSON (at byte %d): %v", se.Offset, err)
+	case strings.HasPrefix(msg, "json: unknown field "):
+		key := strings.Trim(strings.TrimPrefix(msg, "json: unknown field "), `"`)
+		return errorf(CodeBadRequest, key, "unknown key %q in the request: a request has %s; its options are %s (check the spelling)", key, requestKeys, optionKeys)
+	case errors.Is(err, io.EOF):
+		return errorf(CodeBadRequest, "", "the request is empty: send a JSON object such as {\"text\": \"5.1\\n5.2\"}")
+	}
+	return errorf(CodeBadRequest, "", "the request is not valid JSON: %v", err)
 }
 
 // ReportJSON encodes the result of Analyze or AnalyzeTable: the report, or
@@ -234,13 +336,7 @@ func ReportJSON(rep *Report, err error) []byte {
 	}
 	out, err := json.Marshal(rep)
 	if err != nil {
-		return ErrorJSON(fmt.Errorf("internal error encoding the report: %v", err))
+		return ErrorJSON(errorf(CodeInternal, "", "internal error encoding the report: %v", err))
 	}
 	return out
-}
-
-// ErrorJSON is the error object every JSON entry point returns: {"error": "..."}.
-func ErrorJSON(err error) []byte {
-	b, _ := json.Marshal(map[string]string{"error": err.Error()})
-	return b
 }

@@ -1,6 +1,7 @@
 package stats
 
 import (
+	"iter"
 	"math"
 	"sort"
 )
@@ -122,16 +123,26 @@ func fenceCounts(sorted []float64, b Box) (inner, outer int) {
 // values it is thinned: the series is cut into maxChartPoints/2 consecutive
 // blocks and each block keeps its smallest and largest value in data order,
 // so extremes and shifts stay visible (the min-max decimation of plotting
-// practice).
+// practice). The series follows the request's order column when there is
+// one (cv.seq; readings without an order key are left out of it, and listed
+// by the reader's step), else the rows' order.
 func series(cv *colView, excl map[int32]bool, n int) ([]SeriesPt, bool) {
 	used := func(i int) bool {
 		x := cv.vals[i]
 		return x == x && !math.IsInf(x, 0) && !(excl != nil && excl[cv.rows[i]])
 	}
+	if cv.seq != nil {
+		n = 0
+		for _, i := range cv.seq {
+			if used(int(i)) {
+				n++
+			}
+		}
+	}
 	if n <= maxChartPoints {
 		out := make([]SeriesPt, 0, n)
 		k := 0
-		for i := range cv.vals {
+		for i := range cv.inOrder() {
 			if used(i) {
 				out = append(out, SeriesPt{I: k, Row: int(cv.rows[i]), Y: cv.vals[i]})
 				k++
@@ -156,7 +167,7 @@ func series(cv *colView, excl map[int32]bool, n int) ([]SeriesPt, bool) {
 			out = append(out, bmax, bmin)
 		}
 	}
-	for i := range cv.vals {
+	for i := range cv.inOrder() {
 		if !used(i) {
 			continue
 		}
@@ -178,4 +189,23 @@ func series(cv *colView, excl map[int32]bool, n int) ([]SeriesPt, bool) {
 	}
 	flush()
 	return out, true
+}
+
+// inOrder yields the cell indices in the order of the series over time.
+func (cv *colView) inOrder() iter.Seq[int] {
+	return func(yield func(int) bool) {
+		if cv.seq == nil {
+			for i := range cv.vals {
+				if !yield(i) {
+					return
+				}
+			}
+			return
+		}
+		for _, i := range cv.seq {
+			if !yield(int(i)) {
+				return
+			}
+		}
+	}
 }

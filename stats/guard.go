@@ -4,94 +4,148 @@ import (
 	"fmt"
 	"math"
 	"reflect"
+	"strconv"
+	"strings"
 )
 
 // guardFinite is the last line of defence for the promise that a successful
-// report holds no NaN or Inf: any section that still holds one is removed
-// and a Note says so. The computations avoid them; this catches what an
-// extreme input (values near 1e308) still pushes out of range.
+// report holds no NaN or Inf. It walks the whole report by reflection (a
+// new section or field is covered without being listed here) and removes
+// the smallest optional part that holds a bad value:
+//
+//   - an optional number (a *float64, or a float64 tagged omitempty) is
+//     left out;
+//   - otherwise the nearest enclosing pointer (an interval, a test, a
+//     section) is left out;
+//   - a bad value of a map (a reason's figures) drops that key;
+//   - with no optional part above it (the verdict), the verdict's reasons
+//     are replaced by one that points to the notes.
+//
+// Each removal adds a Note naming the JSON path of what was left out
+// ("centre.meanCI") and of the bad value ("centre.meanCI.hi"). The
+// computations avoid non-finite values; this catches what an extreme input
+// (values near 1e308) still pushes out of range.
 func guardFinite(rep *Report) {
-	drop := func(field string, bad string) {
-		rep.Notes = append(rep.Notes, Note{Field: field, Text: fmt.Sprintf("omitted: %s is beyond the range of double-precision numbers for these values", bad)})
-	}
-	// Each optional section is checked whole and removed whole.
-	sections := []struct {
-		name  string
-		v     any
-		clear func()
-	}{
-		{"centre", rep.Centre, func() { rep.Centre = nil }},
-		{"spread", rep.Spread, func() { rep.Spread = nil }},
-		{"quantiles", rep.Quantile, func() { rep.Quantile = nil }},
-		{"shape", rep.Shape, func() { rep.Shape = nil }},
-		{"suspects", rep.Suspects, func() { rep.Suspects = nil }},
-		{"target", rep.Target, func() { rep.Target = nil }},
-		{"charts", rep.Charts, func() { rep.Charts = nil }},
-	}
-	for _, sec := range sections {
-		if p, bad := nonFinite(reflect.ValueOf(sec.v), sec.name); bad {
-			sec.clear()
-			drop(sec.name, p)
+	g := &guard{rep: rep}
+	v := reflect.ValueOf(rep).Elem()
+	t := v.Type()
+	for i := 0; i < t.NumField(); i++ {
+		f := t.Field(i)
+		name, _, _ := jsonName(f)
+		if name == "notes" || !f.IsExported() {
+			continue
+		}
+		if bad, at := g.walk(v.Field(i), name); bad {
+			// a required part of the report itself: only the verdict and
+			// counts have non-optional numbers
+			g.dropTopLevel(name, at)
 		}
 	}
-	if p, bad := nonFinite(reflect.ValueOf(&rep.Verdict), "verdict"); bad {
-		rep.Verdict.Reasons = []Reason{{Code: "out-of-range", Text: "The values are too large or too small for the verdict's figures; see the notes."}}
-		rep.Verdict.Warnings = nil
-		drop("verdict", p)
-	}
-	if p, bad := nonFinite(reflect.ValueOf(&rep.Counts), "counts"); bad {
-		rep.Counts.Resolution, rep.Counts.Step = 0, 0
-		drop("counts", p)
-	}
+	rep.Notes = append(rep.Notes, g.notes...)
 }
 
-// nonFinite reports the path of the first NaN or Inf inside v, path being
-// v's own. The path is built only on the way back from a bad value: the
-// report holds thousands of chart points, and a string per point would be
-// a megabyte of garbage for every report.
-func nonFinite(v reflect.Value, path string) (string, bool) {
-	if sub, bad := nonFiniteBelow(v); bad {
-		return path + sub, true
-	}
-	return "", false
+type guard struct {
+	rep   *Report
+	notes []Note
 }
 
-// nonFiniteBelow reports the path below v (".Field", "[3]", ".key") of the
-// first NaN or Inf inside v.
-func nonFiniteBelow(v reflect.Value) (string, bool) {
+func (g *guard) note(dropped, at string) {
+	g.notes = append(g.notes, Note{Field: dropped, Text: fmt.Sprintf("omitted: %s is beyond the range of double-precision numbers for these values", at)})
+}
+
+// walk looks for NaN or Inf below v, whose JSON path is path. It removes
+// what it can; it returns true (with the bad value's path) when v itself
+// must be removed by its parent.
+func (g *guard) walk(v reflect.Value, path string) (bool, string) {
 	switch v.Kind() {
 	case reflect.Float32, reflect.Float64:
-		f := v.Float()
-		if math.IsNaN(f) || math.IsInf(f, 0) {
-			return "", true
+		if f := v.Float(); math.IsNaN(f) || math.IsInf(f, 0) {
+			return true, path
 		}
 	case reflect.Pointer, reflect.Interface:
-		if !v.IsNil() {
-			return nonFiniteBelow(v.Elem())
+		if v.IsNil() {
+			return false, ""
+		}
+		if bad, at := g.walk(v.Elem(), path); bad {
+			if !v.CanSet() {
+				return true, at
+			}
+			v.Set(reflect.Zero(v.Type()))
+			g.note(path, at)
 		}
 	case reflect.Struct:
 		t := v.Type()
-		for i := 0; i < v.NumField(); i++ {
-			if !t.Field(i).IsExported() {
+		for i := 0; i < t.NumField(); i++ {
+			f := t.Field(i)
+			if !f.IsExported() {
 				continue
 			}
-			if p, bad := nonFiniteBelow(v.Field(i)); bad {
-				return "." + t.Field(i).Name + p, true
+			name, omitempty, _ := jsonName(f)
+			p := path
+			if !f.Anonymous || f.Tag.Get("json") != "" {
+				p = path + "." + name
 			}
+			fv := v.Field(i)
+			bad, at := g.walk(fv, p)
+			if !bad {
+				continue
+			}
+			if omitempty && (fv.Kind() == reflect.Float64 || fv.Kind() == reflect.Float32) && fv.CanSet() {
+				fv.SetFloat(0) // an optional figure: left out of the JSON
+				g.note(p, at)
+				continue
+			}
+			return true, at
 		}
 	case reflect.Slice, reflect.Array:
 		for i := 0; i < v.Len(); i++ {
-			if p, bad := nonFiniteBelow(v.Index(i)); bad {
-				return fmt.Sprintf("[%d]", i) + p, true
+			if bad, at := g.walk(v.Index(i), path+"["+strconv.Itoa(i)+"]"); bad {
+				return true, at
 			}
 		}
 	case reflect.Map:
+		var drop []reflect.Value
 		it := v.MapRange()
 		for it.Next() {
-			if p, bad := nonFiniteBelow(it.Value()); bad {
-				return "." + fmt.Sprint(it.Key().Interface()) + p, true
+			// map values are not addressable: check a copy, drop the key if bad
+			p := path + "." + fmt.Sprint(it.Key().Interface())
+			if bad, at := g.walk(it.Value(), p); bad {
+				drop = append(drop, it.Key())
+				g.note(p, at)
 			}
 		}
+		for _, k := range drop {
+			v.SetMapIndex(k, reflect.Value{})
+		}
 	}
-	return "", false
+	return false, ""
+}
+
+// dropTopLevel handles a bad value in a part of the report that has no
+// optional parent.
+func (g *guard) dropTopLevel(name, at string) {
+	switch name {
+	case "verdict":
+		g.rep.Verdict.Reasons = []Reason{{Code: "out-of-range", Text: "The values are too large or too small for the verdict's figures; see the notes."}}
+		g.rep.Verdict.Warnings = nil
+		g.rep.Verdict.Quote = ""
+	case "counts":
+		g.rep.Counts.Resolution, g.rep.Counts.Step = 0, 0
+	default:
+		// input and settings hold the user's own values, checked on the
+		// way in: nothing to remove; the note names the fault and
+		// ReportJSON refuses to encode the report (CodeInternal)
+	}
+	g.note(name, at)
+}
+
+// jsonName returns the JSON key of a struct field and whether it is
+// omitempty.
+func jsonName(f reflect.StructField) (name string, omitempty, tagged bool) {
+	tag, ok := f.Tag.Lookup("json")
+	name, opts, _ := strings.Cut(tag, ",")
+	if name == "" {
+		name = f.Name
+	}
+	return name, strings.Contains(","+opts+",", ",omitempty,"), ok
 }

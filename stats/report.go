@@ -89,7 +89,10 @@ type Input struct {
 	// Fingerprint is the SHA-256 (hex) of the input text as read.
 	Fingerprint string `json:"fingerprint"`
 	Column      string `json:"column"`
-	Unit        string `json:"unit,omitempty"`
+	// Order is the order (or time) column the series over time follows;
+	// empty when the rows' own order is used.
+	Order string `json:"order,omitempty"`
+	Unit  string `json:"unit,omitempty"`
 	// Columns are all columns the reader found, for the page's pickers.
 	Columns []ingest.ColumnInfo `json:"columns,omitempty"`
 	// Summary is one line, e.g. "498 values read; 2 cells not numbers (rows 17, 203); 1 empty".

@@ -1,0 +1,183 @@
+package stats
+
+import (
+	"fmt"
+	"math"
+	"slices"
+	"strings"
+
+	"lotlens/stats/ingest"
+)
+
+// A request names up to four columns: the value column and, optionally, an
+// order (or time) column, a subgroup column and a group column. All columns
+// of one table share their rows, so cell i of each column is the same
+// spreadsheet row: the columns travel through the engine together, aligned
+// by index.
+//
+// Each optional column is read by the report sections listed in
+// columnReaders. A column the request names but no section of this version
+// reads is refused with CodeUnused, never ignored. Adding a section that
+// reads a column: add its name here.
+var columnReaders = map[string][]string{
+	"order":    {"over time (run chart)"},
+	"subgroup": nil,
+	"group":    nil,
+}
+
+// KindIncomplete is the Problem kind of a row whose value is used but whose
+// order, subgroup or group cell is missing or unusable.
+const KindIncomplete = "incomplete-row"
+
+// columnSet is the request's columns, aligned by cell index.
+type columnSet struct {
+	value                  *ingest.Column
+	order, subgroup, group *ingest.Column
+}
+
+// pickColumns finds every column the request names and checks that each
+// optional one is read by some section, is not the value column and has a
+// kind that suits its role.
+func pickColumns(tab *ingest.Table, req Request) (*columnSet, error) {
+	val, err := pickColumn(tab, req.Value)
+	if err != nil {
+		return nil, err
+	}
+	cs := &columnSet{value: val}
+	for _, r := range []struct {
+		key, name string
+		dst       **ingest.Column
+	}{{"order", req.Order, &cs.order}, {"subgroup", req.Subgroup, &cs.subgroup}, {"group", req.Group, &cs.group}} {
+		if strings.TrimSpace(r.name) == "" {
+			continue
+		}
+		c, err := findColumn(tab, r.name, r.key)
+		if err != nil {
+			return nil, err
+		}
+		if c == val {
+			return nil, errorf(CodeColumn, r.key, "the %s column %q is also the value column: choose another column for %s, or none", r.key, c.Name, r.key)
+		}
+		if len(columnReaders[r.key]) == 0 {
+			return nil, errorf(CodeUnused, r.key, "no section of this version reads a %s column, so %q would be ignored: leave the %s choice empty (comparing %s is planned)",
+				r.key, c.Name, r.key, map[string]string{"subgroup": "subgroups", "group": "groups"}[r.key])
+		}
+		if r.key == "order" && c.Kind != "number" && c.Kind != "time" {
+			return nil, errorf(CodeColumn, r.key, "the order column %q holds %s, not numbers or times: choose a column of sequence numbers, dates or times", c.Name, kindWords(c.Kind))
+		}
+		*r.dst = c
+	}
+	for _, pair := range [][2]*ingest.Column{{cs.order, cs.subgroup}, {cs.order, cs.group}, {cs.subgroup, cs.group}} {
+		if pair[0] != nil && pair[0] == pair[1] {
+			return nil, errorf(CodeColumn, "", "column %q is chosen for two roles: give each role its own column", pair[0].Name)
+		}
+	}
+	return cs, nil
+}
+
+func kindWords(kind string) string {
+	switch kind {
+	case "text":
+		return "labels"
+	case "empty":
+		return "no values"
+	}
+	return kind
+}
+
+// findColumn returns the column called name (exactly, then ignoring case
+// and surrounding spaces, then by its header as typed).
+func findColumn(tab *ingest.Table, name, role string) (*ingest.Column, error) {
+	for _, c := range tab.Columns {
+		if c.Name == name {
+			return c, nil
+		}
+	}
+	for _, c := range tab.Columns {
+		if strings.EqualFold(strings.TrimSpace(c.Name), strings.TrimSpace(name)) || (c.Header != "" && c.Header == name) {
+			return c, nil
+		}
+	}
+	names := make([]string, len(tab.Columns))
+	for i, c := range tab.Columns {
+		names[i] = fmt.Sprintf("%q", c.Name)
+	}
+	return nil, errorf(CodeColumn, role, "no column named %q for %s: the data have %s; choose one of those", name, role, strings.Join(names, ", "))
+}
+
+// partnerMissing reports whether cell i of an optional column c holds
+// nothing usable for its role.
+func partnerMissing(c *ingest.Column, i int) bool {
+	if c.Kind == "text" {
+		return c.Label(i) < 0
+	}
+	v := c.Values[i]
+	return v != v || math.IsInf(v, 0)
+}
+
+// incompleteRows lists, for each optional column, the rows whose value is a
+// number but whose cell in that column is missing or unusable: those
+// readings stay in the whole-column figures and are left out of the
+// sections that read the column. At most limit problems are listed per
+// column; the count is returned whole.
+func (cs *columnSet) incompleteRows(limit int) (probs []ingest.Problem, counts map[string]int) {
+	counts = map[string]int{}
+	v := cs.value
+	for _, r := range []struct {
+		key string
+		c   *ingest.Column
+	}{{"order", cs.order}, {"subgroup", cs.subgroup}, {"group", cs.group}} {
+		if r.c == nil {
+			continue
+		}
+		for i, x := range v.Values {
+			if x != x || !partnerMissing(r.c, i) {
+				continue
+			}
+			counts[r.key]++
+			if counts[r.key] <= limit {
+				probs = append(probs, ingest.Problem{
+					Row: int(v.Rows[i]), Col: r.c.Position, Column: r.c.Name, Text: r.c.Text(i), Kind: KindIncomplete,
+					Reason: fmt.Sprintf("the value %s is used, but this row has no usable %s", v.Text(i), r.key),
+					Action: "left out of " + strings.Join(columnReaders[r.key], " and "),
+				})
+			}
+		}
+	}
+	return probs, counts
+}
+
+// orderSequence returns the cell indices of the value column in the order
+// of the order column (stable: equal keys keep row order), and how many
+// rows are out of order in the file. Cells without a usable order key are
+// left out. nil when the request names no order column.
+func (cs *columnSet) orderSequence() (seq []int32, outOfOrder int) {
+	if cs.order == nil {
+		return nil, 0
+	}
+	key := cs.order.Values
+	seq = make([]int32, 0, len(key))
+	prev := math.Inf(-1)
+	for i := range key {
+		if partnerMissing(cs.order, i) {
+			continue
+		}
+		if key[i] < prev {
+			outOfOrder++
+		}
+		prev = max(prev, key[i])
+		seq = append(seq, int32(i))
+	}
+	if outOfOrder > 0 {
+		slices.SortStableFunc(seq, func(a, b int32) int {
+			switch ka, kb := key[a], key[b]; {
+			case ka < kb:
+				return -1
+			case ka > kb:
+				return 1
+			}
+			return 0
+		})
+	}
+	return seq, outOfOrder
+}

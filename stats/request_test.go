@@ -1,0 +1,130 @@
+package stats
+
+import (
+	"encoding/json"
+	"strings"
+	"testing"
+)
+
+// TestParseRequestStrict: the scripting entry point refuses what it cannot
+// honour, with a code and the JSON path of the key (the automation help
+// page promises this).
+func TestParseRequestStrict(t *testing.T) {
+	cases := []struct {
+		in, code, field, says string
+	}{
+		{`{"text":"1\n2","options":{"foo":1}}`, CodeBadRequest, "foo", "unknown key"},
+		{`{"text":"1\n2","options":{"lls":4.9}}`, CodeBadRequest, "lls", "check the spelling"},
+		{`{"text":"1\n2","colour":"red"}`, CodeBadRequest, "colour", "unknown key"},
+		{`{"text":"1\n2","options":{"confidence":0}}`, CodeBadOption, "options.confidence", "confidence 0"},
+		{`{"text":"1\n2","options":{"confidence":"95%"}}`, CodeBadRequest, "options.confidence", "must be a number"},
+		{`{"text":"1\n2","options":{"exclude":3}}`, CodeBadRequest, "options.exclude", "list of row numbers"},
+		{`{"text":"1\n2","options":{"target":"12 Nm"}}`, CodeBadRequest, "options.target", "must be a number"},
+		{`null`, CodeNoData, "text", "no data"},
+		{`[1,2]`, CodeBadRequest, "", "JSON object"},
+		{`{"text":"1"} {"text":"2"}`, CodeBadRequest, "", "more than one"},
+		{`{"text":`, CodeBadRequest, "", "not valid JSON"},
+		{``, CodeBadRequest, "", "empty"},
+		{`{"schema":"lotlens.request/9","text":"1\n2"}`, CodeSchema, "schema", "not supported"},
+		{`{"text":"1\n2","cells":[{"row":1,"text":"3"}]}`, CodeBadRequest, "cells", "both text and cells"},
+		{`{"text":"1\n2","options":{"decimalMark":"dot"}}`, CodeBadOption, "options.decimalMark", "not known"},
+		{`{"text":"1\n2","options":{"confidence":1.5}}`, CodeBadOption, "options.confidence", "between 0 and 1"},
+	}
+	for _, c := range cases {
+		var e struct{ Error, Code, Field string }
+		if err := json.Unmarshal(AnalyzeJSON([]byte(c.in)), &e); err != nil {
+			t.Fatal(err)
+		}
+		if e.Code != c.code || e.Field != c.field || !strings.Contains(e.Error, c.says) {
+			t.Errorf("%s:\n got code %q field %q %q\nwant code %q field %q, saying %q", c.in, e.Code, e.Field, e.Error, c.code, c.field, c.says)
+		}
+	}
+	// the default still applies when the key is absent, and a Go caller's zero means the default
+	rep, err := Analyze(Request{Text: "1\n2\n3"})
+	if err != nil || rep.Settings.Confidence != 0.95 {
+		t.Errorf("default confidence: %v %v", rep.Settings.Confidence, err)
+	}
+	if _, err := ParseRequest([]byte(`{"text":"1\n2","options":{"LSL":1}}`)); err != nil {
+		t.Errorf("keys match without regard to case (encoding/json): %v", err)
+	}
+}
+
+// TestErrorJSONInternal: an error that is not the engine's own is reported
+// as internal, with its message.
+func TestErrorJSONInternal(t *testing.T) {
+	var e struct{ Error, Code string }
+	json.Unmarshal(ErrorJSON(errString("boom")), &e)
+	if e.Code != CodeInternal || e.Error != "boom" {
+		t.Errorf("got %+v", e)
+	}
+}
+
+type errString string
+
+func (e errString) Error() string { return string(e) }
+
+// TestColumnsAligned: order, subgroup and group columns are read with the
+// value column, rows aligned; a row missing its partner cell is listed; a
+// column no section reads is refused, never ignored.
+func TestColumnsAligned(t *testing.T) {
+	text := "Seq\tShift\tWeight (g)\tLot\n3\tA\t5.12\tL1\n1\tA\t5.08\tL1\n2\tB\t5.10\tL2\n\tB\t5.11\tL2\n5\tA\t5.09\t\n4\tB\t5.13\tL3\n"
+	rep, err := Analyze(Request{Text: text, Value: "Weight", Order: "Seq"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if rep.Input.Order != "Seq" || rep.Counts.Used != 6 {
+		t.Fatalf("order %q used %d", rep.Input.Order, rep.Counts.Used)
+	}
+	// the series follows Seq: rows 3 (1), 4 (2), 2 (3), 7 (4), 6 (5); row 5 has no Seq
+	var rows []int
+	for _, p := range rep.Charts.Series {
+		rows = append(rows, p.Row)
+	}
+	if want := []int{3, 4, 2, 7, 6}; !equalInts(rows, want) {
+		t.Errorf("series rows %v, want %v (the order column's order)", rows, want)
+	}
+	found := false
+	for _, p := range rep.Input.Problems {
+		if p.Kind == KindIncomplete && p.Row == 5 && p.Column == "Seq" {
+			found = true
+		}
+	}
+	if !found {
+		t.Errorf("row 5 (no Seq) not listed: %+v", rep.Input.Problems)
+	}
+	noted := false
+	for _, n := range rep.Notes {
+		noted = noted || strings.Contains(n.Text, "not in the order of column \"Seq\"")
+	}
+	if !noted {
+		t.Errorf("out-of-order rows not noted: %+v", rep.Notes)
+	}
+	for _, c := range []struct {
+		req  Request
+		code string
+	}{
+		{Request{Text: text, Value: "Weight", Group: "Shift"}, CodeUnused},
+		{Request{Text: text, Value: "Weight", Subgroup: "Lot"}, CodeUnused},
+		{Request{Text: text, Value: "Weight", Order: "Weight"}, CodeColumn},
+		{Request{Text: text, Value: "Weight", Order: "Shift"}, CodeColumn},
+		{Request{Text: text, Value: "Weight", Order: "Nope"}, CodeColumn},
+		{Request{Text: text, Value: "Nope"}, CodeColumn},
+	} {
+		_, err := Analyze(c.req)
+		if CodeOf(err) != c.code {
+			t.Errorf("%+v: got %v (%s), want code %s", c.req, err, CodeOf(err), c.code)
+		}
+	}
+}
+
+func equalInts(a, b []int) bool {
+	if len(a) != len(b) {
+		return false
+	}
+	for i := range a {
+		if a[i] != b[i] {
+			return false
+		}
+	}
+	return true
+}
