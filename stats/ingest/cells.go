@@ -57,6 +57,9 @@ func ReadCells(name string, cells []Cell, opt ReadOptions) (*Table, error) {
 			return nil, fmt.Errorf("cell %d has row %d, beyond the largest row number supported (%d)", i+1, c.Row, math.MaxInt32)
 		}
 		last = max(last, row)
+		if i < HeadRows {
+			s.tab.Head = append(s.tab.Head, HeadRow{Row: row, Cells: []string{trimCell(c.Text)}})
+		}
 		s.total += int64(len(c.Text)) + 1
 		s.rows = append(s.rows, int32(row))
 		// the reader never writes to its input and clones what it keeps

@@ -67,3 +67,60 @@ func TestReadCellsLikeText(t *testing.T) {
 		t.Error("a row beyond int32 must be an error")
 	}
 }
+
+// TestDecodedTextAndHead: a UTF-16 file and a Windows-1252 file with a
+// non-ASCII header and unit give back their text as UTF-8 (read again, the
+// same table), and their first records split as the reader split them.
+// Check values from memory: "Dicke (µm)" is the header, µm the unit.
+func TestDecodedTextAndHead(t *testing.T) {
+	plain := "Charge;Dicke (µm)\r\nA;12,5\r\nA;12,7\r\nB;13,1\r\n"
+	u16 := []byte{0xFF, 0xFE}
+	for _, r := range plain {
+		u16 = append(u16, byte(r), byte(r>>8))
+	}
+	latin := []byte(strings.ReplaceAll(plain, "µ", "\xb5"))
+	for _, in := range []struct {
+		name string
+		b    []byte
+	}{{"utf-16le", u16}, {"windows-1252", latin}} {
+		s := NewStream(ReadOptions{KeepText: 1 << 20})
+		for i := 0; i < len(in.b); i += 7 { // chunks cut anywhere
+			if _, err := s.Write(in.b[i:min(i+7, len(in.b))]); err != nil {
+				t.Fatal(err)
+			}
+		}
+		tab, err := s.Finish()
+		if err != nil {
+			t.Fatalf("%s: %v", in.name, err)
+		}
+		if tab.Format.Encoding != in.name {
+			t.Errorf("encoding %q, want %q", tab.Format.Encoding, in.name)
+		}
+		text, ok := tab.DecodedText()
+		if !ok || text != plain {
+			t.Errorf("%s: decoded text %q (kept %v), want %q", in.name, text, ok, plain)
+		}
+		again, err := Read(text)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if c := again.Columns[1]; c.Name != "Dicke" || c.Unit != "µm" || c.Values[2] != 13.1 {
+			t.Errorf("%s: read again: %+v", in.name, c.ColumnInfo)
+		}
+		if len(tab.Head) != 4 || tab.Head[0].Row != 1 || !reflect.DeepEqual(tab.Head[0].Cells, []string{"Charge", "Dicke (µm)"}) || !reflect.DeepEqual(tab.Head[3].Cells, []string{"B", "13,1"}) {
+			t.Errorf("%s: head %+v", in.name, tab.Head)
+		}
+	}
+	// over the limit: nothing kept
+	tab, err := ReadBytes([]byte(plain), ReadOptions{KeepText: 10})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if text, ok := tab.DecodedText(); ok || text != "" {
+		t.Errorf("text over KeepText kept: %q", text)
+	}
+	// not asked for: nothing kept
+	if _, ok := tab.DecodedText(); ok {
+		t.Error("text kept without KeepText")
+	}
+}
