@@ -740,7 +740,14 @@ func TestEncodedFileShared(t *testing.T) {
 			err = chromedp.Run(s.ctx,
 				chromedp.Click("#share", chromedp.ByID),
 				chromedp.Poll(`document.getElementById("share-url").value.includes("#d=")`, nil, chromedp.WithPollingTimeout(10*time.Second)),
-				chromedp.Value("#share-url", &link, chromedp.ByID),
+				chromedp.Value("#share-url", &link, chromedp.ByID))
+			if err != nil {
+				t.Fatal(err)
+			}
+			if !strings.HasPrefix(link, s.base+"/#d=") {
+				t.Fatalf("share link %q", link)
+			}
+			err = chromedp.Run(s.ctx,
 				chromedp.Navigate("about:blank"),
 				chromedp.Navigate(link),
 				chromedp.WaitVisible(`body[data-ready="1"]`, chromedp.ByQuery),

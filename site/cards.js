@@ -94,7 +94,7 @@ export function renderPreview() {
   const tb = el("tbody");
   for (const r of head) {
     const p = problems.get(r.row);
-    const tr = el("tr", { class: p ? "problem" : r.row === rd.headerRow ? "header-row" : null, "data-row": String(r.row) });
+    const tr = el("tr", { class: [p ? "problem" : "", r.row === rd.headerRow ? "header-row" : ""].join(" ").trim(), "data-row": String(r.row) });
     tr.append(el("th", { scope: "row", text: String(r.row) }));
     for (const c of r.cells) tr.append(el("td", { text: c }));
     if (p) tr.append(el("td", { class: "why-cell", text: "\u26a0 " + (p.column ? p.column + ": " : "") + p.reason + " (" + p.action + ")" }));
