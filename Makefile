@@ -9,6 +9,8 @@ GOROOT := $(shell $(GO) env GOROOT)
 WASMPATH := $(PATH):$(GOROOT)/lib/wasm
 CHROMIUM ?= /usr/bin/chromium
 export CHROMIUM
+# Node tools (wrangler) live in build/node: package.json, its lock file, node_modules.
+WRANGLER := build/node/node_modules/.bin/wrangler
 
 .PHONY: run dist test test-go test-wasm test-browser test-worker test-worker-assets vet deps-browser deps-node bench bench-page fuzz deploy clean
 
@@ -22,7 +24,7 @@ test: vet test-go test-wasm test-browser test-worker ## everything CI runs
 	@echo "make test: all passed"
 
 vet:
-	@unformatted=$$(gofmt -l build site stats wasm); \
+	@unformatted=$$(gofmt -l $$(find build site stats wasm -name '*.go' -not -path 'build/node/*')); \
 	  if [ -n "$$unformatted" ]; then echo "gofmt needed: $$unformatted"; exit 1; fi
 	$(GO) vet ./...
 	GOOS=js GOARCH=wasm $(GO) vet ./wasm ./stats/...
@@ -54,7 +56,7 @@ test-worker-assets: deps-node dist ## the alternative worker (site in the static
 	$(GO) run ./build worker -dir dist -assets
 	LOTLENS_WORKER_TEST=1 LOTLENS_WORKER_CONFIG=build/worker/wrangler.assets.jsonc $(GO) test -count=1 ./build/workertest/
 
-deps-node: ## Node.js (Debian's packages, as root) and wrangler (pinned by package-lock.json, installed locally by npm ci)
+deps-node: ## Node.js (Debian's packages, as root) and wrangler (pinned by build/node/package-lock.json, installed into build/node/node_modules by npm ci)
 	@if ! command -v node >/dev/null || ! command -v npm >/dev/null; then \
 	  if [ "$$(id -u)" = 0 ] && command -v apt-get >/dev/null; then \
 	    echo "installing Node.js and npm from Debian's packages"; \
@@ -65,12 +67,12 @@ deps-node: ## Node.js (Debian's packages, as root) and wrangler (pinned by packa
 	fi
 	@major=$$(node -p 'process.versions.node.split(".")[0]'); if [ "$$major" -lt 20 ]; then \
 	  echo "wrangler 4.86.0 needs Node.js 20 or later; this machine has $$(node --version). Install Node.js 20 (e.g. from NodeSource) and rerun."; exit 1; fi
-	@if ! [ -x node_modules/.bin/wrangler ] || [ package-lock.json -nt node_modules/.package-lock.json ]; then \
-	  npm ci --no-audit --no-fund; fi
+	@if ! [ -x $(WRANGLER) ] || [ build/node/package-lock.json -nt build/node/node_modules/.package-lock.json ]; then \
+	  npm ci --prefix build/node --no-audit --no-fund; fi
 
 deploy: deps-node dist ## deploy the edge worker to your own Cloudflare account (README: Deployment)
 	$(GO) run ./build worker -dir dist
-	node_modules/.bin/wrangler deploy --config build/worker/wrangler.jsonc
+	$(WRANGLER) deploy --config build/worker/wrangler.jsonc
 
 bench: ## engine and reader benchmarks
 	$(GO) test -run '^$$' -bench . -benchmem ./stats/...

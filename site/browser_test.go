@@ -1,7 +1,8 @@
 package site
 
-// Browser tests: the built site (dist/, made by `make dist`) served with the
-// edge worker's headers, driven in headless Chromium through chromedp.
+// Browser tests: the built site (dist/, made by `make dist`; built by
+// TestMain into a temporary directory when missing) served with the edge
+// worker's headers, driven in headless Chromium through chromedp.
 // `make test` runs them; `go test -short` skips them. Screenshots of the main
 // states go to testdata/artefacts/ (gitignored).
 
@@ -18,7 +19,6 @@ import (
 	"net/http/httputil"
 	"net/url"
 	"os"
-	"os/exec"
 	"path/filepath"
 	"strconv"
 	"strings"
@@ -62,15 +62,9 @@ func browser(t testing.TB, extra ...chromedp.ExecAllocatorOption) *session {
 	if testing.Short() {
 		t.Skip("browser tests skipped with -short")
 	}
-	if _, err := os.Stat(distDir + "/index.html"); err != nil {
-		t.Fatalf("dist/ is not built: run `make dist` first (%v)", err)
-	}
-	exe := os.Getenv("CHROMIUM")
+	exe := os.Getenv("CHROMIUM") // TestMain checked it and dist/
 	if exe == "" {
 		exe = "/usr/bin/chromium"
-	}
-	if _, err := exec.LookPath(exe); err != nil {
-		t.Fatalf("Chromium not found at %s: install it (Debian: apt-get install chromium) or set CHROMIUM", exe)
 	}
 	srv := httptest.NewServer(dist.Handler(distDir))
 	t.Cleanup(srv.Close)
@@ -669,5 +663,100 @@ func TestDecimalMarkChoice(t *testing.T) {
 		}
 		s.state(t)
 		checkShown(t, s.fields(t), "mean-all", want.Centre.Mean)
+	}
+}
+
+// TestEncodedFileShared drops a UTF-16 file and a Windows-1252 (Latin-1)
+// file whose header has non-ASCII characters and a unit, then shares it: the
+// preview shows the header as the engine's reader decoded it, and the link
+// (which carries the engine's decoded text) reopens with the same header,
+// unit and figures. Expected figures: stats.Analyze run natively on the same
+// text as UTF-8 (invented values).
+func TestEncodedFileShared(t *testing.T) {
+	text := "Épaisseur (µm)\r\n12,5\r\n12,7\r\n12,4\r\n12,9\r\n12,6\r\n13,0\r\n12,5\r\n12,8\r\n"
+	want, err := stats.Analyze(stats.Request{Text: text})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if want.Input.Column != "Épaisseur" || want.Input.Unit != "µm" {
+		t.Fatalf("the engine reads column %q unit %q", want.Input.Column, want.Input.Unit)
+	}
+	u16 := []byte{0xFF, 0xFE}
+	for _, r := range text { // every rune here is in the Basic Multilingual Plane
+		u16 = append(u16, byte(r), byte(r>>8))
+	}
+	var latin []byte
+	for _, r := range text { // every rune here is below U+0100
+		latin = append(latin, byte(r))
+	}
+	s := browser(t)
+	for _, f := range []struct {
+		name, encoding string
+		b              []byte
+	}{{"thickness-utf16.txt", "utf-16le", u16}, {"thickness-latin1.csv", "windows-1252", latin}} {
+		t.Run(f.encoding, func(t *testing.T) {
+			s.open(t)
+			b64, _ := json.Marshal(f.b) // []byte marshals as base64
+			err := chromedp.Run(s.ctx,
+				chromedp.Evaluate(`(() => { const bin = atob(`+string(b64)+`); const u = new Uint8Array(bin.length);
+					for (let i = 0; i < bin.length; i++) u[i] = bin.charCodeAt(i);
+					const dt = new DataTransfer();
+					dt.items.add(new File([u], "`+f.name+`"));
+					const t = document.getElementById("input");
+					t.dispatchEvent(new DragEvent("drop", {bubbles: true, cancelable: true, dataTransfer: dt}));
+					return true })()`, nil),
+				analysed(1))
+			if err != nil {
+				t.Fatal(err)
+			}
+			s.state(t)
+			check := func(when string) {
+				t.Helper()
+				var col, quote, head string
+				if err := chromedp.Run(s.ctx,
+					chromedp.Text(".colname", &col, chromedp.ByQuery),
+					chromedp.Evaluate(`document.querySelector("#card-data .quote").textContent`, &quote),
+					chromedp.Evaluate(`(document.querySelector("#preview tr.header-row td") || {}).textContent || ""`, &head),
+				); err != nil {
+					t.Fatal(err)
+				}
+				if col != "Épaisseur" || !strings.Contains(quote, "(µm)") || head != "Épaisseur (µm)" {
+					t.Errorf("%s: column %q, data card %q, preview header %q; want Épaisseur, (µm), Épaisseur (µm)", when, col, quote, head)
+				}
+				got := s.fields(t)
+				checkShown(t, got, "used", float64(want.Counts.Used))
+				checkShown(t, got, "mean-all", want.Centre.Mean)
+				checkShown(t, got, "sd-all", want.Spread.SD)
+			}
+			check("dropped")
+			var note string
+			if err := chromedp.Run(s.ctx, chromedp.Text("#preview-note", &note, chromedp.ByID)); err != nil {
+				t.Fatal(err)
+			}
+			if !strings.Contains(note, f.encoding) {
+				t.Errorf("preview note %q does not say the encoding %s", note, f.encoding)
+			}
+			var link string
+			err = chromedp.Run(s.ctx,
+				chromedp.Click("#share", chromedp.ByID),
+				chromedp.Poll(`document.getElementById("share-url").value.includes("#d=")`, nil, chromedp.WithPollingTimeout(10*time.Second)),
+				chromedp.Value("#share-url", &link, chromedp.ByID))
+			if err != nil {
+				t.Fatal(err)
+			}
+			if !strings.HasPrefix(link, s.base+"/#d=") {
+				t.Fatalf("share link %q", link)
+			}
+			err = chromedp.Run(s.ctx,
+				chromedp.Navigate("about:blank"),
+				chromedp.Navigate(link),
+				chromedp.WaitVisible(`body[data-ready="1"]`, chromedp.ByQuery),
+				analysed(1))
+			if err != nil {
+				t.Fatal(err)
+			}
+			s.state(t)
+			check("opened from the link")
+		})
 	}
 }

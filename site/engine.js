@@ -3,9 +3,13 @@
 //   {type:"run", id, request, useTable}  analyse; reply {type:"result", id, json, svg, ms}
 //   {type:"analyse", id, request}        automation; reply {type:"report", id, json}
 //   {type:"file", id, file}              read a File in chunks; replies
-//        {type:"progress", id, read, total} and then {type:"file-read", id, json, preview}
-//   {type:"cancel"}                      stop reading; reply {type:"cancelled", id}
+//        {type:"progress", id, read, total} and then {type:"file-read", id, json}
+//   {type:"cancel"}                      stop reading; the file call answers
+//                                        {type:"file-read", id, json} with code "cancelled"
 //   {type:"forget"}                      drop the kept file table
+//   {type:"text", id}                    the kept file's text as the engine decoded it
+//                                        (for the share link); reply {type:"text", id, text} or {.., json}
+// Every json is a report or the engine's error object {error, code}.
 // Out, once: {type:"ready"} (posted by the Go side) or {type:"error", error}.
 "use strict";
 importScripts("wasm_exec.js");
@@ -42,23 +46,19 @@ async function readFile(id, file) {
   self.lotlensBegin(file.name || "file", file.size);
   const total = file.size;
   let read = 0, last = 0;
-  let preview = "";
-  const dec = new TextDecoder("utf-8", { fatal: false });
   const rd = file.stream().getReader();
   try {
     for (;;) {
       const { done, value } = await rd.read();
       if (job.cancelled) {
         rd.cancel().catch(() => {});
-        self.lotlensCancel();
-        postMessage({ type: "cancelled", id });
+        postMessage({ type: "file-read", id, json: self.lotlensCancel() });
         return;
       }
       if (done) break;
-      if (preview.length < 65536) preview += dec.decode(value.subarray(0, 65536), { stream: true });
       const r = self.lotlensChunk(value);
-      if (typeof r === "string") {
-        postMessage({ type: "file-read", id, json: JSON.stringify({ error: r }) });
+      if (typeof r === "string") { // the engine's error object
+        postMessage({ type: "file-read", id, json: r });
         return;
       }
       read = r;
@@ -69,10 +69,10 @@ async function readFile(id, file) {
       }
     }
     postMessage({ type: "progress", id, read, total });
-    postMessage({ type: "file-read", id, json: self.lotlensEnd(), preview });
+    postMessage({ type: "file-read", id, json: self.lotlensEnd() });
   } catch (e) {
     self.lotlensCancel();
-    postMessage({ type: "file-read", id, json: JSON.stringify({ error: "Could not read " + file.name + ": " + e }) });
+    postMessage({ type: "file-read", id, json: JSON.stringify({ error: "Could not read " + file.name + ": " + e, code: "file-read" }) });
   } finally {
     if (reading === job) reading = null;
   }
@@ -101,6 +101,12 @@ onmessage = (ev) => {
       break;
     case "forget":
       self.lotlensForget();
+      break;
+    case "text":
+      {
+        const r = self.lotlensText();
+        postMessage(Object.assign({ type: "text", id: m.id }, r.text !== undefined ? { text: r.text } : { json: r.json }));
+      }
       break;
   }
 };

@@ -8,7 +8,8 @@ const BUILD = "__LOTLENS_BUILD__";
 const CACHE = "lotlens-" + BUILD;
 const LISTED = ["__LOTLENS_ASSETS__"];
 // Used only when the build did not fill in the list (e.g. serving site/ raw).
-const FALLBACK = ["./", "index.html", "app.js", "engine.js", "wasm_exec.js", "lotlens.wasm", "style.css",
+const FALLBACK = ["./", "index.html", "app.js", "state.js", "dom.js", "engine-client.js", "input.js", "cards.js",
+  "export.js", "share.js", "engine.js", "wasm_exec.js", "lotlens.wasm", "style.css",
   "manifest.webmanifest", "icon.svg", "icon-192.png", "icon-512.png", "demo/capsule-fill.tsv"];
 const ASSETS = LISTED.length === 1 && LISTED[0] === "__LOTLENS_" + "ASSETS__" ? FALLBACK : LISTED;
 

@@ -91,6 +91,7 @@ func AnalyzeTable(tab *ingest.Table, fingerprint string, req Request) (*Report, 
 	rep := newReport(fingerprint, cv, opts)
 	rep.Input.Columns = infos
 	rep.Input.Summary = tab.Summary()
+	rep.Input.Reader = readerDecisions(tab)
 	// clipped: appending to the report's list must never write into the
 	// reader's array (the page analyses one table many times)
 	rep.Input.Problems = slices.Clip(tab.Problems)

@@ -19,6 +19,8 @@ const (
 	CodeRead       = "read"          // the reader refused the input
 	CodeInternal   = "internal"      // a fault of the engine: please report it
 	CodeCancelled  = "cancelled"     // the user stopped the work
+	CodeNoFile     = "no-file"       // the page asked for a file that is not (or no longer) read
+	CodeTooLarge   = "too-large"     // the data are too large for what was asked (a link)
 )
 
 // Error is an error the engine reports to the user: a stable code, the

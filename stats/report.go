@@ -101,6 +101,8 @@ type Input struct {
 	// DecimalComma is true when the value column used a decimal comma: the
 	// page shows numbers the same way.
 	DecimalComma bool `json:"decimalComma,omitempty"`
+	// Reader holds the reader's decisions (input_reader.go).
+	Reader *ReaderDecisions `json:"reader,omitempty"`
 }
 
 // Settings echoes the options as applied (defaults filled in).

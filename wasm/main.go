@@ -3,20 +3,22 @@
 // Command wasm is the only package that imports syscall/js. It binds the
 // engine's calls to JavaScript names inside the page's Web Worker
 // (site/engine.js); the logic is in package bridge, which tests natively.
+// Errors are JSON objects {"error": "...", "code": "..."}; a Go panic in the
+// engine is caught by the bridge and comes back as one (code "internal").
 //
 //	lotlensAnalyze(requestJSON) -> reportJSON          the automation entry point
 //	lotlensRun(requestJSON, useTable) -> {json, svg}   report JSON + charts as SVG text
 //	lotlensBegin(name, size)                           start reading a file
-//	lotlensChunk(uint8Array) -> bytes so far | error   feed the next chunk
+//	lotlensChunk(uint8Array) -> bytes so far | errorJSON  feed the next chunk
 //	lotlensEnd() -> JSON                               finish: fingerprint, columns
-//	lotlensCancel()                                    abandon the read
+//	lotlensCancel() -> errorJSON (code "cancelled")    abandon the read
 //	lotlensForget()                                    drop the kept file table
+//	lotlensText() -> {text} | {json: errorJSON}        the kept file's decoded text (share link)
 package main
 
 import (
 	"syscall/js"
 
-	"lotlens/stats"
 	"lotlens/wasm/bridge"
 )
 
@@ -33,14 +35,14 @@ func main() {
 	g.Set("lotlensAnalyze", js.FuncOf(func(this js.Value, args []js.Value) any {
 		req, ok := str(args, 0)
 		if !ok {
-			return `{"error":"lotlensAnalyze takes one argument: the request as a JSON string"}`
+			return `{"error":"lotlensAnalyze takes one argument: the request as a JSON string","code":"bad-request"}`
 		}
-		return string(stats.AnalyzeJSON([]byte(req)))
+		return string(s.AnalyzeJSON([]byte(req)))
 	}))
 	g.Set("lotlensRun", js.FuncOf(func(this js.Value, args []js.Value) any {
 		req, ok := str(args, 0)
 		if !ok {
-			return `{"error":"lotlensRun takes the request as a JSON string"}`
+			return map[string]any{"json": `{"error":"lotlensRun takes the request as a JSON string","code":"bad-request"}`}
 		}
 		useTable := len(args) > 1 && args[1].Truthy()
 		j, svg := s.Analyze([]byte(req), useTable)
@@ -61,7 +63,7 @@ func main() {
 	}))
 	g.Set("lotlensChunk", js.FuncOf(func(this js.Value, args []js.Value) any {
 		if len(args) != 1 || args[0].Type() != js.TypeObject {
-			return "lotlensChunk takes one Uint8Array"
+			return `{"error":"lotlensChunk takes one Uint8Array","code":"bad-request"}`
 		}
 		n := args[0].Get("length").Int()
 		if cap(buf) < n {
@@ -71,7 +73,7 @@ func main() {
 		js.CopyBytesToGo(buf, args[0])
 		read, err := s.Write(buf)
 		if err != nil {
-			return err.Error()
+			return string(bridge.ErrorJSON(err))
 		}
 		return float64(read)
 	}))
@@ -79,12 +81,18 @@ func main() {
 		return string(s.End())
 	}))
 	g.Set("lotlensCancel", js.FuncOf(func(this js.Value, args []js.Value) any {
-		s.Cancel()
-		return nil
+		return string(s.Cancel())
 	}))
 	g.Set("lotlensForget", js.FuncOf(func(this js.Value, args []js.Value) any {
 		s.Forget()
 		return nil
+	}))
+	g.Set("lotlensText", js.FuncOf(func(this js.Value, args []js.Value) any {
+		t, err := s.Text()
+		if err != nil {
+			return map[string]any{"json": string(bridge.ErrorJSON(err))}
+		}
+		return map[string]any{"text": t}
 	}))
 	g.Call("postMessage", map[string]any{"type": "ready"})
 	select {}

@@ -12,7 +12,7 @@ import (
 )
 
 // helpSlugs are the pages the page links to (the contract with the page:
-// site/app.js and site/index.html link to help/<slug>.html).
+// site/cards.js and site/index.html link to help/<slug>.html).
 var helpSlugs = []string{"verdict", "reading-your-report", "data-formats", "privacy", "sharing", "cautions", "automation",
 	"mean", "median", "trimmed-mean", "mode", "standard-deviation", "range-iqr", "mad", "cv", "sem", "quantiles",
 	"confidence-intervals", "skewness-kurtosis", "dagostino", "shapiro-wilk", "anderson-darling", "probability-plot",

@@ -23,9 +23,11 @@ import (
 // paths, the service worker's placeholders.
 func fakeSite() files {
 	return files{
-		"index.html": []byte(`<!doctype html><html><head><link rel="stylesheet" href="style.css"><link rel="manifest" href="manifest.webmanifest"><script src="app.js" defer></script></head>` +
+		"index.html": []byte(`<!doctype html><html><head><link rel="stylesheet" href="style.css"><link rel="manifest" href="manifest.webmanifest"><script type="module" src="app.js"></script></head>` +
 			`<body><a href="help/mean.html#mean">mean</a><a href="help/">help</a></body></html>`),
-		"app.js":                []byte(`new Worker("engine.js"); navigator.serviceWorker.register("sw.js"); fetch('demo/capsule-fill.tsv'); const h = "help/" + slug + ".html";`),
+		"app.js":                []byte(`import { start } from "./client.js"; import { card } from './cards.js'; navigator.serviceWorker.register("sw.js"); fetch('demo/capsule-fill.tsv'); const h = "help/" + slug + ".html";`),
+		"client.js":             []byte(`export function start() { return new Worker("engine.js"); }`),
+		"cards.js":              []byte(`import { start } from "./client.js"; export const card = 1;`),
 		"engine.js":             []byte(`importScripts("wasm_exec.js"); fetch("lotlens.wasm");`),
 		"wasm_exec.js":          []byte(`// runtime glue`),
 		"lotlens.wasm":          append([]byte("\x00asm"), bytes.Repeat([]byte("engine "), 200)...),
@@ -51,7 +53,7 @@ func TestFingerprintRewritesReferences(t *testing.T) {
 			t.Errorf("%s lost its name", keep)
 		}
 	}
-	for _, old := range []string{"app.js", "engine.js", "wasm_exec.js", "lotlens.wasm", "style.css", "icon.svg", "manifest.webmanifest", "demo/capsule-fill.tsv"} {
+	for _, old := range []string{"app.js", "client.js", "cards.js", "engine.js", "wasm_exec.js", "lotlens.wasm", "style.css", "icon.svg", "manifest.webmanifest", "demo/capsule-fill.tsv"} {
 		neu, ok := renamed[old]
 		if !ok || !web.Fingerprinted(neu) {
 			t.Errorf("%s renamed to %q", old, neu)
@@ -67,8 +69,13 @@ func TestFingerprintRewritesReferences(t *testing.T) {
 		}
 	}
 	app := string(site[renamed["app.js"]])
-	if !strings.Contains(app, `"`+renamed["engine.js"]+`"`) || !strings.Contains(app, `'`+renamed["demo/capsule-fill.tsv"]+`'`) || !strings.Contains(app, `"sw.js"`) {
+	// module import specifiers are fingerprinted like any quoted reference
+	if !strings.Contains(app, `from "./`+renamed["client.js"]+`"`) || !strings.Contains(app, `from './`+renamed["cards.js"]+`'`) ||
+		!strings.Contains(app, `'`+renamed["demo/capsule-fill.tsv"]+`'`) || !strings.Contains(app, `"sw.js"`) {
 		t.Errorf("app.js not rewritten: %s", app)
+	}
+	if client := string(site[renamed["client.js"]]); !strings.Contains(client, `"`+renamed["engine.js"]+`"`) {
+		t.Errorf("client.js not rewritten: %s", client)
 	}
 	css := string(site[renamed["style.css"]])
 	if strings.Count(css, renamed["icon.svg"]) != 2 {
@@ -84,7 +91,7 @@ func TestFingerprintRewritesReferences(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	for _, f := range []string{"lotlens.wasm", "engine.js", "app.js"} {
+	for _, f := range []string{"lotlens.wasm", "engine.js", "client.js", "cards.js", "app.js"} {
 		if renamed[f] == renamed2[f] {
 			t.Errorf("%s kept its name %s although lotlens.wasm changed", f, renamed[f])
 		}

@@ -1,5 +1,5 @@
 // Package workertest runs the edge worker locally under workerd (through the
-// pinned wrangler in node_modules) and checks what it serves. `make
+// pinned wrangler in build/node/node_modules) and checks what it serves. `make
 // test-worker` prepares everything and runs it with LOTLENS_WORKER_TEST=1;
 // other runs skip it.
 package workertest
@@ -43,9 +43,9 @@ func TestWorkerServesSite(t *testing.T) {
 		t.Skip("set LOTLENS_WORKER_TEST=1 (make test-worker does) to run the edge worker under workerd")
 	}
 	root, _ := filepath.Abs("../..")
-	wrangler := filepath.Join(root, "node_modules", ".bin", "wrangler")
+	wrangler := filepath.Join(root, "build", "node", "node_modules", ".bin", "wrangler")
 	for _, need := range []struct{ path, how string }{
-		{wrangler, "run `npm ci` at the top of the repository (make test-worker does)"},
+		{wrangler, "run `npm ci --prefix build/node` (make test-worker does)"},
 		{filepath.Join(root, "build/worker/build/app.wasm"), "run `go run ./build worker` (make test-worker does)"},
 		{filepath.Join(root, "build/worker/dist/index.html"), "run `go run ./build worker` (make test-worker does)"},
 	} {

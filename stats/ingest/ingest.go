@@ -211,9 +211,30 @@ type Table struct {
 	// Shape is the reader's guess: "single" (one value column), "wide"
 	// (several value columns), "long" (a group column and one value column).
 	Shape string
+	// Head is the first HeadRows records (note lines and the header
+	// included) as the reader split them into cells, for a preview.
+	Head  []HeadRow
 	notes int
 	extra int
+	// text is the decoded input when ReadOptions.KeepText asked for it
+	text     string
+	textKept bool
 }
+
+// HeadRows is how many records Table.Head keeps.
+const HeadRows = 40
+
+// HeadRow is one record of the input as the reader split it.
+type HeadRow struct {
+	Row   int      `json:"row"`
+	Cells []string `json:"cells"`
+}
+
+// DecodedText returns the input as UTF-8 text, as the reader decoded it
+// (byte-order mark removed, UTF-16 and Windows-1252 lines converted), when
+// ReadOptions.KeepText asked for it and the text was not longer. Reading
+// the text again gives the same table (with encoding "utf-8").
+func (t *Table) DecodedText() (string, bool) { return t.text, t.textKept }
 
 // Infos returns the columns' descriptions.
 func (t *Table) Infos() []ColumnInfo {
@@ -352,6 +373,9 @@ type ReadOptions struct {
 	// SizeHint is the expected input size in bytes (e.g. File.size), used to
 	// size the columns once and keep peak memory near the parsed data.
 	SizeHint int64 `json:"sizeHint,omitempty"`
+	// KeepText, when above 0, keeps the decoded text up to that many bytes
+	// for Table.DecodedText (the page's share link of a dropped file).
+	KeepText int64 `json:"-"`
 }
 
 // Read reads a whole text with the default options.

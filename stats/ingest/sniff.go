@@ -847,6 +847,10 @@ func (s *Stream) finishTable() (*Table, error) {
 	s.pend = s.pend[:0] // empty lines after the last data row are not cells
 	t.Format.Bytes = s.total
 	t.Format.Rows = s.row
+	if s.opt.KeepText > 0 && !s.keepOver {
+		t.text, t.textKept = string(latin1Lines(s.kept, s.latin1 > 0)), true
+		s.kept = nil
+	}
 	if s.latin1 > 0 {
 		t.Format.Encoding = "windows-1252"
 		if s.enc != encUTF8 {
@@ -889,6 +893,31 @@ func (s *Stream) finishTable() (*Table, error) {
 		return nil, err
 	}
 	return t, nil
+}
+
+// latin1Lines converts, when conv is set, every line of text that is not
+// valid UTF-8 from Windows-1252, as the reader does record by record (a
+// quoted record over several lines is converted line by line here).
+func latin1Lines(text []byte, conv bool) []byte {
+	if !conv {
+		return text
+	}
+	out := make([]byte, 0, len(text)+len(text)/8)
+	for len(text) > 0 {
+		k := bytes.IndexAny(text, "\r\n")
+		line, brk := text, []byte(nil)
+		if k >= 0 {
+			line, brk = text[:k], text[k:k+1]
+		}
+		if utf8.Valid(line) {
+			out = append(out, line...)
+		} else {
+			out = fromWindows1252(out, line)
+		}
+		out = append(out, brk...)
+		text = text[len(line)+len(brk):]
+	}
+	return out
 }
 
 // noNumbers explains a table without a single number.

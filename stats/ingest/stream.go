@@ -69,6 +69,9 @@ type Stream struct {
 	longest int
 	// quoted-record bookkeeping for the unclosed-quote problem
 	recStart int
+	// decoded text kept for ReadOptions.KeepText
+	kept     []byte
+	keepOver bool
 }
 
 // NewStream starts a chunked read.
@@ -216,9 +219,22 @@ func (s *Stream) Finish() (*Table, error) {
 func (s *Stream) decodeTail() []byte {
 	if len(s.half) > 0 || s.hi != 0 {
 		s.half, s.hi = nil, 0
-		return utf8.AppendRune(nil, utf8.RuneError)
+		return s.capture(utf8.AppendRune(nil, utf8.RuneError))
 	}
 	return nil
+}
+
+// capture keeps a copy of decoded text when ReadOptions.KeepText asks for
+// it, up to that many bytes; beyond, nothing is kept.
+func (s *Stream) capture(text []byte) []byte {
+	if s.opt.KeepText > 0 && !s.keepOver {
+		if int64(len(s.kept)+len(text)) > s.opt.KeepText {
+			s.kept, s.keepOver = nil, true
+		} else {
+			s.kept = append(s.kept, text...)
+		}
+	}
+	return text
 }
 
 // decode turns raw bytes into UTF-8 text (the result may be p itself, or a
@@ -232,9 +248,9 @@ func (s *Stream) decode(p []byte) []byte {
 	switch s.enc {
 	case encUTF16LE, encUTF16BE:
 		s.u16 = s.decode16(s.u16[:0], p)
-		return s.u16
+		return s.capture(s.u16)
 	}
-	return p
+	return s.capture(p)
 }
 
 // feed decodes raw bytes and passes the text to the record splitter.
@@ -554,6 +570,9 @@ func (s *Stream) onRecord(rec []byte, quoted bool) {
 			s.problem(Problem{Row: row, Kind: KindEncoding, Reason: "text is not valid UTF-8", Action: "read as Windows-1252 (Latin-1); check special characters such as µ or °"})
 		}
 	}
+	if row <= HeadRows {
+		s.head(row, rec, quoted)
+	}
 	if s.sp.unclosed {
 		s.problem(Problem{Row: row, Kind: KindQuote, Text: shorten(rec), Reason: "a quote opened in this row is never closed", Action: "the rest of the input was read as this row"})
 	}
@@ -570,6 +589,22 @@ func (s *Stream) onRecord(rec []byte, quoted bool) {
 		s.fields = splitPlain(rec, s.lay.sep, s.fields)
 	}
 	s.data(row, s.fields)
+}
+
+// head keeps record row of the first HeadRows as the reader splits it,
+// for the page's preview.
+func (s *Stream) head(row int, rec []byte, quoted bool) {
+	var fs [][]byte
+	if quoted {
+		fs = splitQuoted(rec, s.lay.sep, nil)
+	} else {
+		fs = splitPlain(rec, s.lay.sep, nil)
+	}
+	cells := make([]string, len(fs))
+	for i, f := range fs {
+		cells[i] = string(trimASCII(f))
+	}
+	s.tab.Head = append(s.tab.Head, HeadRow{Row: row, Cells: cells})
 }
 
 func blank(b []byte) bool {
@@ -862,6 +897,9 @@ func (s *Stream) fastLines(data []byte) int {
 		s.row++
 		if i > s.longest {
 			s.longest = i
+		}
+		if s.row <= HeadRows {
+			s.head(s.row, rest[:i], false)
 		}
 		if one != nil && len(s.pend) == 0 && !blank(rest[:i]) {
 			// one column: what data would do for a single field

@@ -5,13 +5,17 @@
 // A Session holds the state of one page's engine worker: a file being read in
 // chunks (hashed with SHA-256 as it arrives), and the last table read, so that
 // a change of settings re-runs only the analysis, never the reading.
+//
+// Every call returns an answer, never a Go panic: a panic inside the engine
+// becomes the JSON error object {"error": "...", "code": "internal"} and the
+// worker keeps running (a panic that escaped would end the Go program and
+// the page would lose its engine).
 package bridge
 
 import (
 	"crypto/sha256"
 	"encoding/hex"
 	"encoding/json"
-	"errors"
 	"fmt"
 	"hash"
 
@@ -20,31 +24,60 @@ import (
 	"lotlens/stats/ingest"
 )
 
+// ShareTextMax is the most decoded text of a file the session keeps for the
+// page's share link (Text). A longer file is shared as the file itself.
+const ShareTextMax = 8 << 20
+
+// The bridge's errors are stats.Error values with the engine's codes
+// (stats.CodeInternal for a caught panic, CodeCancelled, CodeNoFile,
+// CodeTooLarge); ErrorJSON writes them and every other error.
+var ErrorJSON = stats.ErrorJSON
+
+// internal is the error for a caught panic.
+func internal(where string, r any) *stats.Error {
+	return &stats.Error{Code: stats.CodeInternal, Msg: fmt.Sprintf("internal error in the engine while %s (%v): nothing was lost and the page keeps working; please report this with the data if you can", where, r)}
+}
+
 // Session is one engine's state. The zero value is ready to use. It is not
 // safe for concurrent use (a Web Worker is single-threaded).
 type Session struct {
 	// reading
-	active bool
-	name   string
-	h      hash.Hash
-	rd     *chunkReader
-	read   int64
+	active    bool
+	cancelled bool
+	name      string
+	h         hash.Hash
+	rd        *chunkReader
+	read      int64
 	// last table read from a file
 	tab *ingest.Table
 	fp  string
+
+	// analyze replaces the engine in tests (nil: stats.Analyze and
+	// stats.AnalyzeTable), to check that a panic becomes an error.
+	analyze func(req stats.Request, tab *ingest.Table, fp string) (*stats.Report, error)
 }
 
 // Begin starts reading a file called name of size bytes (0 if unknown),
 // dropping any earlier read.
 func (s *Session) Begin(name string, size int64) {
 	s.Cancel()
-	s.active, s.name, s.h, s.rd, s.read = true, name, sha256.New(), newChunkReader(size), 0
+	s.active, s.cancelled, s.name, s.h, s.rd, s.read = true, false, name, sha256.New(), newChunkReader(size), 0
 }
 
 // Write feeds the next chunk of the file. It returns the bytes read so far.
-func (s *Session) Write(p []byte) (int64, error) {
+// Its errors are *stats.Error or the reader's; ErrorJSON writes either.
+func (s *Session) Write(p []byte) (n int64, err error) {
+	defer func() {
+		if r := recover(); r != nil {
+			s.Cancel()
+			n, err = 0, internal("reading the file", r)
+		}
+	}()
 	if !s.active {
-		return 0, errors.New("no file is being read: call begin first")
+		if s.cancelled {
+			return 0, &stats.Error{Code: stats.CodeCancelled, Msg: "reading cancelled: nothing was analysed"}
+		}
+		return 0, &stats.Error{Code: stats.CodeNoFile, Msg: "no file is being read: call begin first"}
 	}
 	s.h.Write(p)
 	if err := s.rd.Write(p); err != nil {
@@ -56,10 +89,20 @@ func (s *Session) Write(p []byte) (int64, error) {
 }
 
 // End finishes reading and keeps the table for Analyze. It returns JSON:
-// {"name","bytes","fingerprint","columns","summary"} or {"error"}.
-func (s *Session) End() []byte {
+// {"name","bytes","fingerprint","columns","summary"} or an error object.
+func (s *Session) End() (out []byte) {
+	defer func() {
+		if r := recover(); r != nil {
+			s.Cancel()
+			s.tab, s.fp = nil, ""
+			out = ErrorJSON(internal("finishing the file", r))
+		}
+	}()
 	if !s.active {
-		return stats.ErrorJSON(errors.New("no file is being read"))
+		if s.cancelled {
+			return ErrorJSON(&stats.Error{Code: stats.CodeCancelled, Msg: "reading cancelled: nothing was analysed"})
+		}
+		return ErrorJSON(&stats.Error{Code: stats.CodeNoFile, Msg: "no file is being read"})
 	}
 	tab, err := s.rd.Finish()
 	fp := hex.EncodeToString(s.h.Sum(nil))
@@ -67,7 +110,7 @@ func (s *Session) End() []byte {
 	s.active, s.rd, s.h = false, nil, nil
 	if err != nil {
 		s.tab, s.fp = nil, ""
-		return stats.ErrorJSON(fmt.Errorf("%s: %w", name, err))
+		return ErrorJSON(fmt.Errorf("%s: %w", name, err))
 	}
 	s.tab, s.fp = tab, fp
 	cols := make([]ingest.ColumnInfo, 0, len(tab.Columns))
@@ -77,10 +120,13 @@ func (s *Session) End() []byte {
 	return mustJSON(map[string]any{"name": name, "bytes": n, "fingerprint": fp, "columns": cols, "summary": tab.Summary()})
 }
 
-// Cancel abandons a read in progress. The last complete table is dropped too
-// only when a new read begins.
-func (s *Session) Cancel() {
+// Cancel abandons a read in progress and returns the JSON error object the
+// page shows for it (code "cancelled"). The last complete table is dropped
+// too only when a new read begins.
+func (s *Session) Cancel() []byte {
+	s.cancelled = s.active
 	s.active, s.rd, s.h, s.read = false, nil, nil, 0
+	return ErrorJSON(&stats.Error{Code: stats.CodeCancelled, Msg: "reading cancelled: nothing was analysed"})
 }
 
 // HasTable reports whether a file's table is kept for re-analysis.
@@ -89,35 +135,79 @@ func (s *Session) HasTable() bool { return s.tab != nil }
 // Forget drops the kept table (the user pasted text instead).
 func (s *Session) Forget() { s.tab, s.fp = nil, "" }
 
+// Text is the kept file's text as the reader decoded it (UTF-8, whatever
+// the file's encoding), for the share link. It fails when no file is kept or
+// its text is longer than ShareTextMax.
+func (s *Session) Text() (string, error) {
+	if s.tab == nil {
+		return "", &stats.Error{Code: stats.CodeNoFile, Msg: "no file is loaded: drop or pick the file again"}
+	}
+	t, ok := s.tab.DecodedText()
+	if !ok {
+		return "", &stats.Error{Code: stats.CodeTooLarge, Msg: fmt.Sprintf("the file is too large for a link (over %d MB as text): send the file itself, with this report's fingerprint so the receiver can check it", ShareTextMax>>20)}
+	}
+	return t, nil
+}
+
 // Analyze runs the request. With useTable it analyses the kept table (the
 // request's Text and Cells are ignored); otherwise the request's own data.
-// It returns the report as JSON (or {"error": "..."}) and its charts as SVG
+// It returns the report as JSON (or an error object) and its charts as SVG
 // text keyed by chart name (nil on error). The charts travel beside the JSON
 // rather than inside it: JSON-escaping SVG costs time and size.
-func (s *Session) Analyze(reqJSON []byte, useTable bool) ([]byte, map[string]string) {
+func (s *Session) Analyze(reqJSON []byte, useTable bool) (out []byte, svg map[string]string) {
+	defer func() {
+		if r := recover(); r != nil {
+			out, svg = ErrorJSON(internal("analysing", r)), nil
+		}
+	}()
 	req, err := stats.ParseRequest(reqJSON)
 	if err != nil {
-		return stats.ErrorJSON(err), nil
+		return ErrorJSON(err), nil
 	}
 	var rep *stats.Report
 	if useTable {
 		if s.tab == nil {
-			return stats.ErrorJSON(errors.New("no file is loaded: drop or pick the file again")), nil
+			return ErrorJSON(&stats.Error{Code: stats.CodeNoFile, Msg: "no file is loaded: drop or pick the file again"}), nil
 		}
-		rep, err = stats.AnalyzeTable(s.tab, s.fp, req)
+		rep, err = s.engine(req, s.tab, s.fp)
 	} else {
-		rep, err = stats.Analyze(req)
+		rep, err = s.engine(req, nil, "")
 	}
 	if err != nil {
-		return stats.ErrorJSON(err), nil
+		return ErrorJSON(err), nil
 	}
 	return stats.ReportJSON(rep, nil), chart.All(rep)
+}
+
+// AnalyzeJSON is the automation entry point: request JSON in, report JSON
+// (or an error object) out, without charts and without the kept table.
+func (s *Session) AnalyzeJSON(reqJSON []byte) (out []byte) {
+	defer func() {
+		if r := recover(); r != nil {
+			out = ErrorJSON(internal("analysing", r))
+		}
+	}()
+	req, err := stats.ParseRequest(reqJSON)
+	if err != nil {
+		return ErrorJSON(err)
+	}
+	return stats.ReportJSON(s.engine(req, nil, ""))
+}
+
+func (s *Session) engine(req stats.Request, tab *ingest.Table, fp string) (*stats.Report, error) {
+	if s.analyze != nil {
+		return s.analyze(req, tab, fp)
+	}
+	if tab != nil {
+		return stats.AnalyzeTable(tab, fp, req)
+	}
+	return stats.Analyze(req)
 }
 
 func mustJSON(v any) []byte {
 	b, err := json.Marshal(v)
 	if err != nil {
-		return stats.ErrorJSON(fmt.Errorf("internal error encoding the result: %v", err))
+		return ErrorJSON(&stats.Error{Code: stats.CodeInternal, Msg: fmt.Sprintf("internal error encoding the result: %v", err)})
 	}
 	return b
 }

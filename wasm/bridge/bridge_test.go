@@ -3,11 +3,13 @@ package bridge
 import (
 	"bytes"
 	"encoding/json"
+	"errors"
 	"os"
 	"strings"
 	"testing"
 
 	"lotlens/stats"
+	"lotlens/stats/ingest"
 )
 
 type result struct {
@@ -134,5 +136,76 @@ func TestCancelAndErrors(t *testing.T) {
 	}
 	if r := s.run(t, `{"text":"   "}`, false); r.Error == "" {
 		t.Error("empty text gave no error")
+	}
+}
+
+// errorCode reads the code of a JSON error object.
+func errorCode(t *testing.T, b []byte) (msg, code string) {
+	t.Helper()
+	var e struct {
+		Error string `json:"error"`
+		Code  string `json:"code"`
+	}
+	if err := json.Unmarshal(b, &e); err != nil {
+		t.Fatalf("not JSON: %v: %s", err, b)
+	}
+	return e.Error, e.Code
+}
+
+// A panic inside the engine becomes an error object with code "internal",
+// and the session keeps working afterwards.
+func TestPanicBecomesError(t *testing.T) {
+	var s Session
+	s.analyze = func(stats.Request, *ingest.Table, string) (*stats.Report, error) {
+		var m map[string]int
+		m["boom"] = 1 // a nil-map write: a real runtime panic
+		return nil, nil
+	}
+	b, svg := s.Analyze([]byte(`{"text":"1\n2\n3\n"}`), false)
+	if msg, code := errorCode(t, b); code != stats.CodeInternal || !strings.Contains(msg, "internal error") || svg != nil {
+		t.Errorf("panic gave %s (charts %v)", b, svg != nil)
+	}
+	if msg, code := errorCode(t, s.AnalyzeJSON([]byte(`{"text":"1\n2\n3\n"}`))); code != stats.CodeInternal || msg == "" {
+		t.Errorf("automation entry: code %q", code)
+	}
+	feed(t, &s, []byte("5.1\n5.2\n5.3\n"), 3)
+	s.End()
+	if _, code := errorCode(t, func() []byte { b, _ := s.Analyze([]byte(`{}`), true); return b }()); code != stats.CodeInternal {
+		t.Errorf("panic on the kept table: code %q", code)
+	}
+	s.analyze = nil // the engine again: the session still answers
+	if r := s.run(t, `{"options":{}}`, true); r.Error != "" || r.Report.Counts.Used != 3 {
+		t.Errorf("after a panic: %+v", r)
+	}
+}
+
+// Cancel, and the calls after it, answer with code "cancelled"; a file's
+// text comes back decoded for the share link.
+func TestCancelCodeAndText(t *testing.T) {
+	var s Session
+	if _, code := errorCode(t, s.End()); code != stats.CodeNoFile {
+		t.Errorf("end without a file: code %q", code)
+	}
+	s.Begin("a.txt", 0)
+	if _, code := errorCode(t, s.Cancel()); code != stats.CodeCancelled {
+		t.Errorf("cancel: code %q", code)
+	}
+	var e *stats.Error
+	if _, err := s.Write([]byte("1\n")); !errors.As(err, &e) || e.Code != stats.CodeCancelled {
+		t.Errorf("write after cancel: %v", err)
+	}
+	if _, code := errorCode(t, s.End()); code != stats.CodeCancelled {
+		t.Errorf("end after cancel: code %q", code)
+	}
+	if _, err := s.Text(); err == nil {
+		t.Error("text without a file")
+	}
+	// a Windows-1252 file: the text comes back as UTF-8 (check value from
+	// memory: byte 0xB0 is the degree sign in Windows-1252)
+	feed(t, &s, []byte("Temp (\xb0C)\n21,5\n21,7\n"), 5)
+	s.End()
+	text, err := s.Text()
+	if err != nil || text != "Temp (°C)\n21,5\n21,7\n" {
+		t.Errorf("text %q, %v", text, err)
 	}
 }

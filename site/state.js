@@ -1,0 +1,61 @@
+// The page's state, declared in one place, and the few things every module
+// shares: the element lookup, the status line, the request schema, and the
+// page's actions (filled in by input.js, called by the cards: late binding
+// keeps the modules' imports free of cycles, which the build's
+// fingerprinting needs).
+
+export const SCHEMA = "lotlens.request/1";
+
+export const $ = (id) => document.getElementById(id);
+
+export const state = {
+  source: null,     // "text" | "file"
+  text: "",         // the pasted text last analysed
+  file: null,       // the File last read (its name for the report; its text comes from the engine)
+  sourceName: "",   // shown beside the preview: the file's name, "demo", or a shared link's name
+  hasTable: false,  // the engine keeps the file's table
+  exclude: new Set(),
+  leaveOutRows: [], // rows typed in "Leave out rows"
+  leaveOutText: "",
+  allSuspects: false,
+  cols: { value: "", group: "", order: "", subgroup: "" },
+  report: null,
+  svg: {},
+  full: false,      // full precision
+  when: null,
+  busy: 0,
+  analyses: 0,
+  timing: null,
+  sentAt: 0,
+  runToken: 0,      // the latest analysis; older answers are dropped
+  bigText: "",      // a large paste kept out of the text box
+  tip: { row: null, fig: null, index: -1 }, // the chart point whose tip is shown
+};
+
+// actions are set by input.js: analyse (run the analysis again) and
+// toggleExclude(row).
+export const actions = {
+  analyse: () => {},
+  toggleExclude: () => {},
+};
+
+export function setStatus(msg, isError) {
+  const status = $("status");
+  status.textContent = msg;
+  status.classList.toggle("error", !!isError);
+}
+
+// errorOf reads the engine's JSON error object {error, code}: the message
+// to show and its code ("" when the object has none).
+export function errorOf(res) {
+  if (!res || !res.error) return null;
+  return { message: String(res.error), code: res.code ? String(res.code) : "" };
+}
+
+// showError puts an engine error in the status line and marks the page's
+// state for scripts and tests (data-error-code).
+export function showError(err) {
+  setStatus(err.message, true);
+  if (err.code) document.body.dataset.errorCode = err.code;
+  else delete document.body.dataset.errorCode;
+}
