@@ -79,6 +79,9 @@ func AnalyzeTable(tab *ingest.Table, fingerprint string, req Request) (*Report, 
 		return nil, err
 	}
 	col := cols.value
+	if err := checkWithin(opts, cols.subgroup != nil); err != nil {
+		return nil, err
+	}
 	cv := &colView{
 		name: col.Name, unit: col.Unit, rows: col.Rows, vals: col.Values, dec: col.Dec,
 		text: col.Text, decimalComma: col.DecimalComma,

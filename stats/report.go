@@ -60,6 +60,11 @@ type Options struct {
 	// DecimalComma forces the decimal mark for ambiguous columns: "" (auto),
 	// "comma" or "point".
 	DecimalMark string `json:"decimalMark,omitempty"`
+	// WithinSigma chooses the estimator of the within-process sigma shared
+	// by the spec and stability sections (within.go): "" (by the data),
+	// "moving-range", "median-moving-range", "pooled-sd", "mean-range",
+	// "mean-sd".
+	WithinSigma string `json:"withinSigma,omitempty"`
 }
 
 // DefaultQuantile is the quantile definition used when the request names none.
