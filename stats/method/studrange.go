@@ -202,7 +202,7 @@ func PTukey(q float64, k int, df float64) (float64, error) {
 // PTukey(q, k, df) = p. Starting value from the approximation of
 // Copenhaver and Holland (1988) (as R's qtukey), then secant steps on
 // PTukey; unlike R's (which stops at a step below 1e-4) the iteration runs
-// to a step below 1e-10 so that intervals built on it are as accurate as
+// to a relative step below 1e-9 so that intervals built on it are as accurate as
 // PTukey.
 func QTukey(p float64, k int, df float64) (float64, error) {
 	if k < 2 || !(df >= 2) || !(p >= 0 && p <= 1) {
@@ -214,32 +214,45 @@ func QTukey(p float64, k int, df float64) (float64, error) {
 	if p == 1 {
 		return math.Inf(1), nil
 	}
+	return grpQTukeyFrom(p, k, df, grpQTukeyStart(p, float64(k), df)), nil
+}
+
+// grpQTukeyFrom solves PTukey(q, k, df) = p by secant steps from x0
+// (arguments already checked), stopping once the step is below 1e-9
+// relative or PTukey is within 1e-13 of p; a bisection finishes the rare
+// case where the secant stalls.
+func grpQTukeyFrom(p float64, k int, df float64, x0 float64) float64 {
 	pt := func(x float64) float64 {
 		v, _ := PTukey(x, k, df)
 		return v
 	}
-	x0 := grpQTukeyStart(p, float64(k), df)
 	v0 := pt(x0) - p
-	var x1 float64
+	if math.Abs(v0) < 1e-13 {
+		return x0
+	}
+	// second iterate: a step of 2 % towards p (the start is within a few
+	// per cent; R steps by 1)
+	x1 := x0 * 1.02
 	if v0 > 0 {
-		x1 = math.Max(0, x0-1)
-	} else {
-		x1 = x0 + 1
+		x1 = x0 * 0.98
 	}
 	v1 := pt(x1) - p
-	for iter := 0; iter < 100; iter++ {
+	for iter := 0; iter < 50; iter++ {
+		if math.Abs(v1) < 1e-13 {
+			return x1
+		}
 		if v1 == v0 {
 			break
 		}
 		ans := x1 - v1*(x1-x0)/(v1-v0)
-		if ans < 0 {
-			ans = 0
+		if !(ans > 0) || math.IsInf(ans, 0) {
+			break
 		}
 		x0, v0 = x1, v1
 		x1 = ans
 		v1 = pt(x1) - p
-		if math.Abs(x1-x0) < 1e-10*math.Max(1, x1) {
-			return x1, nil
+		if math.Abs(x1-x0) < 1e-9*math.Max(1, x1) {
+			return x1
 		}
 	}
 	// Secant stalled: bisect on a bracket (PTukey is monotone).
@@ -247,7 +260,7 @@ func QTukey(p float64, k int, df float64) (float64, error) {
 	for pt(hi) < p {
 		hi *= 2
 		if hi > 1e6 {
-			return hi, nil
+			return hi
 		}
 	}
 	for i := 0; i < 200 && hi-lo > 1e-12*hi; i++ {
@@ -258,20 +271,22 @@ func QTukey(p float64, k int, df float64) (float64, error) {
 			hi = mid
 		}
 	}
-	return 0.5 * (lo + hi), nil
+	return 0.5 * (lo + hi)
 }
 
 // grpQTukeyStart is the starting value of Copenhaver and Holland (1988)
-// for the quantile (from Odeh and Evans' normal quantile approximation).
+// for the quantile, built on the normal quantile approximation of Odeh
+// and Evans (1974, "Algorithm AS 70: the percentage points of the normal
+// distribution", Appl. Statist. 23, 96-97), whose constants are these.
 func grpQTukeyStart(p, c, v float64) float64 {
 	const (
-		p0   = 0.322232421088
+		p0   = -0.322232431088
 		q0   = 0.993484626060e-01
 		p1   = -1.0
 		q1   = 0.588581570495
 		p2   = -0.342242088547
 		q2   = 0.531103462366
-		p3   = -0.204231210125
+		p3   = -0.0204231210245
 		q3   = 0.103537752850
 		p4   = -0.453642210148e-04
 		q4   = 0.38560700634e-02
