@@ -286,3 +286,20 @@ func TestGrpPairRank(t *testing.T) {
 		}
 	}
 }
+
+// Samples too small for the requested level under the normal
+// approximation (ties force it): the interval is the whole range of the
+// differences, as R's wilcox.test returns (its root search stops at
+// min(x) - max(y) and max(x) - min(y)), and AchievedLevel says how much
+// it covers (below Level). R 4.2.2: wilcox.test(c(10,10,12), c(11,13,13),
+// conf.int = TRUE)$conf.int is -3, 1.
+func TestGrpMannWhitneySmallTied(t *testing.T) {
+	x, y := []int64{10, 10, 12}, []int64{11, 13, 13}
+	r, err := MannWhitney(x, y, 0.95)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Exact || r.Lo != 10-13 || r.Hi != 12-11 || !(r.AchievedLevel < 0.95 && r.AchievedLevel > 0) {
+		t.Errorf("%+v", r)
+	}
+}
