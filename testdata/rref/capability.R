@@ -139,10 +139,12 @@ fits <- function(s, x) {
     f <- fitdistr(x, "lognormal"); out(s, "lognormal_mu", f$estimate[1]); out(s, "lognormal_sigma", f$estimate[2])
     out(s, "lognormal_ll", f$loglik)
     if (n > 7) { at <- ad.test(log(x)); out(s, "lognormal_ad", at$statistic); out(s, "lognormal_p", at$p.value) }
-    f <- suppressWarnings(fitdistr(x, "weibull", control = list(reltol = 1e-14)))
-    out(s, "weibull_shape", f$estimate[1]); out(s, "weibull_scale", f$estimate[2]); out(s, "weibull_ll", f$loglik)
-    out(s, "weibull_ad", ad(pweibull(x, f$estimate[1], f$estimate[2])))
-    out(s, "weibull_q99865", qweibull(0.99865, f$estimate[1], f$estimate[2]))
+    f <- tryCatch(suppressWarnings(fitdistr(x, "weibull", control = list(reltol = 1e-14))), error = function(e) NULL)
+    if (!is.null(f)) {
+      out(s, "weibull_shape", f$estimate[1]); out(s, "weibull_scale", f$estimate[2]); out(s, "weibull_ll", f$loglik)
+      out(s, "weibull_ad", ad(pweibull(x, f$estimate[1], f$estimate[2])))
+      out(s, "weibull_q99865", qweibull(0.99865, f$estimate[1], f$estimate[2]))
+    }
     # gamma: optim on the log-likelihood in log parameters (fitdistr's
     # bounded search stops early on near-normal data)
     nllg <- function(p) -sum(dgamma(x, exp(p[1]), scale = exp(p[2]), log = TRUE))
