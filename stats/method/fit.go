@@ -185,8 +185,9 @@ var fitThinTo = 4096
 //
 // x need not be sorted (a sorted x is used as is, else a sorted copy).
 // With more distinct values than 4096, the threshold of the 3-parameter
-// families and the Box-Cox lambda are located on 4096 groups of equal count
-// (each at its mean); the other parameters, the likelihood and A² are then
+// families and the Box-Cox lambda are located on a summary: the 1024
+// smallest distinct values as they are and the others in 3072 groups of
+// equal count (each at its mean); the other parameters, the likelihood and A² are then
 // computed on all values. Never panics; a NaN or infinite value gives
 // Reason FitReasonNonFinite and no candidate; constant data give every
 // candidate FitReasonConstant.
@@ -235,16 +236,24 @@ func fitCompress(xs []float64) *fitData {
 	return fd
 }
 
-// fitThin groups the distinct values into at most m points of about equal
-// count, each at the weighted mean of its group.
+// fitThin keeps the smallest m/4 distinct values (they decide a threshold)
+// and groups the others into about 3m/4 points of equal count, each at the
+// weighted mean of its group.
 func fitThin(d, w []float64, n float64, m int) ([]float64, []float64) {
 	if len(d) <= m {
 		return d, w
 	}
-	td, tw := make([]float64, 0, m+1), make([]float64, 0, m+1)
-	per := n / float64(m)
+	keep := m / 4
+	td, tw := make([]float64, 0, m+2), make([]float64, 0, m+2)
+	td = append(td, d[:keep]...)
+	tw = append(tw, w[:keep]...)
+	rest := n
+	for _, v := range w[:keep] {
+		rest -= v
+	}
+	per := rest / float64(m-keep)
 	var sw, swd float64
-	for i := range d {
+	for i := keep; i < len(d); i++ {
 		sw += w[i]
 		swd += w[i] * d[i]
 		if sw >= per || i == len(d)-1 {
@@ -370,10 +379,11 @@ func fitOne(fam string, fd *fitData) FitCandidate {
 }
 
 // fitThresholdSearch maximises a profile log-likelihood over the offset
-// tau = min - threshold > 0 on a log grid from spread·e^-10 to spread·e^6,
-// then by golden section around the highest interior local maximum.
+// tau = min - threshold > 0 on a log grid from spread·e^-18 to spread·e^6
+// (step 0.5), then by golden section around the highest interior local
+// maximum.
 func fitThresholdSearch(prof func(float64) float64, spread float64) (float64, bool) {
-	const lo, hi, m = -10.0, 6.0, 33
+	const lo, hi, m = -18.0, 6.0, 49
 	s := make([]float64, m)
 	v := make([]float64, m)
 	for i := range s {
