@@ -380,10 +380,10 @@ func fitOne(fam string, fd *fitData) FitCandidate {
 
 // fitThresholdSearch maximises a profile log-likelihood over the offset
 // tau = min - threshold > 0 on a log grid from spread·e^-18 to spread·e^6
-// (step 0.5), then by golden section around the highest interior local
-// maximum.
+// (step 0.75), then by golden section (to 1e-5 in log tau) around the
+// highest interior local maximum.
 func fitThresholdSearch(prof func(float64) float64, spread float64) (float64, bool) {
-	const lo, hi, m = -18.0, 6.0, 49
+	const lo, hi, m = -18.0, 6.0, 33
 	s := make([]float64, m)
 	v := make([]float64, m)
 	for i := range s {
@@ -405,7 +405,7 @@ func fitThresholdSearch(prof func(float64) float64, spread float64) (float64, bo
 	g := (math.Sqrt(5) - 1) / 2
 	c1, c2 := b-g*(b-a), a+g*(b-a)
 	f1, f2 := prof(spread*math.Exp(c1)), prof(spread*math.Exp(c2))
-	for it := 0; it < 40 && b-a > 1e-6; it++ {
+	for it := 0; it < 40 && b-a > 1e-5; it++ {
 		if f1 >= f2 {
 			b, c2, f2 = c2, c1, f1
 			c1 = b - g*(b-a)
@@ -428,8 +428,7 @@ func fitThresholdSearch(prof func(float64) float64, spread float64) (float64, bo
 type fitNormalModel struct{ mr, sigma float64 }
 
 func (m fitNormalModel) logCDFs(d float64) (float64, float64) {
-	z := (d - m.mr) / m.sigma
-	return fitLogPhi(z), fitLogPhi(-z)
+	return fitLogPhis((d - m.mr) / m.sigma)
 }
 func (m fitNormalModel) quantile(p float64) float64 {
 	return m.mr + m.sigma*mathext.NormalQuantile(p)
@@ -457,6 +456,17 @@ func fitNormal(fd *fitData, c *FitCandidate) bool {
 	return true
 }
 
+// fitLogPhis returns log Φ(z) and log Φ(-z), computing the smaller tail
+// and the other from it by log1p.
+func fitLogPhis(z float64) (float64, float64) {
+	if z < 0 {
+		l := fitLogPhi(z)
+		return l, math.Log1p(-math.Exp(l))
+	}
+	l := fitLogPhi(-z)
+	return math.Log1p(-math.Exp(l)), l
+}
+
 // fitLogPhi is log Φ(z), with the asymptotic series in the far lower tail.
 func fitLogPhi(z float64) float64 {
 	if z > -30 {
@@ -475,8 +485,7 @@ func (m fitLognModel) logCDFs(d float64) (float64, float64) {
 	if d+m.c <= 0 {
 		return math.Inf(-1), 0
 	}
-	z := (math.Log1p(d/m.c) - m.mur) / m.sigma
-	return fitLogPhi(z), fitLogPhi(-z)
+	return fitLogPhis((math.Log1p(d/m.c) - m.mur) / m.sigma)
 }
 func (m fitLognModel) quantile(p float64) float64 {
 	return m.c*math.Exp(m.mur+m.sigma*mathext.NormalQuantile(p)) - m.c
@@ -626,7 +635,13 @@ func (m fitGamModel) logCDFs(d float64) (float64, float64) {
 		return math.Inf(-1), 0
 	}
 	x := (1 + d/m.c) / m.br
-	return math.Log(mathext.GammaIncReg(m.a, x)), math.Log(mathext.GammaIncRegComp(m.a, x))
+	// one incomplete gamma function: the smaller tail, the other by log1p
+	if x < m.a {
+		p := mathext.GammaIncReg(m.a, x)
+		return math.Log(p), math.Log1p(-p)
+	}
+	q := mathext.GammaIncRegComp(m.a, x)
+	return math.Log1p(-q), math.Log(q)
 }
 func (m fitGamModel) quantile(p float64) float64 {
 	return m.c * (m.br*mathext.GammaIncRegInv(m.a, p) - 1)
@@ -731,8 +746,7 @@ func (m fitBoxCoxModel) logCDFs(d float64) (float64, float64) {
 	if m.min+d <= 0 {
 		return math.Inf(-1), 0
 	}
-	z := (fitBCT(math.Log1p(d/m.min)-m.ml, m.lambda) - m.mu) / m.sigma
-	return fitLogPhi(z), fitLogPhi(-z)
+	return fitLogPhis((fitBCT(math.Log1p(d/m.min)-m.ml, m.lambda) - m.mu) / m.sigma)
 }
 func (m fitBoxCoxModel) quantile(p float64) float64 {
 	t := m.mu + m.sigma*mathext.NormalQuantile(p)
