@@ -158,7 +158,7 @@ type fitData struct {
 
 // fitThinTo bounds the points used to search thresholds and the Box-Cox
 // lambda (see FitDistributions).
-var fitThinTo = 4096
+var fitThinTo = 2048
 
 // FitDistributions fits the candidate distributions to x by maximum
 // likelihood and chooses one for the percentile method of ISO 22514-2.
@@ -184,9 +184,9 @@ var fitThinTo = 4096
 // (FitReasonNoAdequate).
 //
 // x need not be sorted (a sorted x is used as is, else a sorted copy).
-// With more distinct values than 4096, the threshold of the 3-parameter
-// families and the Box-Cox lambda are located on a summary: the 1024
-// smallest distinct values as they are and the others in 3072 groups of
+// With more distinct values than 2048, the threshold of the 3-parameter
+// families and the Box-Cox lambda are located on a summary: the 512
+// smallest distinct values as they are and the others in 1536 groups of
 // equal count (each at its mean); the other parameters, the likelihood and A² are then
 // computed on all values. Never panics; a NaN or infinite value gives
 // Reason FitReasonNonFinite and no candidate; constant data give every
