@@ -297,7 +297,7 @@ func ParseRequest(in []byte) (Request, error) {
 		}
 		if json.Unmarshal(in, &raw) == nil {
 			for _, k := range []struct {
-				key string
+				key  string
 				zero bool
 				def  string
 			}{{"confidence", req.Options.Confidence == 0, "0.95"}, {"coverage", req.Options.Coverage == 0, "0.99"}, {"cpkGoal", req.Options.CpkGoal == 0, "1.33"}} {
