@@ -107,6 +107,7 @@ func AnalyzeTable(tab *ingest.Table, fingerprint string, req Request) (*Report, 
 		}
 	}
 	cv.seq, cv.outOfOrder = cols.orderSequence()
+	cv.subgroup = cols.subgroup
 	if cols.order != nil {
 		rep.Input.Order = cols.order.Name
 	}
@@ -132,6 +133,9 @@ type colView struct {
 	// into vals), from the request's order column; nil means row order.
 	seq        []int32
 	outOfOrder int // rows out of order in the file, by the order column
+	// subgroup is the request's subgroup column (nil when none), aligned
+	// with vals.
+	subgroup *ingest.Column
 }
 
 // maxIncompleteListed bounds the incomplete rows listed per optional column.
@@ -198,6 +202,18 @@ func checkOptions(o Options) (Options, error) {
 	case "", "comma", "point":
 	default:
 		return o, errorf(CodeBadOption, "options.decimalMark", "decimal mark %q is not known: use \"comma\", \"point\" or leave it empty to decide from the data", o.DecimalMark)
+	}
+	if o.Coverage == 0 {
+		o.Coverage = DefaultCoverage
+	}
+	if !(o.Coverage >= 0.5 && o.Coverage < 1) {
+		return o, errorf(CodeBadOption, "options.coverage", "coverage %g is not between 0.5 and 1: use e.g. 0.99 for 99 %% of parts", o.Coverage)
+	}
+	if o.CpkGoal == 0 {
+		o.CpkGoal = DefaultCpkGoal
+	}
+	if !(o.CpkGoal > 0 && o.CpkGoal <= 10) {
+		return o, errorf(CodeBadOption, "options.cpkGoal", "Cpk goal %g is not between 0 and 10: use e.g. 1.33 or 1.67", o.CpkGoal)
 	}
 	if o.Quantile == "" {
 		o.Quantile = DefaultQuantile
@@ -275,13 +291,19 @@ func ParseRequest(in []byte) (Request, error) {
 	if dec.More() {
 		return Request{}, errorf(CodeBadRequest, "", "the request has more than one JSON value: send one object")
 	}
-	if req.Options.Confidence == 0 {
+	if req.Options.Confidence == 0 || req.Options.Coverage == 0 || req.Options.CpkGoal == 0 {
 		var raw struct {
 			Options map[string]json.RawMessage `json:"options"`
 		}
 		if json.Unmarshal(in, &raw) == nil {
-			if _, given := raw.Options["confidence"]; given {
-				return Request{}, errorf(CodeBadOption, "options.confidence", "confidence 0 is not a confidence level: use e.g. 0.95 for 95%%, or leave it out for the default 0.95")
+			for _, k := range []struct {
+				key  string
+				zero bool
+				def  string
+			}{{"confidence", req.Options.Confidence == 0, "0.95"}, {"coverage", req.Options.Coverage == 0, "0.99"}, {"cpkGoal", req.Options.CpkGoal == 0, "1.33"}} {
+				if _, given := raw.Options[k.key]; given && k.zero {
+					return Request{}, errorf(CodeBadOption, "options."+k.key, "%s 0 is not a usable setting: leave it out for the default %s", k.key, k.def)
+				}
 			}
 		}
 	}

@@ -21,7 +21,7 @@ import (
 // reads a column: add its name here.
 var columnReaders = map[string][]string{
 	"order":    {"over time (run chart)"},
-	"subgroup": nil,
+	"subgroup": {"against the spec (within-process sigma)"},
 	"group":    nil,
 }
 

@@ -244,6 +244,25 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 		}
 	}
 
+	// Against the spec.
+	if opts.LSL != nil || opts.USL != nil {
+		in := specInput{sorted: sorted, mean: mo.mean, sd: rep.Spread.SD, step: step}
+		if n >= 2 && !constant {
+			in.within = estimateWithin(cv, cv.subgroup, opts.WithinSigma)
+		}
+		if sh := rep.Shape; sh != nil {
+			if t := sh.Shapiro; t != nil {
+				in.normalP, in.normalTest = &t.P, fmt.Sprintf("Shapiro-Wilk %s", pText(t.P))
+			} else if t := sh.Large; t != nil {
+				in.normalP, in.normalTest = &t.P, fmt.Sprintf("%s %s", t.Name, pText(t.P))
+			}
+		}
+		var notes []Note
+		rep.Spec, notes = buildSpec(in, opts)
+		rep.Notes = append(rep.Notes, notes...)
+		rep.Settings.Coverage, rep.Settings.CpkGoal = opts.Coverage, opts.CpkGoal
+	}
+
 	// Charts.
 	ch := &Charts{}
 	ch.Histogram = histogram(sorted, qs.Q3-qs.Q1, step)

@@ -65,6 +65,11 @@ type Options struct {
 	// "moving-range", "median-moving-range", "pooled-sd", "mean-range",
 	// "mean-sd".
 	WithinSigma string `json:"withinSigma,omitempty"`
+	// Coverage is the fraction of parts a tolerance interval claims
+	// (default DefaultCoverage, 0.99); CpkGoal the level the spec section
+	// compares Cpk's lower bound with (default DefaultCpkGoal, 1.33).
+	Coverage float64 `json:"coverage,omitempty"`
+	CpkGoal  float64 `json:"cpkGoal,omitempty"`
 }
 
 // DefaultQuantile is the quantile definition used when the request names none.
@@ -85,6 +90,7 @@ type Report struct {
 	Shape    *Shape     `json:"shape,omitempty"`
 	Suspects *Suspects  `json:"suspects,omitempty"`
 	Target   *Target    `json:"target,omitempty"`
+	Spec     *Spec      `json:"spec,omitempty"`
 	Charts   *Charts    `json:"charts,omitempty"`
 	Notes    []Note     `json:"notes,omitempty"`
 }
@@ -118,6 +124,9 @@ type Settings struct {
 	LSL        *float64  `json:"lsl,omitempty"`
 	USL        *float64  `json:"usl,omitempty"`
 	Excluded   []Reading `json:"excluded,omitempty"` // the user's exclusions, listed
+	// Coverage and CpkGoal as applied (with a specification limit).
+	Coverage float64 `json:"coverage,omitempty"`
+	CpkGoal  float64 `json:"cpkGoal,omitempty"`
 }
 
 // Counts of the value column.
