@@ -203,6 +203,12 @@ func Decode(s string) (Payload, error) {
 	if len(s) < len(LinkPrefix) {
 		return Payload{}, errOf(CodeTruncated, what, "")
 	}
+	// Only the 64 characters of base64url (the decoder would skip line breaks).
+	for i := 0; i < len(s); i++ {
+		if !isB64(s[i]) {
+			return Payload{}, errOf(CodeCorrupt, what, " (it holds a character a link never has)")
+		}
+	}
 	// Decode the complete groups of four characters strictly; a last
 	// partial group may be the cut end of a longer link.
 	full := len(s) - len(s)%4
@@ -213,11 +219,6 @@ func Decode(s string) (Payload, error) {
 	}
 	ragged := false
 	if r := s[full:]; len(r) > 0 {
-		for i := 0; i < len(r); i++ {
-			if !isB64(r[i]) {
-				return Payload{}, errOf(CodeCorrupt, what, " (it holds a character a link never has)")
-			}
-		}
 		if len(r) == 1 {
 			ragged = true
 		} else {
