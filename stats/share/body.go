@@ -1,6 +1,8 @@
 package share
 
 import (
+	"bytes"
+	"compress/flate"
 	"crypto/sha256"
 	"encoding/binary"
 	"errors"
@@ -14,28 +16,84 @@ const (
 	formTable = 1 // lines, cells and fixed-point columns (table.go)
 )
 
-// chooseForm gives the smaller of the raw and table forms of text, as the
-// bytes that follow the form byte in the body. The table form is used only
-// when it regenerates text byte for byte (checked here, not assumed).
-func chooseForm(text string) []byte {
-	raw := append([]byte{formRaw}, text...)
-	tab, ok := encodeTable(text)
+// build makes the body of p and its compressed form: the table form of the
+// text when it gives back the text byte for byte (checked here, not assumed)
+// and compresses smaller, else the raw form.
+func build(p Payload) (body, z []byte, form byte) {
+	head := encodeBody(p, nil)
+	raw := func() ([]byte, []byte) {
+		body := append(append(head[:len(head):len(head)], formRaw), p.Text...)
+		return body, compress(body, nil, false)
+	}
+	tab, streams, ok := encodeTableStreams(p.Text)
+	if ok {
+		if back, err := decodeTable(tab, len(p.Text)); err != nil || back != p.Text {
+			ok = false
+		}
+	}
 	if !ok {
-		return raw
+		body, z = raw()
+		return body, z, formRaw
 	}
-	if back, err := decodeTable(tab, len(text)); err != nil || back != text {
-		return raw
+	body = append(append(head[:len(head):len(head)], formTable), tab...)
+	z = compress(body, streams, true)
+	// The table form is usually far smaller; compress the raw form too
+	// only when it is not clearly so.
+	if len(tab) < len(p.Text)/2 {
+		return body, z, formTable
 	}
-	tab = append([]byte{formTable}, tab...)
-	// The table form is usually far smaller; compare compressed sizes only
-	// when it is not clearly so.
-	if len(tab) < len(raw)/2 {
-		return tab
+	if rb, rz := raw(); len(rz) < len(z) {
+		return rb, rz, formRaw
 	}
-	if deflatedLen(tab) <= deflatedLen(raw) {
-		return tab
+	return body, z, formTable
+}
+
+// compress deflates body as one stream of segments: the part before the
+// tail streams, then each stream (streams of under 1 KB join the segment
+// before). Each segment is compressed alone, with Lempel-Ziv matching
+// (best compression) or, when smaller, with Huffman coding only: readings
+// scattered about a centre have no repeats worth matching, and matching
+// costs them about 10 %. Segments but the last end in a sync flush, which
+// leaves the stream byte-aligned, so that the next starts a new block.
+func compress(body []byte, streams []int, tryHuffman bool) []byte {
+	tail := 0
+	for _, n := range streams {
+		tail += n
 	}
-	return raw
+	cuts := []int{len(body) - tail}
+	for _, n := range streams {
+		if n < 1024 {
+			cuts[len(cuts)-1] += n
+		} else {
+			cuts = append(cuts, n)
+		}
+	}
+	var out []byte
+	for i, n := range cuts {
+		seg := body[:n]
+		body = body[n:]
+		last := i == len(cuts)-1
+		z := deflateSeg(seg, flate.BestCompression, last)
+		if tryHuffman {
+			if h := deflateSeg(seg, flate.HuffmanOnly, last); len(h) < len(z) {
+				z = h
+			}
+		}
+		out = append(out, z...)
+	}
+	return out
+}
+
+func deflateSeg(b []byte, level int, last bool) []byte {
+	var z bytes.Buffer
+	w, _ := flate.NewWriter(&z, level)
+	w.Write(b)
+	if last {
+		w.Close()
+	} else {
+		w.Flush()
+	}
+	return z.Bytes()
 }
 
 // encodeBody writes the body (see the package comment) with the text form

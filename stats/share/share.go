@@ -152,15 +152,12 @@ func Marshal(p Payload) ([]byte, error) {
 	if len(p.Text) > MaxDecoded {
 		return nil, &Error{CodeTooLarge, fmt.Sprintf("The data are %d MB, more than the 64 MB a shared analysis can hold: share a smaller extract.", len(p.Text)>>20)}
 	}
-	body := encodeBody(p, chooseForm(p.Text))
+	body, zbody, _ := build(p)
 	if len(body) > MaxDecoded {
 		return nil, &Error{CodeTooLarge, "The shared analysis would be larger than 64 MB: share a smaller extract."}
 	}
-	var z bytes.Buffer
-	z.Write(make([]byte, headerLen))
-	w, _ := flate.NewWriter(&z, flate.BestCompression)
-	w.Write(body)
-	w.Close()
+	z := bytes.NewBuffer(make([]byte, headerLen, headerLen+len(zbody)+trailerLen))
+	z.Write(zbody)
 	out := z.Bytes()
 	copy(out, magic[:])
 	out[3] = Version

@@ -1,7 +1,6 @@
 package share
 
 import (
-	"compress/flate"
 	"encoding/binary"
 	"errors"
 	"math"
@@ -225,10 +224,16 @@ func (c *column) add(num bool) {
 }
 
 // encodeTable codes text in the table form; ok is false when the text does
-// not suit it (too many columns).
+// not suit it (too many columns). The columns' value sections come last, in
+// column order; streams gives their lengths (for the compressor).
 func encodeTable(text string) (out []byte, ok bool) {
+	out, _, ok = encodeTableStreams(text)
+	return out, ok
+}
+
+func encodeTableStreams(text string) (out []byte, streams []int, ok bool) {
 	if text == "" {
-		return nil, false
+		return nil, nil, false
 	}
 	sep := chooseSep(text)
 	var cols []*column
@@ -268,7 +273,7 @@ func encodeTable(text string) (out []byte, ok bool) {
 		return true
 	})
 	if tooWide {
-		return nil, false
+		return nil, nil, false
 	}
 	for _, c := range cols {
 		c.mark = '.'
@@ -322,6 +327,7 @@ func encodeTable(text string) (out []byte, ok bool) {
 	for _, v := range fieldRuns {
 		out = binary.AppendUvarint(out, v)
 	}
+	var vals [][]byte
 	for _, c := range cols {
 		out = append(out, c.mark)
 		out = binary.AppendUvarint(out, uint64(len(c.runs)))
@@ -329,7 +335,6 @@ func encodeTable(text string) (out []byte, ok bool) {
 			out = binary.AppendUvarint(out, v)
 		}
 		out = binary.AppendUvarint(out, uint64(len(c.texts)))
-		var vals []byte
 		if len(c.vals) > 0 {
 			out = binary.AppendUvarint(out, uint64(len(c.decRuns)/2))
 			for _, v := range c.decRuns {
@@ -340,13 +345,16 @@ func encodeTable(text string) (out []byte, ok bool) {
 			if mode == modeBase {
 				out = binary.AppendVarint(out, base)
 			}
-			vals = v
-			out = binary.AppendUvarint(out, uint64(len(vals)))
+			vals = append(vals, v)
+			out = binary.AppendUvarint(out, uint64(len(v)))
 		}
 		out = append(out, c.texts...)
-		out = append(out, vals...)
 	}
-	return out, true
+	for _, v := range vals {
+		out = append(out, v...)
+		streams = append(streams, len(v))
+	}
+	return out, streams, true
 }
 
 func b2u(b bool) byte {
@@ -402,18 +410,6 @@ func entropyBits(b []byte) float64 {
 	}
 	return bits
 }
-
-func deflatedLen(b []byte) int {
-	var cw countWriter
-	w, _ := flate.NewWriter(&cw, flate.BestCompression)
-	w.Write(b)
-	w.Close()
-	return int(cw)
-}
-
-type countWriter int
-
-func (c *countWriter) Write(p []byte) (int, error) { *c += countWriter(len(p)); return len(p), nil }
 
 // colReader gives one column's cells back while decoding.
 type colReader struct {
@@ -510,6 +506,7 @@ func decodeTable(body []byte, tlen int) (string, error) {
 		cells[j-1] += cells[j]
 	}
 	cols := make([]colReader, ncols)
+	nv := make([]int, ncols) // bytes of each column's values
 	for j := range cols {
 		c := &cols[j]
 		c.mark = r.byte()
@@ -561,7 +558,14 @@ func decodeTable(body []byte, tlen int) (string, error) {
 			nvals = r.count(len(r.b))
 		}
 		c.texts = reader{b: r.bytes(ntext)}
-		c.vals = reader{b: r.bytes(nvals)}
+		nv[j] = nvals
+		if r.bad {
+			return "", errTable
+		}
+	}
+	for j := range cols {
+		c := &cols[j]
+		c.vals = reader{b: r.bytes(nv[j])}
 		if r.bad {
 			return "", errTable
 		}
