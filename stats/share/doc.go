@@ -91,7 +91,8 @@
 //	             from 0), 1 offsets from a base
 //	    varint   the base (coding 1 only)
 //	    uvarint  bytes of the column's value section
-//	  the text section: each text cell as a str
+//	  the text section: each text cell as a uvarint, the bytes it shares
+//	  with the start of the column's previous text cell, then a str, the rest
 //	then the value sections of the columns with numbers, in column order:
 //	each number as a varint, in units of the column's largest decimals
 //	(12.3 in a column with up to 2 decimals is 1230; it is written back with

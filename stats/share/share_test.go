@@ -329,12 +329,12 @@ func TestBomb(t *testing.T) {
 	}
 	// A table form whose lines would make more text than it declares.
 	tab := []byte{eolLF, 0, 0}
-	tab = binary.AppendUvarint(tab, 60)    // lines
-	tab = binary.AppendUvarint(tab, 1)     // one run
-	tab = binary.AppendUvarint(tab, 1)     // of one field
-	tab = binary.AppendUvarint(tab, 60)    // for 60 lines
-	tab = append(tab, '.', 1, 60, 60)      // column: one text run of 60 cells, 60 bytes of text...
-	tab = append(tab, make([]byte, 60)...) // ...all empty
+	tab = binary.AppendUvarint(tab, 60)     // lines
+	tab = binary.AppendUvarint(tab, 1)      // one run
+	tab = binary.AppendUvarint(tab, 1)      // of one field
+	tab = binary.AppendUvarint(tab, 60)     // for 60 lines
+	tab = append(tab, '.', 1, 60, 120)      // column: one text run of 60 cells, 120 bytes of text:
+	tab = append(tab, make([]byte, 120)...) // each cell 0 bytes shared, 0 more
 	if got, err := decodeTable(tab, 59); err != nil || got != strings.Repeat("\n", 59) {
 		t.Errorf("the hand-made table: %q, %v", got, err)
 	}

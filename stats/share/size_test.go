@@ -5,6 +5,9 @@ import (
 	"compress/flate"
 	"encoding/base64"
 	"encoding/json"
+	"fmt"
+	"math/rand/v2"
+	"strings"
 	"testing"
 )
 
@@ -66,6 +69,27 @@ func TestSizes(t *testing.T) {
 		if len(s) >= old {
 			t.Errorf("%d readings: %d characters, not smaller than before (%d)", n, len(s), old)
 		}
+	}
+}
+
+// TestSizesTable logs a table of 10,000 rows as a spreadsheet copies it: a
+// time, a line label and a reading, tab-separated, CRLF.
+func TestSizesTable(t *testing.T) {
+	rng := rand.New(rand.NewPCG(5, 5))
+	var b strings.Builder
+	b.WriteString("Sampled at\tLine\tFill weight (g)\r\n")
+	for i := 0; i < 10000; i++ {
+		fmt.Fprintf(&b, "2026-11-%02d %02d:%02d\t%c\t%.2f\r\n", 16+i/288, i/12%24, i*5%60, "AB"[rng.IntN(2)], 5+0.03*rng.NormFloat64())
+	}
+	text := b.String()
+	s, err := Encode(Payload{Created: 1795000000, Text: text, Value: "Fill weight (g)", Order: "Sampled at", Group: "Line"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	old := todayLink(t, text)
+	t.Logf("10000-row table: text %d B, link %d characters, before %d characters (%.1fx smaller)", len(text), len(s), old, float64(old)/float64(len(s)))
+	if len(s) >= old {
+		t.Errorf("not smaller than before")
 	}
 }
 

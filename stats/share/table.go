@@ -208,6 +208,7 @@ type column struct {
 	runs    []uint64 // alternate text, number runs; the first is text
 	num     bool     // the current run's kind
 	texts   []byte   // the text section
+	last    string   // the previous text cell
 	decRuns []uint64 // pairs (decimals, run)
 	vals    []int64  // scaled to dmax decimals
 }
@@ -308,7 +309,15 @@ func encodeTableStreams(text string) (out []byte, streams []int, ok bool) {
 			}
 			c.add(ok)
 			if !ok {
-				c.texts = appendString(c.texts, cell)
+				// Front coding: the bytes shared with the column's
+				// previous text cell, then the rest (times, codes).
+				k := 0
+				for k < len(cell) && k < len(c.last) && cell[k] == c.last[k] {
+					k++
+				}
+				c.texts = binary.AppendUvarint(c.texts, uint64(k))
+				c.texts = appendString(c.texts, cell[k:])
+				c.last = cell
 				return
 			}
 			c.vals = append(c.vals, m)
@@ -418,6 +427,7 @@ type colReader struct {
 	left    uint64 // cells left in the current run
 	num     bool
 	texts   reader
+	last    []byte // the previous text cell
 	decRuns reader
 	decLeft uint64
 	dec     int
@@ -440,8 +450,10 @@ func (c *colReader) next(b []byte) ([]byte, bool) {
 	}
 	c.left--
 	if !c.num {
+		k := c.texts.count(len(c.last))
 		s := c.texts.bytes(c.texts.count(len(c.texts.b)))
-		return append(b, s...), !c.texts.bad
+		c.last = append(c.last[:k], s...)
+		return append(b, c.last...), !c.texts.bad
 	}
 	for c.decLeft == 0 {
 		if len(c.decRuns.b) == 0 {
