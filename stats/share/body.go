@@ -124,7 +124,7 @@ func encodeBody(p Payload, form []byte) []byte {
 			b = binary.LittleEndian.AppendUint64(b, math.Float64bits(*v))
 		}
 	}
-	for _, s := range []string{o.Quantile, o.Unit, o.DecimalMark} {
+	for _, s := range []string{o.Quantile, o.Unit, o.DecimalMark, o.WithinSigma} {
 		b = appendString(b, s)
 	}
 	b = binary.AppendUvarint(b, uint64(len(o.Exclude)))
@@ -248,7 +248,7 @@ func decodeBody(body []byte) (Payload, error) {
 	}
 	o.PopulationSD = flags&8 != 0
 	o.Confidence = r.f64()
-	o.Quantile, o.Unit, o.DecimalMark = r.str(), r.str(), r.str()
+	o.Quantile, o.Unit, o.DecimalMark, o.WithinSigma = r.str(), r.str(), r.str(), r.str()
 	// Rows are 64-bit ints on every target (amd64, js/wasm): the deltas
 	// wrap the same way in both directions, so any row comes back.
 	if n := r.count(len(r.b)); n > 0 {

@@ -196,6 +196,7 @@ func genPayload(rng *rand.Rand, text string) Payload {
 	o.PopulationSD = rng.IntN(2) == 0
 	o.Unit = []string{"", "g", "N·m", "µm"}[rng.IntN(4)]
 	o.DecimalMark = []string{"", "comma", "point"}[rng.IntN(3)]
+	o.WithinSigma = []string{"", "moving-range", "pooled-sd"}[rng.IntN(3)]
 	if k := rng.IntN(6); k > 0 {
 		for i := 0; i < k; i++ {
 			o.Exclude = append(o.Exclude, rng.IntN(400)+1)

@@ -80,6 +80,7 @@ type Options struct {
 	PopulationSD bool     `json:"populationSD,omitempty"`
 	Exclude      []int    `json:"exclude,omitempty"`
 	DecimalMark  string   `json:"decimalMark,omitempty"`
+	WithinSigma  string   `json:"withinSigma,omitempty"`
 }
 
 // Fingerprint is the hex SHA-256 of Text: the fingerprint the engine reports

@@ -84,9 +84,6 @@ func TestSameReport(t *testing.T) {
 				Quantile: []string{"", "hf6", "tukey"}[rng.IntN(3)], PopulationSD: rng.IntN(2) == 0,
 				Exclude: []int{2 + rng.IntN(rows), 2 + rng.IntN(rows)}},
 		}
-		if rng.IntN(2) == 0 {
-			p.Group = "Line"
-		}
 		s, err := share.Encode(p)
 		if err != nil {
 			t.Fatal(err)
