@@ -11,7 +11,7 @@ import (
 	"testing"
 )
 
-// todayLink is the size of the page's link before this package (site/app.js,
+// todayLink is the size of the page's link before this package (site/share.js,
 // makeShareLink): JSON.stringify of {v, text, name, cols, options}, deflated
 // ("deflate-raw", zlib's default level; flate.DefaultCompression here), then
 // base64url without padding. Only the payload after "#d=" is counted.
