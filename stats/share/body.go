@@ -119,7 +119,7 @@ func encodeBody(p Payload, form []byte) []byte {
 		flags |= 8
 	}
 	b = append(b, flags)
-	for _, v := range []*float64{o.Target, o.LSL, o.USL, &o.Confidence} {
+	for _, v := range []*float64{o.Target, o.LSL, o.USL, &o.Confidence, &o.Coverage, &o.CpkGoal} {
 		if v != nil {
 			b = binary.LittleEndian.AppendUint64(b, math.Float64bits(*v))
 		}
@@ -248,6 +248,8 @@ func decodeBody(body []byte) (Payload, error) {
 	}
 	o.PopulationSD = flags&8 != 0
 	o.Confidence = r.f64()
+	o.Coverage = r.f64()
+	o.CpkGoal = r.f64()
 	o.Quantile, o.Unit, o.DecimalMark, o.WithinSigma = r.str(), r.str(), r.str(), r.str()
 	// Rows are 64-bit ints on every target (amd64, js/wasm): the deltas
 	// wrap the same way in both directions, so any row comes back.

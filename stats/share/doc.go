@@ -52,7 +52,7 @@
 //	str×4   value, order, subgroup, group column choices
 //	byte    flags: 1 target, 2 lsl, 4 usl, 8 populationSD (other bits 0)
 //	f64     target, lsl, usl: each only when its flag is set
-//	f64     confidence (0: the default)
+//	f64     confidence, coverage, cpkGoal (0: the default)
 //	str×4   quantile, unit, decimalMark, withinSigma
 //	uvarint count of excluded rows, then each row as a varint difference
 //	        from the previous one (the first from 0), in the request's order

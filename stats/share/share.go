@@ -81,6 +81,8 @@ type Options struct {
 	Exclude      []int    `json:"exclude,omitempty"`
 	DecimalMark  string   `json:"decimalMark,omitempty"`
 	WithinSigma  string   `json:"withinSigma,omitempty"`
+	Coverage     float64  `json:"coverage,omitempty"`
+	CpkGoal      float64  `json:"cpkGoal,omitempty"`
 }
 
 // Fingerprint is the hex SHA-256 of Text: the fingerprint the engine reports
