@@ -1,6 +1,7 @@
 package stats
 
 import (
+	"math"
 	"math/rand/v2"
 	"runtime"
 	"runtime/debug"
@@ -225,6 +226,44 @@ func BenchmarkCoreNoMethods1M(b *testing.B) {
 	for i := 0; i < b.N; i++ {
 		if _, err := AnalyzeTable(tab, "", Request{}); err != nil {
 			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkAnalyzeSpec1M is the full analysis with both limits and a
+// target (the spec section on top of Analyze1M); BenchmarkAnalyzeSpecSkewed1M
+// the same on right-skewed readings (lognormal, typed to 0.01), where the
+// normal is rejected and the candidate distributions are fitted.
+func BenchmarkAnalyzeSpec1M(b *testing.B) {
+	text := benchData(1_000_000)
+	lsl, usl, target := 495.0, 505.0, 500.0
+	b.SetBytes(int64(len(text)))
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if _, err := Analyze(Request{Text: text, Options: Options{LSL: &lsl, USL: &usl, Target: &target}}); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+func BenchmarkAnalyzeSpecSkewed1M(b *testing.B) {
+	r := rand.New(rand.NewPCG(13, 14))
+	var sb strings.Builder
+	for i := 0; i < 1_000_000; i++ {
+		sb.WriteString(strconv.FormatFloat(2+math.Exp(1.9+0.45*r.NormFloat64()), 'f', 2, 64))
+		sb.WriteByte('\n')
+	}
+	text := sb.String()
+	usl := 40.0
+	b.SetBytes(int64(len(text)))
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		rep, err := Analyze(Request{Text: text, Options: Options{USL: &usl}})
+		if err != nil {
+			b.Fatal(err)
+		}
+		if rep.Spec == nil || rep.Spec.Model == nil {
+			b.Fatal("no fitted model")
 		}
 	}
 }

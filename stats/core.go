@@ -246,7 +246,7 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 
 	// Against the spec.
 	if opts.LSL != nil || opts.USL != nil {
-		in := specInput{sorted: sorted, mean: mo.mean, sd: rep.Spread.SD, step: step}
+		in := specInput{sorted: sorted, mean: mo.mean, sd: rep.Spread.SD, step: step, distinct: distinct}
 		if n >= 2 && !constant {
 			in.within = estimateWithin(cv, cv.subgroup, opts.WithinSigma)
 		}

@@ -134,3 +134,21 @@ func TestSpecSubgroupsPooled(t *testing.T) {
 		t.Fatalf("within %+v, want pooled-sd %g with 6 df", w, 0.1/c4)
 	}
 }
+
+// TestThinSorted: evenly spaced order statistics, ascending, from the
+// middle of each of m equal slices (by the formula in thinSorted).
+func TestThinSorted(t *testing.T) {
+	x := make([]float64, 1000)
+	for i := range x {
+		x[i] = float64(i)
+	}
+	got := thinSorted(x, 10)
+	for i, v := range got {
+		if want := float64(50 + 100*i); v != want {
+			t.Fatalf("thinSorted[%d] = %g, want %g", i, v, want)
+		}
+	}
+	if len(thinSorted(x[:5], 10)) != 5 {
+		t.Error("short input should come back whole")
+	}
+}
