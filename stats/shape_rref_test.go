@@ -8,6 +8,8 @@ import (
 	"strconv"
 	"strings"
 	"testing"
+
+	"lotlens/stats/method"
 )
 
 // Reference values for the methods: testdata/rref/methods.tsv, written by
@@ -100,7 +102,7 @@ func TestShapeR(t *testing.T) {
 	checked := 0
 	for set, r := range ref {
 		x, mean, sd := methodsSet(t, set)
-		sh, _ := shapeSection(x, mean, sd)
+		sh, _ := shapeSection(x, mean, sd, gridFor(x))
 		var cs []mCheck
 		add := func(stat string, got *float64, rel, abs float64) {
 			cs = append(cs, mCheck{stat, got, rel, abs})
@@ -147,7 +149,7 @@ func TestShapeR(t *testing.T) {
 		} else {
 			add("adA", nil, 0, 0)
 		}
-		if len(x) > shapiroMaxN && (sh.Large == nil || sh.Large.Statistic != sh.Omnibus.Statistic) {
+		if len(x) > method.ShapiroMaxN && (sh.Large == nil || sh.Large.Statistic != sh.Omnibus.Statistic) {
 			t.Errorf("%s: above 5000 values the large-sample test should be the K² test", set)
 		}
 		checked += runChecks(t, set, r, cs)
