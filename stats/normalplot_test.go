@@ -36,4 +36,3 @@ func TestProbPlotSmall(t *testing.T) {
 		}
 	}
 }
-

@@ -104,7 +104,14 @@ func TestShapeR(t *testing.T) {
 		x, mean, sd := methodsSet(t, set)
 		sh, _ := shapeSection(x, mean, sd, gridFor(x))
 		var cs []mCheck
+		// R's moments on the offset set carry about 9 significant digits
+		// (binary sums of powers of values near 1e6); ours are exact
+		// (TestExactShapeLRE checks 14 digits against Python fractions).
+		loose := set == "12-offset-n200.txt"
 		add := func(stat string, got *float64, rel, abs float64) {
+			if loose && rel > 0 && stat != "swW" && stat != "swP" && stat != "adA" && stat != "adP" && stat != "SES" && stat != "SEK" {
+				rel = 1e-7
+			}
 			cs = append(cs, mCheck{stat, got, rel, abs})
 		}
 		if sh.Skewness != nil {

@@ -93,4 +93,3 @@ func TestAndersonDarlingTable(t *testing.T) {
 		t.Errorf("A² = %.15g, direct %.15g", a, want)
 	}
 }
-

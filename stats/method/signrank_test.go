@@ -67,4 +67,3 @@ func TestSignRankDistribution(t *testing.T) {
 		t.Errorf("qsignrank(0.025, 10) = %d", q)
 	}
 }
-
