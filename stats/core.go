@@ -31,7 +31,7 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 
 	vals, dec, rows := cv.vals, cv.dec, cv.rows
 	xs := make([]float64, 0, len(vals))
-	var sums decimal.Sums
+	onGrid := true // every value a plain decimal held exactly
 	maxD := int8(0)
 	allFixed := true
 	found := map[int32]bool{}
@@ -57,7 +57,9 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 		} else if d > maxD {
 			maxD = d
 		}
-		sums.Add(x, d)
+		if onGrid {
+			_, onGrid = decimal.Mantissa(x, int(d))
+		}
 	}
 	for r := range excl {
 		if !found[r] {
@@ -87,7 +89,7 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	// The decimal grid: every value a plain decimal with at most maxD
 	// decimals (checked value by value in the sums).
 	var grid decimal.Grid
-	if allFixed && sums.OK() {
+	if allFixed && onGrid {
 		grid, _ = decimal.NewGrid(int(maxD))
 	}
 	sorted := xs
@@ -97,10 +99,16 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	xs = nil
 	lo, hi := sorted[0], sorted[n-1]
 
+	// Moments: exact sums of powers on the grid, else compensated binary.
 	var mo moments
-	if dm, ok := sums.Moments(); ok {
-		mo = fromDecimal(dm)
-	} else {
+	var ps *decimal.PowerSums
+	if grid.Valid() && grid.Holds(sorted) {
+		p := grid.PowerSums(sorted)
+		if dm, ok := p.Moments(grid); ok {
+			mo, ps = fromDecimal(dm), &p
+		}
+	}
+	if ps == nil {
 		mo = compensatedMoments(sorted, lo, hi)
 	}
 	s := newSample(sorted, grid, mo, quantileDef(opts.Quantile), opts.Quantile)
@@ -143,7 +151,7 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 
 	// Shape, suspects, target.
 	if n >= 3 && !s.constant {
-		shape, notes := shapeSection(sorted, s.mo.mean, s.mo.sd, s.grid)
+		shape, notes := shapeSection(sorted, s.mo.mean, s.mo.sd, ps)
 		rep.Shape = shape
 		rep.Notes = append(rep.Notes, notes...)
 	} else if s.constant {

@@ -6,9 +6,9 @@ import (
 	"lotlens/stats/decimal"
 )
 
-// moments is the outcome of the first-pass arithmetic: exact on the
-// decimals as typed (decimal.Sums) or, for other data, compensated binary
-// arithmetic (compensatedMoments).
+// moments are the mean and variance: exact on the decimals as typed
+// (decimal.PowerSums) or, for other data, compensated binary arithmetic
+// (compensatedMoments).
 type moments struct {
 	n      int
 	mean   float64

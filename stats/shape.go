@@ -12,9 +12,9 @@ import (
 const largeTestMinN = method.ShapiroMaxN + 1
 
 // shapeSection builds the shape section from the ascending data: mean and
-// sd (divisor n-1) are the best available; grid, when valid, holds every
-// value (the decimals as typed), and the moments then come from exact sums
-// (method.ShapeExact), else from binary arithmetic (method.ShapeBinary).
+// sd (divisor n-1) are the best available; ps, when not nil, are the exact
+// sums of powers of the decimals as typed, and the moments then come from
+// them (method.ShapeExact), else from binary arithmetic (method.ShapeBinary).
 //
 //   - Skewness G1 and excess kurtosis G2 with their standard errors (Joanes
 //     and Gill 1998), see method.ShapeMoments.
@@ -27,7 +27,7 @@ const largeTestMinN = method.ShapiroMaxN + 1
 //     (n >= 8; D'Agostino and Stephens 1986).
 //
 // Figures that cannot be computed are left out, each with a Note.
-func shapeSection(sorted []float64, mean, sd float64, grid decimal.Grid) (*Shape, []Note) {
+func shapeSection(sorted []float64, mean, sd float64, ps *decimal.PowerSums) (*Shape, []Note) {
 	n := len(sorted)
 	var notes []Note
 	note := func(field, format string, a ...any) {
@@ -44,8 +44,8 @@ func shapeSection(sorted []float64, mean, sd float64, grid decimal.Grid) (*Shape
 	}
 	var sm method.ShapeMoments
 	ok := false
-	if grid.Valid() && grid.Holds(sorted) {
-		sm, ok = method.ShapeExact(grid.PowerSums(sorted))
+	if ps != nil {
+		sm, ok = method.ShapeExact(*ps)
 	}
 	if !ok {
 		sm, ok = method.ShapeBinary(sorted, mean, sd)

@@ -47,3 +47,14 @@ func gridFor(x []float64) decimal.Grid {
 	}
 	return decimal.Grid{}
 }
+
+// powerSumsFor is the exact sums of powers of ascending x on its grid
+// (gridFor), nil when x has none.
+func powerSumsFor(x []float64) *decimal.PowerSums {
+	g := gridFor(x)
+	if !g.Valid() || !g.Holds(x) {
+		return nil
+	}
+	ps := g.PowerSums(x)
+	return &ps
+}

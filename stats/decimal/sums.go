@@ -8,79 +8,15 @@ import (
 
 // Exact sums of decimal data.
 //
-// Sums of m and m² are kept exactly in 128-bit integers, one accumulator
-// per decimal count, while the reader's values stream past (before any
-// sorting), and combined at the end in big integers, so that the mean, the
-// variance and the SD are the correctly rounded values of the decimal data
-// as typed (the method of the NIST StRD certified values, which are exact in
-// decimal arithmetic). PowerSums adds the third and fourth powers about a
-// centre, for the shape statistics.
-
-// acc128 holds the count, the sum (signed 128-bit) and the sum of squares
-// (unsigned 128-bit) of the mantissas with one decimal count.
-type acc128 struct {
-	n          int64
-	sLo        uint64
-	sHi        int64
-	qLo, qHi   uint64
-	overflowed bool
-}
-
-func (a *acc128) add(m int64) {
-	a.n++
-	var c uint64
-	a.sLo, c = bits.Add64(a.sLo, uint64(m), 0)
-	a.sHi += (m >> 63) + int64(c)
-	u := uint64(m)
-	if m < 0 {
-		u = uint64(-m)
-	}
-	hi, lo := bits.Mul64(u, u)
-	a.qLo, c = bits.Add64(a.qLo, lo, 0)
-	a.qHi += hi + c
-	if a.qHi >= 1<<62 {
-		a.overflowed = true
-	}
-}
-
-func (a *acc128) sum() *big.Int {
-	hi := new(big.Int).SetInt64(a.sHi)
-	hi.Lsh(hi, 64)
-	return hi.Add(hi, new(big.Int).SetUint64(a.sLo))
-}
-
-func (a *acc128) sumSq() *big.Int {
-	hi := new(big.Int).SetUint64(a.qHi)
-	hi.Lsh(hi, 64)
-	return hi.Add(hi, new(big.Int).SetUint64(a.qLo))
-}
-
-// Sums collects plain decimal values (value and decimal count as the reader
-// gives them). The zero value is ready to use.
-type Sums struct {
-	bad bool
-	acc [MaxScale + 1]acc128
-}
-
-// Add adds x typed with d decimals (d < 0: not a plain decimal, which makes
-// the sums unusable).
-func (s *Sums) Add(x float64, d int8) {
-	if s.bad {
-		return
-	}
-	m, ok := Mantissa(x, int(d))
-	if !ok {
-		s.bad = true
-		return
-	}
-	s.acc[d].add(m)
-}
-
-// OK tells whether every value added was a plain decimal held exactly.
-func (s *Sums) OK() bool { return !s.bad }
+// The sums of the first four powers of the mantissas about a centre are
+// kept exactly (192-bit accumulators, big integers at the end), so that the
+// mean, the variance, the SD and the shape moments are the correctly
+// rounded values of the decimal data as typed (the method of the NIST StRD
+// certified values, which are exact in decimal arithmetic).
 
 // Moments are the mean and the variance of the values, each the correctly
-// rounded value of the exact figure (SD: rounded from a 200-bit square root).
+// rounded value of the exact figure (the SDs rounded from 256-bit square
+// roots).
 type Moments struct {
 	N     int
 	Mean  float64
@@ -88,66 +24,38 @@ type Moments struct {
 	VarN  float64 // divisor n
 	SD    float64 // sqrt(VarN1)
 	PopSD float64 // sqrt(VarN)
-	Scale int     // the largest decimal count seen
 }
 
-// Moments combines the accumulators; ok is false when a value was not a
-// plain decimal, nothing was added, or a sum overflowed its 128 bits.
-func (s *Sums) Moments() (mo Moments, ok bool) {
-	if s.bad {
+// Moments combines the sums (taken on grid g) into the mean and variance:
+// mean = C + S1/n and n²·var_n = n·S2 - S1² in mantissa units, exactly.
+func (ps PowerSums) Moments(g Grid) (mo Moments, ok bool) {
+	if ps.N == 0 || ps.S[1] == nil {
 		return mo, false
 	}
-	D := -1
-	var n int64
-	for d := range s.acc {
-		if s.acc[d].n > 0 {
-			if s.acc[d].overflowed {
-				return mo, false
-			}
-			D = d
-			n += s.acc[d].n
-		}
-	}
-	if D < 0 || n == 0 {
-		return mo, false
-	}
-	S := new(big.Int)
-	Q := new(big.Int)
-	ten := big.NewInt(10)
-	for d := 0; d <= D; d++ {
-		a := &s.acc[d]
-		if a.n == 0 {
-			continue
-		}
-		k := new(big.Int).Exp(ten, big.NewInt(int64(D-d)), nil)
-		sm := a.sum()
-		sm.Mul(sm, k)
-		S.Add(S, sm)
-		q := a.sumSq()
-		q.Mul(q, k)
-		q.Mul(q, k)
-		Q.Add(Q, q)
-	}
-	scale := new(big.Int).Exp(ten, big.NewInt(int64(D)), nil) // 10^D
+	n := ps.N
 	bn := big.NewInt(n)
-	mo = Moments{N: int(n), Scale: D}
-	// mean = S / (n 10^D)
-	den := new(big.Int).Mul(bn, scale)
-	mo.Mean, _ = new(big.Rat).SetFrac(S, den).Float64()
-	// n Q - S^2 = n^2 * (sum of squared deviations) * 10^(2D)
-	num := new(big.Int).Mul(bn, Q)
-	num.Sub(num, new(big.Int).Mul(S, S))
+	scale := g.Denom()
+	mo.N = int(n)
+	// mean = (C·n + S1) / (n·10^D)
+	num := new(big.Int).Mul(big.NewInt(ps.C), bn)
+	num.Add(num, ps.S[1])
+	mo.Mean = Float64(new(big.Rat).SetFrac(num, new(big.Int).Mul(bn, scale)))
+	// A = n·S2 - S1² = n²·var_n·10^(2D)
+	A := new(big.Int).Mul(bn, ps.S[2])
+	A.Sub(A, new(big.Int).Mul(ps.S[1], ps.S[1]))
 	scale2 := new(big.Int).Mul(scale, scale)
 	if n >= 2 {
 		d1 := new(big.Int).Mul(bn, big.NewInt(n-1))
 		d1.Mul(d1, scale2)
-		mo.VarN1, _ = new(big.Rat).SetFrac(num, d1).Float64()
-		mo.SD = SqrtRat(new(big.Rat).SetFrac(num, d1))
+		v := new(big.Rat).SetFrac(A, d1)
+		mo.VarN1 = Float64(v)
+		mo.SD = SqrtRat(v)
 	}
 	d2 := new(big.Int).Mul(bn, bn)
 	d2.Mul(d2, scale2)
-	mo.VarN, _ = new(big.Rat).SetFrac(num, d2).Float64()
-	mo.PopSD = SqrtRat(new(big.Rat).SetFrac(num, d2))
+	v := new(big.Rat).SetFrac(A, d2)
+	mo.VarN = Float64(v)
+	mo.PopSD = SqrtRat(v)
 	return mo, true
 }
 
@@ -237,32 +145,55 @@ func (g Grid) PowerSums(sorted []float64) PowerSums {
 	ps.C = c
 	var a1, a2, a3, a4 acc192
 	var bd, bp, bt *big.Int
-	for _, x := range sorted {
+	// Sorted values come in runs of equal values (measurements repeat):
+	// each run's powers are computed once and multiplied by its length.
+	for i := 0; i < n; {
+		x := sorted[i]
+		j := i + 1
+		for j < n && sorted[j] == x {
+			j++
+		}
+		cnt := uint64(j - i)
 		d := g.M(x) - c
 		u := uint64(d)
 		if d < 0 {
 			u = uint64(-d)
 		}
-		if u < 1<<31 {
+		if u < 1<<15 { // u⁴ < 2^60: one 128-bit product per power
 			u2 := u * u
-			a1.addS128(0, u, d < 0)
-			a2.addS128(0, u2, false)
-			h, l := bits.Mul64(u2, u)
+			h, l := bits.Mul64(u, cnt)
+			a1.addS128(h, l, d < 0)
+			h, l = bits.Mul64(u2, cnt)
+			a2.addS128(h, l, false)
+			h, l = bits.Mul64(u2*u, cnt)
 			a3.addS128(h, l, d < 0)
-			h, l = bits.Mul64(u2, u2)
+			h, l = bits.Mul64(u2*u2, cnt)
 			a4.addS128(h, l, false)
+			i = j
 			continue
 		}
-		if bd == nil {
-			bd, bp, bt = new(big.Int), new(big.Int), new(big.Int)
-		}
-		bd.SetInt64(d)
-		bp.Set(bd)
-		for k := 1; k <= 4; k++ {
-			if k > 1 {
-				bp.Mul(bp, bd)
+		for ; i < j; i++ {
+			if u < 1<<31 {
+				u2 := u * u
+				a1.addS128(0, u, d < 0)
+				a2.addS128(0, u2, false)
+				h, l := bits.Mul64(u2, u)
+				a3.addS128(h, l, d < 0)
+				h, l = bits.Mul64(u2, u2)
+				a4.addS128(h, l, false)
+				continue
 			}
-			ps.S[k].Add(ps.S[k], bt.Set(bp))
+			if bd == nil {
+				bd, bp, bt = new(big.Int), new(big.Int), new(big.Int)
+			}
+			bd.SetInt64(d)
+			bp.Set(bd)
+			for k := 1; k <= 4; k++ {
+				if k > 1 {
+					bp.Mul(bp, bd)
+				}
+				ps.S[k].Add(ps.S[k], bt.Set(bp))
+			}
 		}
 	}
 	ps.S[1].Add(ps.S[1], a1.big())
@@ -311,17 +242,24 @@ func (ps PowerSums) CentralSums() (a, b, c *big.Int) {
 }
 
 // Sum is the exact sum of the mantissas of the values (which must lie on
-// g), in mantissa units.
+// g), in mantissa units. Equal neighbours (sorted data) are summed as runs.
 func (g Grid) Sum(xs []float64) *big.Int {
-	var lo uint64
-	var hi int64
-	for _, x := range xs {
+	var acc acc192
+	// runs of equal values (sorted data) cost one product each
+	for i := 0; i < len(xs); {
+		x := xs[i]
+		j := i + 1
+		for j < len(xs) && xs[j] == x {
+			j++
+		}
 		m := g.M(x)
-		var c uint64
-		lo, c = bits.Add64(lo, uint64(m), 0)
-		hi += (m >> 63) + int64(c)
+		u := uint64(m)
+		if m < 0 {
+			u = uint64(-m)
+		}
+		h, l := bits.Mul64(u, uint64(j-i))
+		acc.addS128(h, l, m < 0)
+		i = j
 	}
-	r := new(big.Int).SetInt64(hi)
-	r.Lsh(r, 64)
-	return r.Add(r, new(big.Int).SetUint64(lo))
+	return acc.big()
 }

@@ -108,15 +108,33 @@ func MedianAbsDevExact(sorted []float64, g decimal.Grid, med2 int64) *big.Rat {
 			hi = h
 		}
 	}
+	// di, dj: the next deviation of each run (-1 when the run is spent)
 	i, j := lo-1, lo
+	di, dj := int64(-1), int64(-1)
+	if i >= 0 {
+		di = med2 - 2*g.M(sorted[i])
+	}
+	if j < n {
+		dj = 2*g.M(sorted[j]) - med2
+	}
 	next := func() int64 {
-		if j >= n || (i >= 0 && med2-2*g.M(sorted[i]) <= 2*g.M(sorted[j])-med2) {
-			d := med2 - 2*g.M(sorted[i])
+		if dj < 0 || (di >= 0 && di <= dj) {
+			d := di
 			i--
+			if i >= 0 {
+				di = med2 - 2*g.M(sorted[i])
+			} else {
+				di = -1
+			}
 			return d
 		}
-		d := 2*g.M(sorted[j]) - med2
+		d := dj
 		j++
+		if j < n {
+			dj = 2*g.M(sorted[j]) - med2
+		} else {
+			dj = -1
+		}
 		return d
 	}
 	var a int64
