@@ -339,3 +339,24 @@ func readSmallTSV(t *testing.T, path string) map[string]map[string]float64 {
 	}
 	return out
 }
+
+// Exponent-form input keeps the binary path and the report says so; plain
+// decimals do not carry that note.
+func TestBinaryFallbackNoted(t *testing.T) {
+	has := func(rep *Report) bool {
+		for _, n := range rep.Notes {
+			if n.Field == "counts.decimals" && strings.Contains(n.Text, "binary floating point") {
+				return true
+			}
+		}
+		return false
+	}
+	rep, _ := Analyze(Request{Text: lines("1.2e1", "13", "14.5", "12.25")})
+	if !has(rep) {
+		t.Errorf("exponent form: no note in %+v", rep.Notes)
+	}
+	rep, _ = Analyze(Request{Text: lines("12", "13", "14.5", "12.25")})
+	if has(rep) {
+		t.Errorf("plain decimals: note %+v", rep.Notes)
+	}
+}
