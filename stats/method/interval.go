@@ -6,30 +6,30 @@ import (
 	"gonum.org/v1/gonum/stat/distuv"
 )
 
-// Interval is a two-sided confidence interval with the level it achieves.
-type Interval struct {
+// TwoSidedInterval is a two-sided confidence interval with the level it achieves.
+type TwoSidedInterval struct {
 	Lo, Hi, Level float64
 }
 
 // MeanInterval is the Student t interval for the mean (Student 1908):
 // mean ± t(1-α/2, n-1)·s/√n. ok is false for n < 2, sd <= 0, or limits
 // beyond the float64 range (values near 1e308).
-func MeanInterval(mean, sd float64, n int, conf float64) (iv Interval, ok bool) {
-	if n < 2 || !(sd > 0) || !finite(sd) {
+func MeanInterval(mean, sd float64, n int, conf float64) (iv TwoSidedInterval, ok bool) {
+	if n < 2 || !(sd > 0) || !normalFinite(sd) {
 		return iv, false
 	}
 	t := distuv.StudentsT{Mu: 0, Sigma: 1, Nu: float64(n - 1)}.Quantile(1 - (1-conf)/2)
 	h := t * (sd / math.Sqrt(float64(n)))
-	iv = Interval{Lo: mean - h, Hi: mean + h, Level: conf}
-	return iv, finite(iv.Lo) && finite(iv.Hi)
+	iv = TwoSidedInterval{Lo: mean - h, Hi: mean + h, Level: conf}
+	return iv, normalFinite(iv.Lo) && normalFinite(iv.Hi)
 }
 
 // SDInterval is the chi-square interval for the standard deviation of a
 // normal population: s·sqrt((n-1)/χ²(1-α/2, n-1)) to s·sqrt((n-1)/χ²(α/2,
 // n-1)) (e.g. Montgomery, Introduction to Statistical Quality Control,
 // 2009, 4.3). It assumes normal data.
-func SDInterval(sd float64, n int, conf float64) (iv Interval, ok bool) {
-	if n < 2 || !(sd > 0) || !finite(sd) {
+func SDInterval(sd float64, n int, conf float64) (iv TwoSidedInterval, ok bool) {
+	if n < 2 || !(sd > 0) || !normalFinite(sd) {
 		return iv, false
 	}
 	a := 1 - conf
@@ -40,8 +40,8 @@ func SDInterval(sd float64, n int, conf float64) (iv Interval, ok bool) {
 	if !(loQ > 0) || !(hiQ > 0) {
 		return iv, false
 	}
-	iv = Interval{Lo: sd * math.Sqrt(k/hiQ), Hi: sd * math.Sqrt(k/loQ), Level: conf}
-	return iv, finite(iv.Lo) && finite(iv.Hi)
+	iv = TwoSidedInterval{Lo: sd * math.Sqrt(k/hiQ), Hi: sd * math.Sqrt(k/loQ), Level: conf}
+	return iv, normalFinite(iv.Lo) && normalFinite(iv.Hi)
 }
 
 // BinomialHalfCDF is P(B <= k) for B ~ Binomial(n, 1/2), gonum's
@@ -81,4 +81,4 @@ func MedianInterval(n int, conf float64) (k int, level float64, reached bool) {
 	return k, level, reached
 }
 
-func studentT(df float64) distuv.StudentsT { return distuv.StudentsT{Mu: 0, Sigma: 1, Nu: df} }
+func intervalStudentT(df float64) distuv.StudentsT { return distuv.StudentsT{Mu: 0, Sigma: 1, Nu: df} }

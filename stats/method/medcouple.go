@@ -448,7 +448,7 @@ func Medcouple(sorted []float64) (mc float64, ok bool) {
 	if math.Abs(mc) < mcZero {
 		mc = 0
 	}
-	return mc, finite(mc)
+	return mc, normalFinite(mc)
 }
 
 // mcZero is the magnitude below which the medcouple is reported as 0.
@@ -499,10 +499,10 @@ func medcoupleMiddle(sorted []float64) (lo, hi float64, ok bool) {
 	}
 	if N%2 == 1 {
 		v, _ := imSelectHint(mx, kk, false, hint)
-		return v, v, finite(v)
+		return v, v, normalFinite(v)
 	}
 	a, b := imSelectHint(mx, kk, true, hint)
-	return a, b, finite(a) && finite(b)
+	return a, b, normalFinite(a) && normalFinite(b)
 }
 
 // Skeleton of the medcouple for large samples (see medcoupleMiddle);

@@ -76,7 +76,7 @@ func ShapeExact(ps decimal.PowerSums) (s ShapeMoments, ok bool) {
 		s.HasKurtosis = true
 	}
 	momStdErrors(&s)
-	return s, finite(s.G1) && finite(s.G2)
+	return s, normalFinite(s.G1) && normalFinite(s.G2)
 }
 
 // ShapeBinary computes the shape moments in binary floating point, for
@@ -85,7 +85,7 @@ func ShapeExact(ps decimal.PowerSums) (s ShapeMoments, ok bool) {
 // compensation. mean and sd (divisor n-1) should be the best available.
 func ShapeBinary(sorted []float64, mean, sd float64) (s ShapeMoments, ok bool) {
 	n := len(sorted)
-	if n < 3 || !(sd > 0) || !finite(sd) || !finite(mean) {
+	if n < 3 || !(sd > 0) || !normalFinite(sd) || !normalFinite(mean) {
 		return s, false
 	}
 	fn := float64(n)
@@ -112,5 +112,5 @@ func ShapeBinary(sorted []float64, mean, sd float64) (s ShapeMoments, ok bool) {
 		s.HasKurtosis = true
 	}
 	momStdErrors(&s)
-	return s, finite(s.G1) && finite(s.G2)
+	return s, normalFinite(s.G1) && normalFinite(s.G2)
 }

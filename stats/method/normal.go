@@ -49,4 +49,4 @@ func LogNormalCDF(z float64) float64 {
 	return -0.5*z*z - math.Log(-z) - 0.5*math.Log(2*math.Pi) + math.Log(s)
 }
 
-func finite(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }
+func normalFinite(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }

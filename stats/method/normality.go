@@ -25,7 +25,7 @@ func DAgostinoSkewZ(g1 float64, n int) (float64, bool) {
 	alpha := math.Sqrt(2 / (w2 - 1))
 	r := y / alpha
 	z := delta * math.Asinh(r) // ln(r + √(r²+1))
-	return z, finite(z)
+	return z, normalFinite(z)
 }
 
 // AnscombeGlynnZ is the Anscombe and Glynn (1983) normal approximation for
@@ -43,7 +43,7 @@ func AnscombeGlynnZ(b2 float64, n int) (float64, bool) {
 	}
 	t := math.Cbrt((1 - 2/a) / den) // signed cube root
 	z := ((1 - 2/(9*a)) - t) / math.Sqrt(2/(9*a))
-	return z, finite(z)
+	return z, normalFinite(z)
 }
 
 // Table of log Φ for large samples: cubic Hermite interpolation on a grid
@@ -274,7 +274,7 @@ func ShapiroWilk(x []float64, mean float64) (w, pw float64, ok bool) {
 		if pw > 1 {
 			pw = 1
 		}
-		return w, pw, finite(w) && finite(pw)
+		return w, pw, normalFinite(w) && normalFinite(pw)
 	}
 	y := math.Log(w1)
 	lxx := math.Log(an)
@@ -282,7 +282,7 @@ func ShapiroWilk(x []float64, mean float64) (w, pw float64, ok bool) {
 	if n <= 11 {
 		gamma := swPoly(g, an)
 		if y >= gamma {
-			return w, 1e-99, finite(w) // as AS R94 / swilk.c: an "obvious" value
+			return w, 1e-99, normalFinite(w) // as AS R94 / swilk.c: an "obvious" value
 		}
 		y = -math.Log(gamma - y)
 		m = swPoly(c3, an)
@@ -292,5 +292,5 @@ func ShapiroWilk(x []float64, mean float64) (w, pw float64, ok bool) {
 		s = math.Exp(swPoly(c6, lxx))
 	}
 	pw = NormalSF((y - m) / s)
-	return w, pw, finite(w) && finite(pw)
+	return w, pw, normalFinite(w) && normalFinite(pw)
 }

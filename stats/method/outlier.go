@@ -193,7 +193,7 @@ func GESD(sorted []float64, alpha float64, r int) (steps []GESDStep, outliers in
 		c += x
 	}
 	c /= float64(n)
-	if !finite(c) {
+	if !normalFinite(c) {
 		c = sorted[n/2]
 	}
 	moments := func(lo, hi int) (s1, s2 float64) {
@@ -215,7 +215,7 @@ func GESD(sorted []float64, alpha float64, r int) (steps []GESDStep, outliers in
 		fn := float64(nn)
 		mean := c + s1/fn
 		v := (s2 - s1*s1/fn) / (fn - 1)
-		if !(v > 0) || !finite(v) {
+		if !(v > 0) || !normalFinite(v) {
 			break
 		}
 		sd := math.Sqrt(v)
@@ -229,7 +229,7 @@ func GESD(sorted []float64, alpha float64, r int) (steps []GESDStep, outliers in
 		p := 1 - alpha/(2*fn)
 		tq := distuv.StudentsT{Mu: 0, Sigma: 1, Nu: fn - 2}.Quantile(p)
 		lam := (fn - 1) * tq / math.Sqrt((fn-2+tq*tq)*fn)
-		if !finite(R) || !finite(lam) {
+		if !normalFinite(R) || !normalFinite(lam) {
 			break
 		}
 		steps = append(steps, GESDStep{Index: idx, R: R, Lambda: lam})

@@ -104,7 +104,7 @@ func SignedRank(sorted []float64, mu float64) (r SignedRankResult, ok bool) {
 		z = (z - corr) / r.Sigma
 		r.P = math.Min(1, 2*math.Min(NormalCDF(z), NormalSF(z)))
 	}
-	return r, finite(r.P) && finite(V)
+	return r, normalFinite(r.P) && normalFinite(V)
 }
 
 // SignedRankInterval gives the 1-based ranks kLo <= kHi of the Walsh
@@ -275,19 +275,19 @@ type OneSampleT struct {
 // TTest computes OneSampleT from the mean and SD (divisor n-1) of n values;
 // ok is false when n < 2, sd <= 0 or a figure is not finite.
 func TTest(mean, sd float64, n int, mu, conf float64) (r OneSampleT, ok bool) {
-	if n < 2 || !(sd > 0) || !finite(mu) {
+	if n < 2 || !(sd > 0) || !normalFinite(mu) {
 		return r, false
 	}
 	fn := float64(n)
 	se := sd / math.Sqrt(fn)
 	r.DF = fn - 1
 	r.T = (mean - mu) / se
-	if !finite(r.T) {
+	if !normalFinite(r.T) {
 		return r, false
 	}
-	st := studentT(r.DF)
+	st := intervalStudentT(r.DF)
 	r.P = math.Min(1, 2*st.Survival(math.Abs(r.T)))
 	h := st.Quantile(1-(1-conf)/2) * se
 	r.Lo, r.Hi = mean-h, mean+h
-	return r, finite(r.P) && finite(r.Lo) && finite(r.Hi)
+	return r, normalFinite(r.P) && normalFinite(r.Lo) && normalFinite(r.Hi)
 }
