@@ -14,6 +14,7 @@ import (
 	"testing"
 	"time"
 
+	"lotlens/stats/decimal"
 	"lotlens/stats/ingest"
 )
 
@@ -200,7 +201,7 @@ func BenchmarkSort1M(b *testing.B) {
 	b.Run("radix", func(b *testing.B) {
 		for i := 0; i < b.N; i++ {
 			copy(xs, src)
-			sortFloats(xs)
+			decimal.SortFloats(xs)
 		}
 	})
 	b.Run("slices.Sort", func(b *testing.B) {
@@ -210,26 +211,6 @@ func BenchmarkSort1M(b *testing.B) {
 		}
 	})
 }
-
-// BenchmarkCoreNoMethods1M is the engine without the methods' sections
-// (shape, probability plot, suspects, target): the core's own share.
-func BenchmarkCoreNoMethods1M(b *testing.B) {
-	text := benchData(1_000_000)
-	tab, err := ingest.Read(text)
-	if err != nil {
-		b.Fatal(err)
-	}
-	s, p, o, t := hookShape, hookProbPlot, hookOutliers, hookTarget
-	hookShape, hookProbPlot, hookOutliers, hookTarget = nil, nil, nil, nil
-	defer func() { hookShape, hookProbPlot, hookOutliers, hookTarget = s, p, o, t }()
-	b.ResetTimer()
-	for i := 0; i < b.N; i++ {
-		if _, err := AnalyzeTable(tab, "", Request{}); err != nil {
-			b.Fatal(err)
-		}
-	}
-}
-
 // BenchmarkAnalyzeSpec1M is the full analysis with both limits and a
 // target (the spec section on top of Analyze1M); BenchmarkAnalyzeSpecSkewed1M
 // the same on right-skewed readings (lognormal, typed to 0.01), where the

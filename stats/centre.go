@@ -1,0 +1,58 @@
+package stats
+
+import (
+	"fmt"
+	"math"
+	"math/big"
+
+	"lotlens/stats/decimal"
+	"lotlens/stats/method"
+)
+
+// buildCentre fills the centre section: mean and median with their
+// intervals, the 10% trimmed mean, the modes. An interval that cannot be
+// computed (values near 1e308) is left out with a Note; the rest stays.
+func buildCentre(rep *Report, s *sample, opts Options, maxRun int, cv *colView) *Centre {
+	n := s.n
+	c := &Centre{Mean: s.mo.mean, Median: s.median.f, Trimmed10: s.trimmedMean(0.1)}
+	if !s.constant {
+		if iv, ok := method.MeanInterval(s.mo.mean, s.mo.sd, n, opts.Confidence); ok {
+			c.MeanCI = &Interval{Lo: iv.Lo, Hi: iv.Hi, Level: iv.Level, Method: "student-t"}
+		} else if n >= 2 {
+			rep.Notes = append(rep.Notes, Note{Field: "centre.meanCI", Text: "the interval for the mean is omitted: its limits are beyond the range of double-precision numbers for these values"})
+		}
+		if k, level, reached := method.MedianInterval(n, opts.Confidence); k > 0 {
+			c.MedianCI = &Interval{Lo: s.sorted[k-1], Hi: s.sorted[n-k], Level: level, Method: "order-statistics"}
+			if !reached {
+				rep.Notes = append(rep.Notes, Note{Field: "centre.medianCI", Text: fmt.Sprintf("with %d values no order-statistic interval reaches %s; the widest one (minimum to maximum) reaches %s", n, pct(opts.Confidence), pct(level))})
+			}
+		}
+	} else {
+		rep.Notes = append(rep.Notes, Note{Field: "centre.meanCI", Text: "all values are equal: no interval for the mean or the median can be computed"})
+	}
+	if n < 2 {
+		rep.Notes = append(rep.Notes, Note{Field: "centre.meanCI", Text: "one value: no interval, SD or shape can be computed"})
+	}
+	modes(c, s.sorted, maxRun, cv)
+	return c
+}
+
+// trimmedMean is the mean of the values left after removing floor(n·trim)
+// from each end, as R's mean(x, trim) (R 4.2.2) does (Tukey and McLaughlin
+// 1963): exact on the decimals as typed, else a Neumaier compensated sum
+// (Neumaier 1974).
+func (s *sample) trimmedMean(trim float64) float64 {
+	n := s.n
+	lo := int(math.Floor(float64(n)*trim)) + 1
+	hi := n + 1 - lo
+	if lo > hi {
+		return s.median.f
+	}
+	part := s.sorted[lo-1 : hi]
+	if s.exact {
+		sum := s.grid.Sum(part)
+		den := new(big.Int).Mul(big.NewInt(int64(len(part))), s.grid.Denom())
+		return decimal.Float64(new(big.Rat).SetFrac(sum, den))
+	}
+	return compensatedMoments(part, part[0], part[len(part)-1]).mean
+}

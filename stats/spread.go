@@ -1,0 +1,50 @@
+package stats
+
+import (
+	"math"
+
+	"lotlens/stats/method"
+)
+
+// buildSpread fills the spread section: range, SD with its interval,
+// variance, IQR and MAD (exact on the decimals as typed), SEM, CV.
+func buildSpread(rep *Report, s *sample, opts Options) *Spread {
+	n := s.n
+	lo, hi := s.sorted[0], s.sorted[n-1]
+	rng := hi - lo
+	if s.exact {
+		// 0.3 - 0.1 is 0.2, not 0.19999999999999998
+		rng = s.grid.Float(s.grid.M(hi) - s.grid.M(lo))
+	}
+	mad := scaled(s.mad(), 14826, 10000) // method.MADScale, as a decimal
+	sp := &Spread{Range: rng, SD: s.mo.sd, IQR: s.sub(s.q3, s.q1).f, MAD: mad.f}
+	mo := s.mo
+	if mo.varInf {
+		rep.Notes = append(rep.Notes, Note{Field: "spread.variance", Text: "the variance exceeds the largest double-precision number (1.8e308) and is omitted; the SD is given"})
+	} else {
+		v := mo.varN1
+		sp.Variance = &v
+	}
+	if n >= 2 {
+		sp.SEM = mo.sd / math.Sqrt(float64(n))
+		if !s.constant {
+			if iv, ok := method.SDInterval(mo.sd, n, opts.Confidence); ok {
+				sp.SDCI = &Interval{Lo: iv.Lo, Hi: iv.Hi, Level: iv.Level, Method: "chi-square"}
+			}
+		}
+	} else {
+		sp.SD = 0
+		rep.Notes = append(rep.Notes, Note{Field: "spread.sd", Text: "one value: the SD needs at least two (shown as 0)"})
+	}
+	if opts.PopulationSD {
+		p := mo.popSD
+		sp.PopSD = &p
+	}
+	if mo.mean != 0 && (lo > 0 || hi < 0) && n >= 2 {
+		cvv := mo.sd / math.Abs(mo.mean)
+		sp.CV = &cvv
+	} else if n >= 2 {
+		rep.Notes = append(rep.Notes, Note{Field: "spread.cv", Text: "the coefficient of variation is omitted: it needs values all of one sign (a ratio scale), and a mean other than 0"})
+	}
+	return sp
+}
