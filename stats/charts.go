@@ -119,7 +119,7 @@ func modalClass(h Histogram) [2]float64 {
 func boxElements(s *sample) Box {
 	inLo, inHi := s.fences(s.q1, s.q3, 3, 2)
 	outLo, outHi := s.fences(s.q1, s.q3, 3, 1)
-	b := Box{Q1: s.q1.f, Median: s.qmed.f, Q3: s.q3.f,
+	b := Box{Quantile: s.defCode, Q1: s.q1.f, Median: s.qmed.f, Q3: s.q3.f,
 		InnerLo: inLo.f, InnerHi: inHi.f, OuterLo: outLo.f, OuterHi: outHi.f}
 	n := s.n
 	i := min(s.countBelow(inLo), n-1) // first value >= inner fence

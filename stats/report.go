@@ -216,8 +216,11 @@ type Spread struct {
 	PopSD    *float64  `json:"popSD,omitempty"` // divisor n, on request
 	CV       *float64  `json:"cv,omitempty"`    // SD / |mean|, omitted when the mean is 0 or values change sign
 	IQR      float64   `json:"iqr"`
-	MAD      float64   `json:"mad"` // scaled by 1.4826
-	SEM      float64   `json:"sem"`
+	// IQRQuantile is the quantile definition of the quartiles behind the
+	// IQR (settings.quantile).
+	IQRQuantile string  `json:"iqrQuantile"`
+	MAD         float64 `json:"mad"` // scaled by 1.4826
+	SEM         float64 `json:"sem"`
 }
 
 // Quantiles under the chosen definition, and the quartiles under all of them.
@@ -337,6 +340,9 @@ type Histogram struct {
 
 // Box is the box-plot elements under the chosen quantile definition.
 type Box struct {
+	// Quantile is the definition of the quartiles and fences
+	// (settings.quantile).
+	Quantile  string  `json:"quantile"`
 	Q1        float64 `json:"q1"`
 	Median    float64 `json:"median"`
 	Q3        float64 `json:"q3"`

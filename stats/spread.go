@@ -17,7 +17,7 @@ func buildSpread(rep *Report, s *sample, opts Options) *Spread {
 		rng = s.grid.Float(s.grid.M(hi) - s.grid.M(lo))
 	}
 	mad := scaled(s.mad(), 14826, 10000) // method.MADScale, as a decimal
-	sp := &Spread{Range: rng, SD: s.mo.sd, IQR: s.sub(s.q3, s.q1).f, MAD: mad.f}
+	sp := &Spread{Range: rng, SD: s.mo.sd, IQR: s.sub(s.q3, s.q1).f, IQRQuantile: s.defCode, MAD: mad.f}
 	mo := s.mo
 	if mo.varInf {
 		rep.Notes = append(rep.Notes, Note{Field: "spread.variance", Text: "the variance exceeds the largest double-precision number (1.8e308) and is omitted; the SD is given"})
