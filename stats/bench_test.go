@@ -211,6 +211,7 @@ func BenchmarkSort1M(b *testing.B) {
 		}
 	})
 }
+
 // BenchmarkAnalyzeSpec1M is the full analysis with both limits and a
 // target (the spec section on top of Analyze1M); BenchmarkAnalyzeSpecSkewed1M
 // the same on right-skewed readings (lognormal, typed to 0.01), where the
