@@ -130,13 +130,14 @@ func (w words) p(p float64) string {
 // ppm writes a fraction given in ppm: "120 ppm" below 1 % (two significant
 // digits), else a percentage ("1.2%").
 func (w words) ppm(ppm float64) string {
+	r := roundSig(ppm, 2)
 	switch {
 	case ppm == 0:
 		return "0 ppm"
 	case ppm < 0.01:
 		return "below " + w.mark("0.01") + " ppm"
-	case ppm < 10000:
-		return w.shortest(roundSig(ppm, 2)) + " ppm"
+	case r < 10000: // 9,960 ppm is "10000 ppm" at two digits: "1%"
+		return w.shortest(r) + " ppm"
 	}
 	return w.trim(roundSig(ppm/1e4, 2), 2) + "%"
 }
