@@ -8,7 +8,6 @@ import (
 	"encoding/hex"
 	"encoding/json"
 	"errors"
-	"fmt"
 	"io"
 	"math"
 	"reflect"
@@ -92,17 +91,18 @@ func AnalyzeTable(tab *ingest.Table, fingerprint string, req Request) (*Report, 
 		infos[i] = c.ColumnInfo
 	}
 	rep := newReport(fingerprint, cv, opts)
+	w := wordsFor(rep)
 	rep.Input.Columns = infos
 	rep.Input.Summary = tab.Summary()
 	rep.Input.Reader = readerDecisions(tab)
 	// clipped: appending to the report's list must never write into the
 	// reader's array (the page analyses one table many times)
 	rep.Input.Problems = slices.Clip(tab.Problems)
-	if probs, counts := cols.incompleteRows(maxIncompleteListed); len(counts) > 0 {
+	if probs, counts := cols.incompleteRows(w, maxIncompleteListed); len(counts) > 0 {
 		rep.Input.Problems = append(rep.Input.Problems, probs...)
 		for _, key := range []string{"order", "subgroup", "group"} {
 			if k := counts[key]; k > maxIncompleteListed {
-				rep.Notes = append(rep.Notes, Note{Field: "input.problems", Text: fmt.Sprintf("%d rows have a value but no usable %s; the first %d are listed", k, key, maxIncompleteListed)})
+				rep.Notes = append(rep.Notes, Note{Field: "input.problems", Text: w.incompleteMore(k, key, maxIncompleteListed)})
 			}
 		}
 	}
@@ -113,7 +113,7 @@ func AnalyzeTable(tab *ingest.Table, fingerprint string, req Request) (*Report, 
 	}
 	analyzeColumn(rep, cv, opts)
 	if cv.outOfOrder > 0 {
-		rep.Notes = append(rep.Notes, Note{Field: "charts.series", Text: fmt.Sprintf("%d rows are not in the order of column %q; the series over time follows that column, not the rows", cv.outOfOrder, cols.order.Name)})
+		rep.Notes = append(rep.Notes, Note{Field: "charts.series", Text: w.outOfOrder(cv.outOfOrder, cols.order.Name)})
 	}
 	return rep, nil
 }
@@ -191,12 +191,12 @@ func checkOptions(o Options) (Options, error) {
 	}
 	if math.IsNaN(o.Confidence) || o.Confidence <= 0 || o.Confidence >= 1 {
 		if o.Confidence > 1 && o.Confidence < 100 {
-			return o, errorf(CodeBadOption, "options.confidence", "confidence %g is not between 0 and 1: for %g%% use %g", o.Confidence, o.Confidence, o.Confidence/100)
+			return o, errorf(CodeBadOption, "options.confidence", "confidence %s is not between 0 and 1: for %s%% use %s", plainNum(o.Confidence), plainNum(o.Confidence), plainNum(o.Confidence/100))
 		}
-		return o, errorf(CodeBadOption, "options.confidence", "confidence %g is not between 0 and 1: use e.g. 0.95 for 95%%", o.Confidence)
+		return o, errorf(CodeBadOption, "options.confidence", "confidence %s is not between 0 and 1: use e.g. 0.95 for 95%%", plainNum(o.Confidence))
 	}
 	if o.Confidence < 0.5 {
-		return o, errorf(CodeBadOption, "options.confidence", "confidence %g is below 0.5: use a level such as 0.90, 0.95 or 0.99", o.Confidence)
+		return o, errorf(CodeBadOption, "options.confidence", "confidence %s is below 0.5: use a level such as 0.90, 0.95 or 0.99", plainNum(o.Confidence))
 	}
 	switch o.DecimalMark {
 	case "", "comma", "point":
@@ -207,13 +207,13 @@ func checkOptions(o Options) (Options, error) {
 		o.Coverage = DefaultCoverage
 	}
 	if !(o.Coverage >= 0.5 && o.Coverage < 1) {
-		return o, errorf(CodeBadOption, "options.coverage", "coverage %g is not between 0.5 and 1: use e.g. 0.99 for 99 %% of parts", o.Coverage)
+		return o, errorf(CodeBadOption, "options.coverage", "coverage %s is not between 0.5 and 1: use e.g. 0.99 for 99 %% of parts", plainNum(o.Coverage))
 	}
 	if o.CpkGoal == 0 {
 		o.CpkGoal = DefaultCpkGoal
 	}
 	if !(o.CpkGoal > 0 && o.CpkGoal <= 10) {
-		return o, errorf(CodeBadOption, "options.cpkGoal", "Cpk goal %g is not between 0 and 10: use e.g. 1.33 or 1.67", o.CpkGoal)
+		return o, errorf(CodeBadOption, "options.cpkGoal", "Cpk goal %s is not between 0 and 10: use e.g. 1.33 or 1.67", plainNum(o.CpkGoal))
 	}
 	if o.Quantile == "" {
 		o.Quantile = DefaultQuantile
@@ -231,7 +231,7 @@ func checkOptions(o Options) (Options, error) {
 		}
 	}
 	if o.LSL != nil && o.USL != nil && *o.LSL >= *o.USL {
-		return o, errorf(CodeBadOption, "options.lsl", "the lower specification limit %g is not below the upper limit %g: swap them or correct one", *o.LSL, *o.USL)
+		return o, errorf(CodeBadOption, "options.lsl", "the lower specification limit %s is not below the upper limit %s: swap them or correct one", plainNum(*o.LSL), plainNum(*o.USL))
 	}
 	return o, nil
 }
@@ -241,7 +241,7 @@ func newReport(fingerprint string, cv *colView, opts Options) *Report {
 	if opts.Unit != "" {
 		unit = opts.Unit
 	}
-	return &Report{
+	rep := &Report{
 		Schema: ReportSchema,
 		Input: Input{
 			Fingerprint:  fingerprint,
@@ -256,15 +256,10 @@ func newReport(fingerprint string, cv *colView, opts Options) *Report {
 			LSL:        opts.LSL,
 			USL:        opts.USL,
 		},
-		Verdict: Verdict{Caution: standingCaution},
 	}
+	rep.Verdict.Caution = wordsFor(rep).caution()
+	return rep
 }
-
-// standingCaution is shown with every verdict.
-const standingCaution = "These figures describe the data as entered. Where a decision " +
-	"affects safety-critical parts, legal net quantity or medical products, follow the " +
-	"applicable local regulations, codes and licensed professional practice; this report " +
-	"does not replace them."
 
 // AnalyzeJSON is Analyze on JSON bytes: the form the page and automation use.
 // It always returns a JSON object: the report, or {"error": "..."}.

@@ -1,7 +1,6 @@
 package stats
 
 import (
-	"fmt"
 	"math"
 	"math/big"
 
@@ -12,28 +11,28 @@ import (
 // buildCentre fills the centre section: mean and median with their
 // intervals, the 10% trimmed mean, the modes. An interval that cannot be
 // computed (values near 1e308) is left out with a Note; the rest stays.
-func buildCentre(rep *Report, s *sample, opts Options, maxRun int, cv *colView) *Centre {
+func buildCentre(rep *Report, w words, s *sample, opts Options, maxRun int, cv *colView) *Centre {
 	n := s.n
 	c := &Centre{Mean: s.mo.mean, Median: s.median.f, Trimmed10: s.trimmedMean(0.1)}
 	if !s.constant {
 		if iv, ok := method.MeanInterval(s.mo.mean, s.mo.sd, n, opts.Confidence); ok {
 			c.MeanCI = &Interval{Lo: iv.Lo, Hi: iv.Hi, Level: iv.Level, Method: "student-t"}
 		} else if n >= 2 {
-			rep.Notes = append(rep.Notes, Note{Field: "centre.meanCI", Text: "the interval for the mean is omitted: its limits are beyond the range of double-precision numbers for these values"})
+			rep.Notes = append(rep.Notes, Note{Field: "centre.meanCI", Text: w.meanCIOverflow()})
 		}
 		if k, level, reached := method.MedianInterval(n, opts.Confidence); k > 0 {
 			c.MedianCI = &Interval{Lo: s.sorted[k-1], Hi: s.sorted[n-k], Level: level, Method: "order-statistics"}
 			if !reached {
-				rep.Notes = append(rep.Notes, Note{Field: "centre.medianCI", Text: fmt.Sprintf("with %d values no order-statistic interval reaches %s; the widest one (minimum to maximum) reaches %s", n, pct(opts.Confidence), pct(level))})
+				rep.Notes = append(rep.Notes, Note{Field: "centre.medianCI", Text: w.medianCINotReached(n, opts.Confidence, level)})
 			}
 		}
 	} else {
-		rep.Notes = append(rep.Notes, Note{Field: "centre.meanCI", Text: "all values are equal: no interval for the mean or the median can be computed"})
+		rep.Notes = append(rep.Notes, Note{Field: "centre.meanCI", Text: w.centreConstant()})
 	}
 	if n < 2 {
-		rep.Notes = append(rep.Notes, Note{Field: "centre.meanCI", Text: "one value: no interval, SD or shape can be computed"})
+		rep.Notes = append(rep.Notes, Note{Field: "centre.meanCI", Text: w.oneValue()})
 	}
-	modes(c, s.sorted, maxRun, cv)
+	modes(c, w, s.sorted, maxRun, cv)
 	return c
 }
 

@@ -227,11 +227,9 @@ func (cv *colView) inOrder() iter.Seq[int] {
 	}
 }
 
-// Plotting positions and band of the normal probability plot.
-const (
-	probPlotPositions = "Blom (i-3/8)/(n+1/4)"
-	probBandMaxPoints = 120 // band points (both tails dense)
-)
+// probBandMaxPoints bounds the band points of the normal probability plot
+// (both tails dense); its positions are named by probPlotPositions.
+const probBandMaxPoints = 120
 
 // probPlot gives the normal probability plot of the sorted data: the i-th
 // smallest value against Blom's (1958) position (method.BlomPosition), the

@@ -1,11 +1,9 @@
 package stats
 
 import (
-	"fmt"
 	"math"
 	"sort"
 	"strconv"
-	"strings"
 
 	"lotlens/stats/decimal"
 	"lotlens/stats/ingest"
@@ -15,6 +13,7 @@ import (
 // first pass (exclusions, exact sums), the sort, then one builder per
 // section, in order.
 func analyzeColumn(rep *Report, cv *colView, opts Options) {
+	w := wordsFor(rep)
 	// Exclusions: the user's choice, listed, never deleted.
 	var excl map[int32]bool
 	if len(opts.Exclude) > 0 {
@@ -23,7 +22,7 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 			if r > 0 && r <= math.MaxInt32 {
 				excl[int32(r)] = true
 			} else {
-				rep.Notes = append(rep.Notes, Note{Field: "settings.excluded", Text: fmt.Sprintf("row %d in the exclusion list is not a row of the data; ignored", r)})
+				rep.Notes = append(rep.Notes, Note{Field: "settings.excluded", Text: w.excludeNotARow(r)})
 			}
 		}
 	}
@@ -42,7 +41,8 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 		if math.IsInf(x, 0) {
 			// the reader should not pass these; never let one into the figures
 			rep.Counts.Rejected++
-			rep.Input.Problems = append(rep.Input.Problems, ingest.Problem{Row: int(rows[i]), Column: cv.name, Text: cv.text(i), Kind: "not-a-number", Reason: "not a finite number", Action: "left out"})
+			why, action := w.notFinite()
+			rep.Input.Problems = append(rep.Input.Problems, ingest.Problem{Row: int(rows[i]), Column: cv.name, Text: cv.text(i), Kind: "not-a-number", Reason: why, Action: action})
 			continue
 		}
 		if excl != nil && excl[rows[i]] {
@@ -63,7 +63,7 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	}
 	for r := range excl {
 		if !found[r] {
-			rep.Notes = append(rep.Notes, Note{Field: "settings.excluded", Text: fmt.Sprintf("row %d is listed for exclusion but holds no number in column %q; nothing to exclude there", r, cv.name)})
+			rep.Notes = append(rep.Notes, Note{Field: "settings.excluded", Text: w.excludeNoNumber(int(r), cv.name)})
 		}
 	}
 	sort.Slice(rep.Notes, func(i, j int) bool { return rep.Notes[i].Text < rep.Notes[j].Text })
@@ -81,8 +81,8 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	}
 	if n == 0 {
 		rep.Verdict.Quote = ""
-		rep.Verdict.Reasons = []Reason{{Code: "no-data", Text: "No values are left to analyse: every number is excluded. Remove exclusions to see figures."}}
-		rep.Notes = append(rep.Notes, Note{Field: "counts.used", Text: "no values left after the exclusions"})
+		rep.Verdict.Reasons = []Reason{{Code: "no-data", Text: w.noDataReason()}}
+		rep.Notes = append(rep.Notes, Note{Field: "counts.used", Text: w.noDataNote()})
 		return
 	}
 
@@ -116,11 +116,7 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 		s.mo.mean, s.mo.sd, s.mo.popSD, s.mo.varN1, s.mo.varN, s.mo.varInf = lo, 0, 0, 0, 0, false
 	}
 	if !s.exact {
-		why := "some values are not plain decimals (exponent form, or more than 15 significant digits)"
-		if allFixed {
-			why = "the values carry too many digits to be held as exact decimals"
-		}
-		rep.Notes = append(rep.Notes, Note{Field: "counts.decimals", Text: why + ": quartiles, fences, ties and moments are computed in binary floating point, not on the decimals as typed"})
+		rep.Notes = append(rep.Notes, Note{Field: "counts.decimals", Text: w.binaryPath(allFixed)})
 	}
 
 	// Counts: distinct values, the effective step.
@@ -144,28 +140,28 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 		rep.Counts.Step = step
 	}
 
-	buildQuantiles(rep, s, cv)
-	c := buildCentre(rep, s, opts, maxRun, cv)
+	buildQuantiles(rep, w, s, cv)
+	c := buildCentre(rep, w, s, opts, maxRun, cv)
 	rep.Centre = c
-	rep.Spread = buildSpread(rep, s, opts)
+	rep.Spread = buildSpread(rep, w, s, opts)
 
 	// Shape, suspects, target.
 	if n >= 3 && !s.constant {
-		shape, notes := shapeSection(sorted, s.mo.mean, s.mo.sd, ps)
+		shape, notes := shapeSection(w, sorted, s.mo.mean, s.mo.sd, ps)
 		rep.Shape = shape
 		rep.Notes = append(rep.Notes, notes...)
 	} else if s.constant {
-		rep.Notes = append(rep.Notes, Note{Field: "shape", Text: "all values are equal: shape statistics and normality tests cannot be computed"})
+		rep.Notes = append(rep.Notes, Note{Field: "shape", Text: w.shapeSectionConstant()})
 	} else {
-		rep.Notes = append(rep.Notes, Note{Field: "shape", Text: "shape statistics and normality tests need at least 3 values"})
+		rep.Notes = append(rep.Notes, Note{Field: "shape", Text: w.shapeSectionFew()})
 	}
 
 	suspects := &Suspects{Rules: []Rule{}, Readings: []Suspect{}}
 	if n >= 3 {
-		rules, flags, flagged := outlierRules(s, 1-opts.Confidence)
+		rules, flags, flagged := outlierRules(w, s, 1-opts.Confidence)
 		suspects.Rules = rules
 		var note *Note
-		suspects.Readings, note = mapFlags(sorted, flags, flagged, cv)
+		suspects.Readings, note = mapFlags(w, sorted, flags, flagged, cv)
 		if note != nil {
 			rep.Notes = append(rep.Notes, *note)
 		}
@@ -174,9 +170,9 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 
 	if opts.Target != nil {
 		if n >= 2 && !s.constant {
-			rep.Target = targetSection(sorted, s.mo.mean, s.mo.sd, *opts.Target, opts.Confidence, s.grid)
+			rep.Target = targetSection(w, sorted, s.mo.mean, s.mo.sd, *opts.Target, opts.Confidence, s.grid)
 		} else {
-			rep.Notes = append(rep.Notes, Note{Field: "target", Text: "tests against the target need at least two values that are not all equal"})
+			rep.Notes = append(rep.Notes, Note{Field: "target", Text: w.targetFewNote()})
 		}
 	}
 
@@ -188,13 +184,13 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 		}
 		if sh := rep.Shape; sh != nil {
 			if t := sh.Shapiro; t != nil {
-				in.normalP, in.normalTest = &t.P, fmt.Sprintf("Shapiro-Wilk %s", pText(t.P))
+				in.normalP, in.normalTest = &t.P, w.normalTest(t.Name, t.P)
 			} else if t := sh.Large; t != nil {
-				in.normalP, in.normalTest = &t.P, fmt.Sprintf("%s %s", t.Name, pText(t.P))
+				in.normalP, in.normalTest = &t.P, w.normalTest(t.Name, t.P)
 			}
 		}
 		var notes []Note
-		rep.Spec, notes = buildSpec(in, opts)
+		rep.Spec, notes = buildSpec(w, in, opts)
 		rep.Notes = append(rep.Notes, notes...)
 		rep.Settings.Coverage, rep.Settings.CpkGoal = opts.Coverage, opts.CpkGoal
 	}
@@ -214,21 +210,17 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	rep.Charts = ch
 
 	inner, outer := fenceCounts(s)
-	verdict(rep, opts, n, s.constant, maxRun, distinct, step, inner, outer)
+	verdict(rep, w, opts, n, s.constant, maxRun, distinct, step, inner, outer)
 	guardFinite(rep)
 }
 
 // maxChartPoints bounds the points of each chart series in a report.
 const maxChartPoints = 2000
 
-func pct(p float64) string {
-	return strconv.FormatFloat(100*p, 'g', 4, 64) + "%"
-}
-
 // modes fills the repeated values with their counts.
-func modes(c *Centre, sorted []float64, maxRun int, cv *colView) {
+func modes(c *Centre, w words, sorted []float64, maxRun int, cv *colView) {
 	if maxRun < 2 {
-		c.ModeNote = "no repeated value"
+		c.ModeNote = w.modeNone()
 		return
 	}
 	const maxListed = 10
@@ -248,21 +240,18 @@ func modes(c *Centre, sorted []float64, maxRun int, cv *colView) {
 		}
 		run = 1
 	}
-	texts := textsOf(vals, cv)
+	texts := textsOf(w, vals, cv)
 	for k, v := range vals {
 		c.Modes = append(c.Modes, Mode{Value: v, Text: texts[k], Count: maxRun})
 	}
-	switch {
-	case tied > maxListed:
-		c.ModeNote = fmt.Sprintf("%d values tie, each occurring %d times; the %d smallest are listed", tied, maxRun, maxListed)
-	case tied > 1:
-		c.ModeNote = fmt.Sprintf("%d values tie, each occurring %d times", tied, maxRun)
+	if tied > 1 {
+		c.ModeNote = w.modeTies(tied, maxRun, min(tied, maxListed))
 	}
 }
 
 // textsOf returns, for each value, the text of the first reading that holds
 // it (one scan of the column).
-func textsOf(vals []float64, cv *colView) []string {
+func textsOf(w words, vals []float64, cv *colView) []string {
 	out := make([]string, len(vals))
 	if len(vals) == 0 {
 		return out
@@ -283,7 +272,7 @@ func textsOf(vals []float64, cv *colView) []string {
 	}
 	for k, v := range vals {
 		if out[k] == "" {
-			out[k] = strconv.FormatFloat(v, 'g', -1, 64)
+			out[k] = w.valueText(v)
 		}
 	}
 	return out
@@ -342,27 +331,26 @@ func gcd(a, b int64) int64 {
 	return a
 }
 
-// rowsHolding lists (up to limit) the rows of readings holding any of vals.
-func rowsHolding(vals []float64, cv *colView, limit int) string {
+// rowsHolding lists (up to limit) the rows of readings holding any of vals,
+// with their text as typed.
+func rowsHolding(w words, vals []float64, cv *colView, limit int) string {
 	ix := newF64index(len(vals))
 	for _, v := range vals {
 		ix.put(v, 0)
 	}
-	var rows []string
+	var rows []int32
+	var texts []string
 	total := 0
 	for i, x := range cv.vals {
 		if ix.get(x) >= 0 && !cv.excludedByUser[cv.rows[i]] {
 			total++
 			if len(rows) < limit {
-				rows = append(rows, "row "+strconv.Itoa(int(cv.rows[i]))+" ("+cv.text(i)+")")
+				rows = append(rows, cv.rows[i])
+				texts = append(texts, cv.text(i))
 			}
 		}
 	}
-	s := strings.Join(rows, ", ")
-	if total > limit {
-		s += fmt.Sprintf(" and %d more", total-limit)
-	}
-	return s
+	return w.rowsWithText(rows, texts, total-len(rows))
 }
 
 // maxSuspects bounds the readings listed in a report; the rules still
@@ -375,7 +363,7 @@ const maxSuspects = 1000
 // extreme (farthest from the middle of the ordered data) are kept and a Note
 // says how many were flagged: flagged, the count of all flagged indices
 // (flags itself need only hold the maxSuspects most extreme).
-func mapFlags(sorted []float64, flags map[int][]Flag, flagged int, cv *colView) ([]Suspect, *Note) {
+func mapFlags(w words, sorted []float64, flags map[int][]Flag, flagged int, cv *colView) ([]Suspect, *Note) {
 	out := []Suspect{}
 	if len(flags) == 0 {
 		return out, nil
@@ -396,7 +384,7 @@ func mapFlags(sorted []float64, flags map[int][]Flag, flagged int, cv *colView) 
 	})
 	var note *Note
 	if flagged > maxSuspects {
-		note = &Note{Field: "suspects.readings", Text: fmt.Sprintf("%d readings are flagged; the %d most extreme are listed (the rules give the full counts)", flagged, maxSuspects)}
+		note = &Note{Field: "suspects.readings", Text: w.suspectsMore(flagged, maxSuspects)}
 	}
 	if len(idx) > maxSuspects {
 		idx = idx[:maxSuspects]

@@ -18,7 +18,7 @@ func TestOutlierR(t *testing.T) {
 		x, _, _ := methodsSet(t, set)
 		smp := binarySample(x)
 		med := smp.median.f
-		rules, flags, _ := outlierRules(smp, 0.05)
+		rules, flags, _ := outlierRules(words{}, smp, 0.05)
 		byCode := map[string]Rule{}
 		for _, ru := range rules {
 			byCode[ru.Code] = ru
@@ -76,7 +76,7 @@ func checkGESDSteps(t *testing.T, set string, x []float64, r map[string]float64)
 	// Recompute the statistics the way gesdRule does, step by step, and
 	// compare with R's gesdR<i> and gesdLambda<i>.
 	fs := newFlagSet(len(x), 0)
-	rule := gesdRule(x, 0.05, fs)
+	rule := gesdRule(words{}, x, 0.05, fs)
 	flags := fs.m
 	n := 0
 	for i := 1; i <= 10; i++ {

@@ -1,9 +1,7 @@
 package stats
 
 import (
-	"fmt"
 	"strconv"
-	"strings"
 
 	"lotlens/stats/method"
 )
@@ -12,20 +10,6 @@ import (
 // sample quantiles of Hyndman and Fan (1996, The American Statistician 50,
 // 361-365) and Tukey's hinges (Tukey 1977, Exploratory Data Analysis).
 var QuantileMethods = []string{"hf1", "hf2", "hf3", "hf4", "hf5", "hf6", "hf7", "hf8", "hf9", "tukey"}
-
-// quantileNames are the plain names shown beside each definition.
-var quantileNames = map[string]string{
-	"hf1":   "Hyndman-Fan type 1: inverse of the empirical distribution function",
-	"hf2":   "Hyndman-Fan type 2: inverse of the empirical distribution function, averaged at discontinuities",
-	"hf3":   "Hyndman-Fan type 3: nearest even order statistic",
-	"hf4":   "Hyndman-Fan type 4: linear interpolation of the empirical distribution function, p = k/n",
-	"hf5":   "Hyndman-Fan type 5: piecewise linear, p = (k - 1/2)/n",
-	"hf6":   "Hyndman-Fan type 6: p = k/(n + 1)",
-	"hf7":   "Hyndman-Fan type 7: p = (k - 1)/(n - 1)",
-	"hf8":   "Hyndman-Fan type 8: median-unbiased, p = (k - 1/3)/(n + 1/3)",
-	"hf9":   "Hyndman-Fan type 9: normal-unbiased, p = (k - 3/8)/(n + 1/4)",
-	"tukey": "Tukey's hinges (quartiles only; other percentiles by type 7)",
-}
 
 // hfType returns the Hyndman-Fan type number of a method name (1..9), 0 for
 // "tukey" and -1 for an unknown name.
@@ -64,17 +48,11 @@ var (
 	percentileProbs = []float64{0.00135, 0.01, 0.05, 0.95, 0.99, 0.99865}
 )
 
-// quartileCaption names the definition behind the quartile-based figures
-// (IQR, fences, box plot) of a report.
-func quartileCaption(code string) string {
-	return "quartiles by " + code + " (" + quantileNames[code] + ")"
-}
-
 // buildQuantiles fills the quantile section: the chosen definition's
 // quartiles and percentiles, the quartiles under every definition, and the
 // sensitivity of Tukey's fences to the definition.
-func buildQuantiles(rep *Report, s *sample, cv *colView) {
-	qs := &Quantiles{Method: s.defCode, Name: quantileNames[s.defCode], Min: s.sorted[0], Max: s.sorted[s.n-1],
+func buildQuantiles(rep *Report, w words, s *sample, cv *colView) {
+	qs := &Quantiles{Method: s.defCode, Name: w.quantileName(s.defCode), Min: s.sorted[0], Max: s.sorted[s.n-1],
 		Q1: s.q1.f, Median: s.qmed.f, Q3: s.q3.f}
 	for i, p := range percentilePoints {
 		qs.Percentiles = append(qs.Percentiles, Percentile{P: p, Value: s.quantile(percentileExact[i], s.def).f})
@@ -82,11 +60,9 @@ func buildQuantiles(rep *Report, s *sample, cv *colView) {
 	for _, code := range QuantileMethods {
 		qs.All = append(qs.All, s.quartileSet(code))
 	}
-	fenceSensitivity(qs, s, cv)
+	fenceSensitivity(w, qs, s, cv)
 	if qs.Median != s.median.f {
-		rep.Notes = append(rep.Notes, Note{Field: "quantiles.median", Text: fmt.Sprintf(
-			"The quantile section follows %s, whose median of these %d values is %s; the centre's median is the usual one, the middle value or the mean of the two middle values (%s), which types 2 and 5 to 9 and Tukey's hinges share. The IQR, the fences and the box plot use the %s quartiles.",
-			s.defCode, s.n, strconv.FormatFloat(qs.Median, 'g', -1, 64), strconv.FormatFloat(s.median.f, 'g', -1, 64), s.defCode)})
+		rep.Notes = append(rep.Notes, Note{Field: "quantiles.median", Text: w.quantileMedian(s.defCode, s.n, qs.Median, s.median.f)})
 	}
 	rep.Quantile = qs
 }
@@ -107,7 +83,7 @@ func (s *sample) quartileSet(code string) QuartileSet {
 // put different readings beyond Tukey's fences (1.5 and 3 IQR beyond the
 // quartiles; Tukey 1977), and names their rows. Every count is decided on
 // the decimals as typed (exact fences) where the data are decimals.
-func fenceSensitivity(qs *Quantiles, s *sample, cv *colView) {
+func fenceSensitivity(w words, qs *Quantiles, s *sample, cv *colView) {
 	n := s.n
 	type cut struct{ loIn, hiIn, loOut, hiOut int } // counts beyond each fence
 	cuts := func(q1, q3 fig) cut {
@@ -148,7 +124,5 @@ func fenceSensitivity(qs *Quantiles, s *sample, cv *colView) {
 	addRange(n-maxHi, n-minHi)
 	addRange(minLoO, maxLoO)
 	addRange(n-maxHiO, n-minHiO)
-	rowsOf := rowsHolding(vals, cv, 20)
-	qs.Note = fmt.Sprintf("Which readings lie beyond Tukey's fences depends on the quantile definition here: %s flag(s) a different set than %s. Readings affected: %s.",
-		strings.Join(differ, ", "), qs.Method, rowsOf)
+	qs.Note = w.fenceSensitive(differ, qs.Method, rowsHolding(w, vals, cv, 20))
 }

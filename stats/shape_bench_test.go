@@ -70,7 +70,7 @@ func benchShape(b *testing.B, n int) {
 	b.ResetTimer()
 	for b.Loop() {
 		sums := grid4.PowerSums(x) // the exact sums are the shape's first pass
-		shapeSection(x, m, sd, &sums)
+		shapeSection(words{}, x, m, sd, &sums)
 	}
 }
 
@@ -79,7 +79,7 @@ func benchOutliers(b *testing.B, n int) {
 	smp := decimalSample(x, 4)
 	b.ResetTimer()
 	for b.Loop() {
-		outlierRules(smp, 0.05)
+		outlierRules(words{}, smp, 0.05)
 	}
 }
 
@@ -88,7 +88,7 @@ func benchTarget(b *testing.B, n int) {
 	m, sd := meanSDOf(x)
 	b.ResetTimer()
 	for b.Loop() {
-		targetSection(x, m, sd, 50.2, 0.95, grid4)
+		targetSection(words{}, x, m, sd, 50.2, 0.95, grid4)
 	}
 }
 

@@ -102,7 +102,7 @@ func TestShapeR(t *testing.T) {
 	checked := 0
 	for set, r := range ref {
 		x, mean, sd := methodsSet(t, set)
-		sh, _ := shapeSection(x, mean, sd, powerSumsFor(x))
+		sh, _ := shapeSection(words{}, x, mean, sd, powerSumsFor(x))
 		var cs []mCheck
 		// R's moments on the offset set carry about 9 significant digits
 		// (binary sums of powers of values near 1e6); ours are exact

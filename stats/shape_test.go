@@ -15,7 +15,7 @@ import (
 func TestShapeLimits(t *testing.T) {
 	x := []float64{1, 2, 4, 7, 11}
 	m, sd := meanSDOf(x)
-	sh, notes := shapeSection(x, m, sd, nil)
+	sh, notes := shapeSection(words{}, x, m, sd, nil)
 	if sh == nil || sh.Skewness == nil || sh.Kurtosis == nil || sh.Shapiro == nil {
 		t.Fatalf("n = 5: %+v", sh)
 	}
@@ -25,10 +25,10 @@ func TestShapeLimits(t *testing.T) {
 	if len(notes) < 4 {
 		t.Errorf("notes: %+v", notes)
 	}
-	if sh, notes := shapeSection([]float64{3, 3, 3, 3}, 3, 0, nil); sh != nil || len(notes) == 0 {
+	if sh, notes := shapeSection(words{}, []float64{3, 3, 3, 3}, 3, 0, nil); sh != nil || len(notes) == 0 {
 		t.Errorf("constant: %+v %+v", sh, notes)
 	}
-	if sh, notes := shapeSection([]float64{1, 2}, 1.5, math.Sqrt(0.5), nil); sh != nil || len(notes) == 0 {
+	if sh, notes := shapeSection(words{}, []float64{1, 2}, 1.5, math.Sqrt(0.5), nil); sh != nil || len(notes) == 0 {
 		t.Errorf("n = 2: %+v %+v", sh, notes)
 	}
 }
@@ -67,11 +67,11 @@ func TestMethodsFinite(t *testing.T) {
 		if !finite(m) || !finite(sd) {
 			continue // the core rejects such data before the methods run
 		}
-		sh, notes := shapeSection(x, m, sd, nil)
+		sh, notes := shapeSection(words{}, x, m, sd, nil)
 		smp := binarySample(x)
 		med := smp.median.f
-		rules, flags, _ := outlierRules(smp, 0.05)
-		tg := targetSection(x, m, sd, med+sd/3, 0.95, decimal.Grid{})
+		rules, flags, _ := outlierRules(words{}, smp, 0.05)
+		tg := targetSection(words{}, x, m, sd, med+sd/3, 0.95, decimal.Grid{})
 		pp := probPlot(x, m, sd, 0.95, 50)
 		out := map[string]any{"shape": sh, "notes": notes, "rules": rules, "flags": flags, "target": tg, "pp": pp}
 		if _, err := json.Marshal(out); err != nil {
@@ -96,7 +96,7 @@ func TestDAgostinoSciPy(t *testing.T) {
 		{"18-n1000-normal.txt", 0.8069148114125325, -1.1190643734419752, 1.9034165847840034, 0.38608092069125255},
 	} {
 		x, m, sd := methodsSet(t, c.set)
-		sh, _ := shapeSection(x, m, sd, nil)
+		sh, _ := shapeSection(words{}, x, m, sd, nil)
 		got := []float64{sh.Skewness.Test.Statistic, sh.Kurtosis.Test.Statistic, sh.Omnibus.Statistic, sh.Omnibus.P}
 		want := []float64{c.zs, c.zk, c.k2, c.p2}
 		for i := range got {

@@ -1,7 +1,6 @@
 package stats
 
 import (
-	"fmt"
 	"math"
 	"math/big"
 	"sort"
@@ -218,7 +217,7 @@ type specInput struct {
 
 // buildSpec makes the spec section. It returns nil (with notes) when no
 // limit is given or too few readings vary.
-func buildSpec(in specInput, opts Options) (*Spec, []Note) {
+func buildSpec(w words, in specInput, opts Options) (*Spec, []Note) {
 	if opts.LSL == nil && opts.USL == nil {
 		return nil, nil
 	}
@@ -257,7 +256,7 @@ func buildSpec(in specInput, opts Options) (*Spec, []Note) {
 	}
 	cf, err := method.ConformanceFromCounts(n, below, above, !math.IsNaN(lsl), !math.IsNaN(usl), conf)
 	if err != nil {
-		return nil, []Note{{Field: "spec", Text: "the spec section could not be computed: " + err.Error()}}
+		return nil, []Note{{Field: "spec", Text: w.specFailed(err)}}
 	}
 	sp.Observed = SpecObserved{N: n, Total: specCount(cf.Outside)}
 	if cf.HasLSL {
@@ -272,18 +271,18 @@ func buildSpec(in specInput, opts Options) (*Spec, []Note) {
 	// Sigmas.
 	sp.Sigma.Overall = SpecSigmaFigure{Value: in.sd, Method: "sample-sd", DF: float64(n - 1)}
 	sigW, dfW := math.NaN(), math.NaN()
-	if w := in.within; w != nil && w.err == nil {
-		sp.Sigma.Within = &SpecSigmaFigure{Value: w.est.Sigma, Method: w.method, DF: w.est.DF, Count: w.est.Count}
-		sigW, dfW = w.est.Sigma, w.est.DF
-	} else if w != nil {
-		notes = append(notes, Note{Field: "spec.sigma.within", Text: "no within-process sigma: " + w.err.Error() + "; the within-process indices (Cp, Cpk) are left out"})
+	if ws := in.within; ws != nil && ws.err == nil {
+		sp.Sigma.Within = &SpecSigmaFigure{Value: ws.est.Sigma, Method: ws.method, DF: ws.est.DF, Count: ws.est.Count}
+		sigW, dfW = ws.est.Sigma, ws.est.DF
+	} else if ws != nil {
+		notes = append(notes, Note{Field: "spec.sigma.within", Text: w.noWithin(ws.err)})
 	}
 	if n < 2 || !(in.sd > 0) {
-		notes = append(notes, Note{Field: "spec.indices", Text: "capability indices need at least two readings that are not all equal"})
+		notes = append(notes, Note{Field: "spec.indices", Text: w.specIndicesFew()})
 		sp.Indices = []SpecIndex{}
 		sp.Expected = []SpecExpected{}
 		sp.Lead, sp.LeadReason = "empirical", "too-few-to-judge"
-		sp.Statement = specStatement(sp, opts, nil)
+		sp.Statement = specStatement(w, sp, opts)
 		return sp, notes
 	}
 
@@ -301,7 +300,7 @@ func buildSpec(in specInput, opts Options) (*Spec, []Note) {
 			// the likelihood and Anderson-Darling passes cost one
 			// distribution-function call per distinct value and family
 			data = thinSorted(in.sorted, specFitMax)
-			notes = append(notes, Note{Field: "spec.model", Text: fmt.Sprintf("the distributions were fitted to %d evenly spaced order statistics of the %d readings (%d distinct values), which follow the data's distribution to within 1 in %d", len(data), n, in.distinct, specFitMax)})
+			notes = append(notes, Note{Field: "spec.model", Text: w.specThinned(len(data), n, in.distinct, specFitMax)})
 		}
 		fr := method.FitDistributions(data, conf)
 		fit = &fr
@@ -353,7 +352,7 @@ func buildSpec(in specInput, opts Options) (*Spec, []Note) {
 				CI: &Interval{Lo: x.ix.Lower, Hi: x.ix.Upper, Level: conf, Method: x.ix.Method}, LowerBound: &lb})
 		}
 	} else {
-		notes = append(notes, Note{Field: "spec.indices", Text: "capability indices could not be computed: " + err.Error()})
+		notes = append(notes, Note{Field: "spec.indices", Text: w.specIndicesFailed(err)})
 	}
 	if sp.Model != nil {
 		q := sp.Model.Percentiles
@@ -361,11 +360,11 @@ func buildSpec(in specInput, opts Options) (*Spec, []Note) {
 		// when the readings can bound them (about 2,200 readings at 95 %)
 		tailsKnown := sp.Model.Chosen != "empirical" || (len(q) == 3 && q[0].CI != nil && q[2].CI != nil)
 		if !tailsKnown {
-			notes = append(notes, Note{Field: "spec.indices", Text: fmt.Sprintf("no percentile-method indices: no distribution fits and %d readings cannot locate the 0.135%% and 99.865%% points of the data (that needs a few thousand)", n)})
+			notes = append(notes, Note{Field: "spec.indices", Text: w.specNoPercentileIndices(n)})
 		}
 		if len(q) == 3 && tailsKnown {
 			if pc, err := method.PercentileCapability(q[0].Value, q[1].Value, q[2].Value, lsl, usl); err == nil {
-				notes = append(notes, Note{Field: "spec.indices", Text: "the percentile-method indices (ISO 22514-2) have no interval: the standard gives none for a fitted distribution; the bound on the observed count, and the normal-based indices' intervals, show how uncertain the figures are"})
+				notes = append(notes, Note{Field: "spec.indices", Text: w.specPercentileNoInterval()})
 				for _, x := range []struct {
 					name string
 					v    float64
@@ -406,8 +405,8 @@ func buildSpec(in specInput, opts Options) (*Spec, []Note) {
 	sp.SampleSize = ss
 
 	// Cautions.
-	sp.Cautions = specCautions(sp, in, opts, n)
-	sp.Statement = specStatement(sp, opts, in.within)
+	sp.Cautions = specCautions(w, sp, in, opts, n)
+	sp.Statement = specStatement(w, sp, opts)
 	return sp, notes
 }
 
@@ -559,68 +558,42 @@ func specTolerances(in specInput, n int, coverage, conf, lsl, usl float64) []Spe
 }
 
 // specCautions lists what limits the figures, most serious first.
-func specCautions(sp *Spec, in specInput, opts Options, n int) []Reason {
+func specCautions(w words, sp *Spec, in specInput, opts Options, n int) []Reason {
 	var out []Reason
 	if in.stability != nil {
-		out = append(out, Reason{Code: "not-stable", Text: in.stability.Text + " Capability figures then describe this batch, not the process: find and remove the cause, then measure again."})
+		out = append(out, Reason{Code: "not-stable", Text: w.cautionNotStable(in.stability.Text)})
 	}
 	if n < specFewReadings {
-		out = append(out, Reason{Code: "few-readings", Text: fmt.Sprintf("Only %d readings: capability figures from fewer than about %d readings are rough, as their wide intervals show (common practice).", n, specFewReadings), Vals: map[string]float64{"n": float64(n)}})
+		out = append(out, Reason{Code: "few-readings", Text: w.cautionFew(n, specFewReadings), Vals: map[string]float64{"n": float64(n)}})
 	}
 	switch sp.LeadReason {
 	case "not-normal-fitted":
-		out = append(out, Reason{Code: "not-normal", Text: fmt.Sprintf("The readings are not normal (%s), so the figures that lead come from the fitted %s distribution and the percentile method of ISO 22514-2; the normal-based Cp and Cpk are shown for comparison only.", in.normalTest, familyWords(sp.Lead))})
+		out = append(out, Reason{Code: "not-normal", Text: w.cautionNotNormal(in.normalTest, sp.Lead)})
 	case "not-normal-no-fit":
-		out = append(out, Reason{Code: "not-normal", Text: fmt.Sprintf("The readings are not normal (%s) and no candidate distribution fits them: quote the observed count; the data's own 0.135%% and 99.865%% points need a few thousand readings, and the normal-based Cp and Cpk are for reference only. If the batch mixes lines, cavities or lots, analyse each on its own.", in.normalTest)})
+		out = append(out, Reason{Code: "not-normal", Text: w.cautionNotNormal(in.normalTest, "")})
 	}
 	if sp.Tolerance != nil && in.step > 0 && in.step*specResolutionSteps > *sp.Tolerance {
-		out = append(out, Reason{Code: "coarse-resolution", Text: fmt.Sprintf("The readings move in steps of %s, fewer than %d steps across the tolerance of %s: the gauge is too coarse for this specification (common practice asks for at least ten steps).", g3(in.step), specResolutionSteps, g3(*sp.Tolerance)),
+		out = append(out, Reason{Code: "coarse-resolution", Text: w.cautionCoarse(in.step, specResolutionSteps, *sp.Tolerance),
 			Vals: map[string]float64{"step": in.step, "tolerance": *sp.Tolerance}})
 	}
 	if sp.Sigma.Within == nil {
-		out = append(out, Reason{Code: "no-within", Text: "No within-process sigma could be estimated, so only the overall figures (Pp, Ppk) are given."})
+		out = append(out, Reason{Code: "no-within", Text: w.cautionNoWithin()})
 	}
-	out = append(out, Reason{Code: "safety", Text: "For safety-critical characteristics, legal net quantity or medical products, the customer's requirements, the applicable standards and local regulations decide which index, which level and how many readings are needed; the 1.33 used here is common practice, not a law."})
+	goal := opts.CpkGoal
+	if goal == 0 {
+		goal = DefaultCpkGoal
+	}
+	out = append(out, Reason{Code: "safety", Text: w.cautionSafety(goal, DefaultCpkGoal)})
 	return out
 }
 
-func familyWords(f string) string {
-	switch f {
-	case method.FitLognormal:
-		return "lognormal"
-	case method.FitLognormal3:
-		return "three-parameter lognormal"
-	case method.FitWeibull:
-		return "Weibull"
-	case method.FitWeibull3:
-		return "three-parameter Weibull"
-	case method.FitGamma:
-		return "gamma"
-	case method.FitGamma3:
-		return "three-parameter gamma"
-	case method.FitBoxCox:
-		return "Box-Cox-transformed normal"
-	case "empirical":
-		return "empirical"
-	}
-	return f
-}
-
-// specStatement is the verdict in plain words.
-func specStatement(sp *Spec, opts Options, w *withinSigma) string {
-	conf := pctLabel(opts.Confidence)
+// specStatement is the verdict in plain words: the observed count, the
+// expected fraction under the leading model, the leading index against the
+// Cpk goal.
+func specStatement(w words, sp *Spec, opts Options) string {
 	o := sp.Observed
-	var s string
-	switch {
-	case o.Total.Count == 0:
-		s = fmt.Sprintf("None of the %d readings lies outside the %s (%s upper bound %s).", o.N, limitWords(sp.Sides), conf, ppmWords(o.Total.UpperBound))
-	default:
-		verb := "lie"
-		if o.Total.Count == 1 {
-			verb = "lies"
-		}
-		s = fmt.Sprintf("%d of the %d readings %s outside the %s (%s; %s upper bound %s).", o.Total.Count, o.N, verb, limitWords(sp.Sides), ppmWords(o.Total.PPM), conf, ppmWords(o.Total.UpperBound))
-	}
+	conf := opts.Confidence
+	s := w.specObserved(o.Total.Count, o.N, sp.Sides, o.Total.PPM, conf, o.Total.UpperBound)
 	var lead *SpecExpected
 	for i := range sp.Expected {
 		e := &sp.Expected[i]
@@ -634,13 +607,13 @@ func specStatement(sp *Spec, opts Options, w *withinSigma) string {
 		}
 	}
 	if lead != nil {
-		s += " About " + ppmWords(lead.Total) + " expected outside"
+		ub := 0.0
 		if lead.UpperBound != nil {
-			s += fmt.Sprintf(" (%s upper bound %s)", conf, ppmWords(*lead.UpperBound))
+			ub = *lead.UpperBound
 		}
-		s += " " + modelWords(lead.Model) + "."
+		s += w.specExpected(lead.Total, lead.UpperBound != nil, conf, ub, lead.Model)
 	} else if sp.Lead == "empirical" && sp.Model != nil {
-		s += " No distribution fits these readings, so no expected fraction is given; the observed count is the figure to quote."
+		s += w.specNoFit()
 	}
 	goal := opts.CpkGoal
 	if goal == 0 {
@@ -656,71 +629,13 @@ func specStatement(sp *Spec, opts Options, w *withinSigma) string {
 		k = sp.index("Ppk", "overall")
 	}
 	if k != nil {
-		name := k.Name
-		if k.Basis == "percentile" {
-			name += " (percentile method)"
-		} else if sp.Lead != "normal" {
-			name += " (normal-based, for reference only: the readings are not normal)"
-		}
-		s += fmt.Sprintf(" %s %s", name, fmtTrim(k.Value, 2))
+		lb := 0.0
 		if k.LowerBound != nil {
-			s += fmt.Sprintf(", lower %s bound %s", conf, fmtTrim(*k.LowerBound, 2))
+			lb = *k.LowerBound
 		}
-		ref := k.Value
-		if k.LowerBound != nil {
-			ref = *k.LowerBound
-		}
-		if ref >= goal {
-			s += fmt.Sprintf(", above the %s that many customers require (common practice, not a law).", fmtTrim(goal, 2))
-		} else if k.Value >= goal {
-			s += fmt.Sprintf(": the estimate is above %s but the bound is not, so these readings do not show %s with %s confidence.", fmtTrim(goal, 2), fmtTrim(goal, 2), conf)
-		} else {
-			s += fmt.Sprintf(", below the %s that many customers require (common practice, not a law).", fmtTrim(goal, 2))
-		}
+		s += w.specIndex(k.Name, k.Basis, sp.Lead == "normal", k.Value, k.LowerBound != nil, lb, conf, goal)
 	}
 	return s
-}
-
-func limitWords(sides string) string {
-	switch sides {
-	case "lower":
-		return "lower limit"
-	case "upper":
-		return "upper limit"
-	}
-	return "limits"
-}
-
-func modelWords(model string) string {
-	switch model {
-	case "normal-within":
-		return "for a normal process with the within-process sigma"
-	case "normal-overall":
-		return "for a normal distribution with the overall SD"
-	}
-	return "under the fitted " + familyWords(model) + " distribution"
-}
-
-// ppmWords writes a fraction given in ppm: "120 ppm" below 1 % (two
-// significant digits), else a percentage.
-func ppmWords(ppm float64) string {
-	switch {
-	case ppm == 0:
-		return "0 ppm"
-	case ppm < 0.01:
-		return "below 0.01 ppm"
-	case ppm < 10000:
-		return strconv.FormatFloat(roundSig(ppm, 2), 'f', -1, 64) + " ppm"
-	}
-	return fmtTrim(roundSig(ppm/1e4, 2), 2) + "%"
-}
-
-func roundSig(x float64, d int) float64 {
-	if x == 0 {
-		return 0
-	}
-	e := math.Pow(10, float64(d-1)-math.Floor(math.Log10(math.Abs(x))))
-	return math.Round(x*e) / e
 }
 
 // exactDifference is a − b computed on the shortest decimals of a and b

@@ -8,7 +8,7 @@ import (
 
 // buildSpread fills the spread section: range, SD with its interval,
 // variance, IQR and MAD (exact on the decimals as typed), SEM, CV.
-func buildSpread(rep *Report, s *sample, opts Options) *Spread {
+func buildSpread(rep *Report, w words, s *sample, opts Options) *Spread {
 	n := s.n
 	lo, hi := s.sorted[0], s.sorted[n-1]
 	rng := hi - lo
@@ -20,7 +20,7 @@ func buildSpread(rep *Report, s *sample, opts Options) *Spread {
 	sp := &Spread{Range: rng, SD: s.mo.sd, IQR: s.sub(s.q3, s.q1).f, IQRQuantile: s.defCode, MAD: mad.f}
 	mo := s.mo
 	if mo.varInf {
-		rep.Notes = append(rep.Notes, Note{Field: "spread.variance", Text: "the variance exceeds the largest double-precision number (1.8e308) and is omitted; the SD is given"})
+		rep.Notes = append(rep.Notes, Note{Field: "spread.variance", Text: w.varianceOverflow()})
 	} else {
 		v := mo.varN1
 		sp.Variance = &v
@@ -34,7 +34,7 @@ func buildSpread(rep *Report, s *sample, opts Options) *Spread {
 		}
 	} else {
 		sp.SD = 0
-		rep.Notes = append(rep.Notes, Note{Field: "spread.sd", Text: "one value: the SD needs at least two (shown as 0)"})
+		rep.Notes = append(rep.Notes, Note{Field: "spread.sd", Text: w.sdOneValue()})
 	}
 	if opts.PopulationSD {
 		p := mo.popSD
@@ -44,7 +44,7 @@ func buildSpread(rep *Report, s *sample, opts Options) *Spread {
 		cvv := mo.sd / math.Abs(mo.mean)
 		sp.CV = &cvv
 	} else if n >= 2 {
-		rep.Notes = append(rep.Notes, Note{Field: "spread.cv", Text: "the coefficient of variation is omitted: it needs values all of one sign (a ratio scale), and a mean other than 0"})
+		rep.Notes = append(rep.Notes, Note{Field: "spread.cv", Text: w.cvOmitted()})
 	}
 	return sp
 }

@@ -1,7 +1,6 @@
 package stats
 
 import (
-	"fmt"
 	"math"
 
 	"lotlens/stats/method"
@@ -31,7 +30,7 @@ import (
 // The report lists at most maxSuspects readings, the most extreme, so the
 // flags themselves are kept only for the indices within maxSuspects of
 // either end of sorted (see flagSet); flagged counts every flagged index.
-func outlierRules(s *sample, alpha float64) (rules []Rule, flags map[int][]Flag, flagged int) {
+func outlierRules(w words, s *sample, alpha float64) (rules []Rule, flags map[int][]Flag, flagged int) {
 	sorted := s.sorted
 	n := len(sorted)
 	rules = []Rule{}
@@ -45,35 +44,26 @@ func outlierRules(s *sample, alpha float64) (rules []Rule, flags map[int][]Flag,
 	}
 	q1, q3 := s.q1.f, s.q3.f
 	iqr := s.sub(s.q3, s.q1).f
-	zeroIQR := ""
-	if iqr == 0 {
-		zeroIQR = " The IQR is 0 (at least half the values are equal), so the fences sit on the quartiles and every other value is flagged: read these flags with care."
-	}
-	caption := quartileCaption(s.defCode)
+	zeroIQR := iqr == 0
+	caption := w.quartileCaption(s.defCode)
 	// Tukey's fences.
 	for _, f := range []struct {
-		code, name string
-		k          int64
-	}{
-		{"tukey-inner", "Tukey's inner fences (1.5 IQR)", 1},
-		{"tukey-outer", "Tukey's outer fences (3 IQR)", 2},
-	} {
+		code string
+		k    int64
+	}{{"tukey-inner", 1}, {"tukey-outer", 2}} {
 		lo, hi := s.fences(s.q1, s.q3, 3*f.k, 2)
-		label := "outside the inner fence"
-		if f.k == 2 {
-			label = "far out, beyond the outer fence"
-		}
+		outer := f.k == 2
 		cnt := fenceFlags(sorted, s.countBelow(lo), s.countAbove(hi), lo.f, hi.f, f.code, fs, func(x float64) string {
-			if iqr == 0 {
-				return label
+			switch {
+			case zeroIQR:
+				return w.tukeyFlag(false, -1, outer)
+			case x < q1:
+				return w.tukeyFlag(true, (q1-x)/iqr, outer)
 			}
-			if x < q1 {
-				return fmt.Sprintf("%s IQR below Q1 (%s)", fmtSig((q1-x)/iqr, 3), label)
-			}
-			return fmt.Sprintf("%s IQR above Q3 (%s)", fmtSig((x-q3)/iqr, 3), label)
+			return w.tukeyFlag(false, (x-q3)/iqr, outer)
 		})
-		r := Rule{Code: f.code, Name: f.name, Lo: fptr(lo.f), Hi: fptr(hi.f), Count: cnt,
-			Note: fmt.Sprintf("Common practice (Tukey 1977): fences %g IQR beyond the nearest quartile; %s.%s", 1.5*float64(f.k), caption, zeroIQR)}
+		r := Rule{Code: f.code, Name: w.tukeyRule(outer), Lo: fptr(lo.f), Hi: fptr(hi.f), Count: cnt,
+			Note: w.tukeyNote(1.5*float64(f.k), caption, zeroIQR)}
 		rules = append(rules, r)
 	}
 
@@ -83,15 +73,14 @@ func outlierRules(s *sample, alpha float64) (rules []Rule, flags map[int][]Flag,
 		nb, na := lowerBound(sorted, lo), n-upperBound(sorted, hi)
 		cnt := fenceFlags(sorted, nb, na, lo, hi, "adjusted-box", fs, func(x float64) string {
 			if x < lo {
-				return fmt.Sprintf("%s below the adjusted lower fence (medcouple %s)", fmtSig(lo-x, 3), fmtSig(mc, 3))
+				return w.adjustedBoxFlag(true, lo-x, mc)
 			}
-			return fmt.Sprintf("%s above the adjusted upper fence (medcouple %s)", fmtSig(x-hi, 3), fmtSig(mc, 3))
+			return w.adjustedBoxFlag(false, x-hi, mc)
 		})
-		rules = append(rules, Rule{Code: "adjusted-box", Name: "Adjusted box plot for skewed data", Lo: fptr(lo), Hi: fptr(hi), Count: cnt,
-			Note: fmt.Sprintf("Hubert and Vandervieren (2008): Tukey's 1.5 IQR fences stretched on the long side by the medcouple MC = %s (Brys, Hubert and Struyf 2004); %s.%s", fmtSig(mc, 4), caption, zeroIQR)})
+		rules = append(rules, Rule{Code: "adjusted-box", Name: w.adjustedBoxRule(), Lo: fptr(lo), Hi: fptr(hi), Count: cnt,
+			Note: w.adjustedBoxNote(mc, caption, zeroIQR)})
 	} else {
-		rules = append(rules, Rule{Code: "adjusted-box", Name: "Adjusted box plot for skewed data",
-			Note: "The medcouple could not be computed (it needs at least 3 values): rule not applied."})
+		rules = append(rules, Rule{Code: "adjusted-box", Name: w.adjustedBoxRule(), Note: w.adjustedBoxNotApplied()})
 	}
 
 	// Modified z-scores.
@@ -114,7 +103,7 @@ func outlierRules(s *sample, alpha float64) (rules []Rule, flags map[int][]Flag,
 				if x < median {
 					m = -m
 				}
-				last, lastText = x, fmt.Sprintf("modified z-score %s (limit 3.5)", fmtSig(m, 3))
+				last, lastText = x, w.modifiedZFlag(m)
 			}
 			return lastText
 		}
@@ -130,14 +119,13 @@ func outlierRules(s *sample, alpha float64) (rules []Rule, flags map[int][]Flag,
 				fs.add(i, Flag{Rule: "modified-z", Score: m, Text: text(sorted[i], m)})
 			}
 		}
-		rules = append(rules, Rule{Code: "modified-z", Name: "Modified z-score above 3.5", Lo: fptr(lo.f), Hi: fptr(hi.f), Count: nb + min(na, n-nb),
-			Note: fmt.Sprintf("Iglewicz and Hoaglin (1993): Mi = 0.6745(xi - median)/MAD with the raw MAD %s; |Mi| > 3.5 is flagged.", fmtSig(mad, 4))})
+		rules = append(rules, Rule{Code: "modified-z", Name: w.modifiedZRule(), Lo: fptr(lo.f), Hi: fptr(hi.f), Count: nb + min(na, n-nb),
+			Note: w.modifiedZNote(mad)})
 	} else {
-		rules = append(rules, Rule{Code: "modified-z", Name: "Modified z-score above 3.5",
-			Note: "The median absolute deviation is 0 (more than half the values equal the median), so the modified z-score is not defined: rule not applied."})
+		rules = append(rules, Rule{Code: "modified-z", Name: w.modifiedZRule(), Note: w.modifiedZNotApplied()})
 	}
 
-	rules = append(rules, gesdRule(sorted, alpha, fs))
+	rules = append(rules, gesdRule(w, sorted, alpha, fs))
 	return rules, fs.m, fs.total
 }
 
@@ -220,39 +208,23 @@ func fenceFlags(sorted []float64, nb, na int, lo, hi float64, code string, flags
 
 // gesdRule runs Rosner's (1983) generalized ESD procedure (method.GESD)
 // and flags its outliers, see outlierRules.
-func gesdRule(sorted []float64, alpha float64, flags *flagSet) Rule {
+func gesdRule(w words, sorted []float64, alpha float64, flags *flagSet) Rule {
 	n := len(sorted)
-	rule := Rule{Code: "gesd", Name: "Generalized ESD (Grubbs' test for one suspect)"}
 	r := method.GESDMaxSuspects(n)
+	rule := Rule{Code: "gesd", Name: w.gesdRule(n >= 3 && r == 1)}
 	if n < 3 {
-		rule.Note = "The generalized ESD needs at least 3 values: rule not applied."
+		rule.Note = w.gesdFew()
 		return rule
-	}
-	if r == 1 {
-		rule.Name = "Grubbs' test (generalized ESD with one suspect)"
 	}
 	steps, nout := method.GESD(sorted, alpha, r)
 	for i := 0; i < nout; i++ {
 		st := steps[i]
-		var txt string
-		if r == 1 {
-			txt = fmt.Sprintf("Grubbs' G = %s above the critical %s", fmtSig(st.R, 4), fmtSig(st.Lambda, 4))
-		} else {
-			txt = fmt.Sprintf("step %d of the generalized ESD: R = %s, critical %s", i+1, fmtSig(st.R, 4), fmtSig(st.Lambda, 4))
-		}
 		if flags.mark(st.Index) {
-			flags.add(st.Index, Flag{Rule: "gesd", Score: st.R, Text: txt})
+			flags.add(st.Index, Flag{Rule: "gesd", Score: st.R, Text: w.gesdFlag(r == 1, i+1, st.R, st.Lambda)})
 		}
 	}
 	rule.Count = nout
-	note := fmt.Sprintf("Rosner (1983) at α = %s, testing up to %d suspect(s) (our limit: min(10, max(1, n/10))); with one suspect this is Grubbs' two-sided test. It assumes the other values are roughly normal.", fmtSig(alpha, 3), r)
-	if n < 25 && r > 1 {
-		note += " Rosner's critical values are approximate below 25 values."
-	}
-	if len(steps) < r {
-		note += fmt.Sprintf(" Stopped after %d step(s): the remaining values are all equal.", len(steps))
-	}
-	rule.Note = note
+	rule.Note = w.gesdNote(alpha, r, n, len(steps))
 	return rule
 }
 
@@ -261,18 +233,4 @@ func fptr(x float64) *float64 {
 		return nil
 	}
 	return &x
-}
-
-// fmtSig formats x with d significant digits, without exponent for
-// everyday magnitudes.
-func fmtSig(x float64, d int) string {
-	if x == 0 || !finite(x) {
-		return "0"
-	}
-	e := int(math.Floor(math.Log10(math.Abs(x))))
-	if e < -4 || e >= 9 {
-		return fmt.Sprintf("%.*g", d, x)
-	}
-	dec := max(0, d-1-e)
-	return fmt.Sprintf("%.*f", dec, x)
 }

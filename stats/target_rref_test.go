@@ -17,7 +17,7 @@ func TestTargetR(t *testing.T) {
 	for set, r := range ref {
 		x, mean, sd := methodsSet(t, set)
 		mu := r["target"]
-		tg := targetSection(x, mean, sd, mu, 0.95, decimal.Grid{}) // binary, as R computes
+		tg := targetSection(words{}, x, mean, sd, mu, 0.95, decimal.Grid{}) // binary, as R computes
 		if tg.T == nil {
 			t.Fatalf("%s: no t test", set)
 		}
