@@ -8,6 +8,27 @@ import (
 	"lotlens/stats/method"
 )
 
+// Centre: location statistics.
+type Centre struct {
+	Mean      float64   `json:"mean"`
+	MeanCI    *Interval `json:"meanCI,omitempty"`
+	Median    float64   `json:"median"`
+	MedianCI  *Interval `json:"medianCI,omitempty"`
+	Trimmed10 float64   `json:"trimmed10"`
+	// Modes are the most repeated values with their count; empty with
+	// ModeNote "no repeated value" when all values are unique.
+	Modes      []Mode     `json:"modes,omitempty"`
+	ModeNote   string     `json:"modeNote,omitempty"`
+	ModalClass [2]float64 `json:"modalClass"` // histogram bin with the most values
+}
+
+// Mode is a repeated value and how often it occurs.
+type Mode struct {
+	Value float64 `json:"value"`
+	Text  string  `json:"text"`
+	Count int     `json:"count"`
+}
+
 // buildCentre fills the centre section: mean and median with their
 // intervals, the 10% trimmed mean, the modes. An interval that cannot be
 // computed (values near 1e308) is left out with a Note; the rest stays.

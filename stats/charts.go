@@ -7,6 +7,69 @@ import (
 	"lotlens/stats/method"
 )
 
+// Charts carries what the chart package draws. Long series are thinned
+// (Thinned says so) so that the report stays small for any n.
+type Charts struct {
+	Histogram Histogram  `json:"histogram"`
+	Box       Box        `json:"box"`
+	ProbPlot  ProbPlot   `json:"probPlot"`
+	Series    []SeriesPt `json:"series"`
+	Thinned   bool       `json:"thinned,omitempty"`
+}
+
+// Histogram bins: Edges has len(Counts)+1 entries.
+type Histogram struct {
+	Rule   string    `json:"rule"` // "freedman-diaconis" or "sturges"
+	Edges  []float64 `json:"edges"`
+	Counts []int     `json:"counts"`
+}
+
+// Box is the box-plot elements under the chosen quantile definition.
+type Box struct {
+	// Quantile is the definition of the quartiles and fences
+	// (settings.quantile).
+	Quantile  string  `json:"quantile"`
+	Q1        float64 `json:"q1"`
+	Median    float64 `json:"median"`
+	Q3        float64 `json:"q3"`
+	LoWhisker float64 `json:"loWhisker"`
+	HiWhisker float64 `json:"hiWhisker"`
+	InnerLo   float64 `json:"innerLo"`
+	InnerHi   float64 `json:"innerHi"`
+	OuterLo   float64 `json:"outerLo"`
+	OuterHi   float64 `json:"outerHi"`
+}
+
+// ProbPlot is a normal probability plot: theoretical quantile Z against the
+// ordered value Y, with a pointwise confidence band around the fitted line.
+type ProbPlot struct {
+	Positions string     `json:"positions"` // plotting positions, e.g. "Blom (i-3/8)/(n+1/4)"
+	Points    []ProbPt   `json:"points"`
+	Band      []BandPt   `json:"band"`
+	Line      [2]float64 `json:"line"` // intercept, slope (mean, SD)
+}
+
+// ProbPt is one point of the probability plot.
+type ProbPt struct {
+	Z   float64 `json:"z"`
+	Y   float64 `json:"y"`
+	Row int     `json:"row"`
+}
+
+// BandPt is the band at one theoretical quantile.
+type BandPt struct {
+	Z  float64 `json:"z"`
+	Lo float64 `json:"lo"`
+	Hi float64 `json:"hi"`
+}
+
+// SeriesPt is one value in data order.
+type SeriesPt struct {
+	I   int     `json:"i"` // position in data order (0-based)
+	Row int     `json:"row"`
+	Y   float64 `json:"y"`
+}
+
 // maxBins bounds the histogram (heavy tails can ask the Freedman-Diaconis
 // rule for thousands of bins).
 const maxBins = 200

@@ -6,6 +6,37 @@ import (
 	"lotlens/stats/method"
 )
 
+// Quantiles under the chosen definition, and the quartiles under all of them.
+type Quantiles struct {
+	Method      string        `json:"method"`
+	Name        string        `json:"name"` // the definition in words
+	Min         float64       `json:"min"`
+	Q1          float64       `json:"q1"`
+	Median      float64       `json:"median"`
+	Q3          float64       `json:"q3"`
+	Max         float64       `json:"max"`
+	Percentiles []Percentile  `json:"percentiles"` // 0.135, 1, 5, 95, 99, 99.865
+	All         []QuartileSet `json:"all"`         // hf1..hf9 and tukey
+	// Sensitive is set when another definition would flag different readings
+	// by Tukey's fences; Note says which rows.
+	Sensitive bool   `json:"sensitive,omitempty"`
+	Note      string `json:"note,omitempty"`
+}
+
+// Percentile is one named percentile.
+type Percentile struct {
+	P     float64 `json:"p"` // in percent, e.g. 99.865
+	Value float64 `json:"value"`
+}
+
+// QuartileSet is Q1, median and Q3 under one definition.
+type QuartileSet struct {
+	Method string  `json:"method"`
+	Q1     float64 `json:"q1"`
+	Median float64 `json:"median"`
+	Q3     float64 `json:"q3"`
+}
+
 // QuantileMethods lists the quantile definitions the engine knows: the nine
 // sample quantiles of Hyndman and Fan (1996, The American Statistician 50,
 // 361-365) and Tukey's hinges (Tukey 1977, Exploratory Data Analysis).

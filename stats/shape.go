@@ -7,6 +7,24 @@ import (
 	"lotlens/stats/method"
 )
 
+// Moment is a shape statistic with its standard error and test.
+type Moment struct {
+	Value float64 `json:"value"`
+	SE    float64 `json:"se"`
+	Test  *Test   `json:"test,omitempty"`
+}
+
+// Shape of the distribution.
+type Shape struct {
+	Skewness *Moment `json:"skewness,omitempty"` // G1, adjusted
+	Kurtosis *Moment `json:"kurtosis,omitempty"` // G2, adjusted excess
+	Omnibus  *Test   `json:"omnibus,omitempty"`  // D'Agostino-Pearson K2
+	Shapiro  *Test   `json:"shapiroWilk,omitempty"`
+	Anderson *Test   `json:"andersonDarling,omitempty"`
+	// Large is the normality test used above n = 5000 (named in Test.Name).
+	Large *Test `json:"large,omitempty"`
+}
+
 // largeTestMinN: above Shapiro-Wilk's range the K² omnibus test leads.
 const largeTestMinN = method.ShapiroMaxN + 1
 

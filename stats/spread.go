@@ -6,6 +6,22 @@ import (
 	"lotlens/stats/method"
 )
 
+// Spread: dispersion statistics.
+type Spread struct {
+	Range    float64   `json:"range"`
+	Variance *float64  `json:"variance,omitempty"` // divisor n-1; omitted (with a Note) only when it exceeds the float64 range
+	SD       float64   `json:"sd"`                 // divisor n-1
+	SDCI     *Interval `json:"sdCI,omitempty"`
+	PopSD    *float64  `json:"popSD,omitempty"` // divisor n, on request
+	CV       *float64  `json:"cv,omitempty"`    // SD / |mean|, omitted when the mean is 0 or values change sign
+	IQR      float64   `json:"iqr"`
+	// IQRQuantile is the quantile definition of the quartiles behind the
+	// IQR (settings.quantile).
+	IQRQuantile string  `json:"iqrQuantile"`
+	MAD         float64 `json:"mad"` // scaled by 1.4826
+	SEM         float64 `json:"sem"`
+}
+
 // buildSpread fills the spread section: range, SD with its interval,
 // variance, IQR and MAD (exact on the decimals as typed), SEM, CV.
 func buildSpread(rep *Report, w words, s *sample, opts Options) *Spread {

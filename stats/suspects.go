@@ -6,6 +6,35 @@ import (
 	"lotlens/stats/method"
 )
 
+// Suspects: readings flagged by standard rules. Nothing is removed.
+type Suspects struct {
+	Rules    []Rule    `json:"rules"`
+	Readings []Suspect `json:"readings"`
+}
+
+// Rule is one outlier rule as applied.
+type Rule struct {
+	Code  string   `json:"code"` // "tukey-inner", "tukey-outer", "adjusted-box", "modified-z", "gesd"
+	Name  string   `json:"name"`
+	Lo    *float64 `json:"lo,omitempty"` // lower limit, where the rule has one
+	Hi    *float64 `json:"hi,omitempty"`
+	Count int      `json:"count"`
+	Note  string   `json:"note,omitempty"`
+}
+
+// Suspect is a flagged reading with every rule that flags it.
+type Suspect struct {
+	Reading
+	Flags []Flag `json:"flags"`
+}
+
+// Flag says which rule flags a reading and by how much.
+type Flag struct {
+	Rule  string  `json:"rule"`
+	Score float64 `json:"score"` // rule's own measure: distance beyond the fence, |Mi|, R_i...
+	Text  string  `json:"text"`
+}
+
 // outlierRules applies the suspect-reading rules to the sample, whose
 // quartiles follow the report's quantile definition and whose median is the
 // centre's. Flags are keyed by index into the sorted data; nothing is

@@ -8,6 +8,15 @@ import (
 	"lotlens/stats/method"
 )
 
+// Target: tests of the centre against the target value.
+type Target struct {
+	Value     float64 `json:"value"`
+	T         *Test   `json:"t,omitempty"`
+	Wilcoxon  *Test   `json:"wilcoxon,omitempty"`
+	Inside    bool    `json:"inside"` // target inside the CI of the quoted centre
+	Statement string  `json:"statement"`
+}
+
 // hlMaxN caps the Hodges-Lehmann estimate and interval: above it the
 // O(n log n) selection over the n(n+1)/2 Walsh averages costs more than the
 // rest of the analysis, and the median with its interval says the same for
