@@ -211,10 +211,9 @@ func (s *server) store(w http.ResponseWriter, r *http.Request) {
 		}
 		ttl = days * 86400
 	}
-	if r.ContentLength > int64(s.cfg.MaxBytes) {
-		s.fail(w, http.StatusRequestEntityTooLarge, "the encrypted copy is larger than "+strconv.Itoa(s.cfg.MaxBytes)+" bytes")
-		return
-	}
+	// The body is read up to the cap before answering (answering first made
+	// the local runtime reset the connection, which the page would show as
+	// "offline"); the page checks the size before it sends.
 	body, err := io.ReadAll(io.LimitReader(r.Body, int64(s.cfg.MaxBytes)+1))
 	if err != nil {
 		s.fail(w, http.StatusBadRequest, "the body could not be read")

@@ -165,8 +165,11 @@ func Run(t *testing.T, base string, maxBytes, perHour int) {
 			t.Errorf("%s: status %d, want %d (%s)", c.name, res.StatusCode, c.status, b)
 		}
 	}
-	if res, _ := do("GET", "/s/not-an-id", "", nil, nil); res.StatusCode != 404 {
-		t.Errorf("/s/ with a bad id: %d", res.StatusCode)
+	// A bad id after /s/ is the site's own 404 page.
+	if res, err := c.Get(base + "/s/not-an-id"); err != nil || res.StatusCode != 404 {
+		t.Errorf("/s/ with a bad id: %v %v", res, err)
+	} else {
+		res.Body.Close()
 	}
 	// Rate limited: this client has stored twice and deleted twice this hour
 	// (deletes count too).
