@@ -43,9 +43,6 @@ func (k *mapKV) Delete(key string) error {
 }
 
 func TestStore(t *testing.T) {
-	if testing.Short() {
-		t.Skip("waits for an expiry")
-	}
 	kv := &mapKV{m: map[string]string{}, t: map[string]time.Time{}}
 	cfg := stored.Config{MaxBytes: 4096, MaxDays: 30, StoresPerHour: 6, TestSeconds: true}
 	site := http.NotFoundHandler()
