@@ -380,13 +380,13 @@ func TestExclusionRecomputes(t *testing.T) {
 	err = chromedp.Run(s.ctx,
 		chromedp.SetValue("#target", "5.00", chromedp.ByID),
 		chromedp.Click("#share", chromedp.ByID),
-		chromedp.Poll(`document.getElementById("share-url").value.includes("#d=")`, nil, chromedp.WithPollingTimeout(10*time.Second)),
+		chromedp.Poll(`document.getElementById("share-url").value.includes("#s=")`, nil, chromedp.WithPollingTimeout(10*time.Second)),
 		chromedp.Value("#share-url", &link, chromedp.ByID),
 	)
 	if err != nil {
 		t.Fatal(err)
 	}
-	if !strings.HasPrefix(link, s.base+"/#d=") {
+	if !strings.HasPrefix(link, s.base+"/#s=") {
 		t.Fatalf("share link %q", link)
 	}
 	var target string

@@ -68,7 +68,7 @@ export async function shareLink(request) {
   note("Making the link…");
   let r;
   try { r = await payload(request, "link"); } catch (e) {
-    note(e.message + (e.code === "too-large" ? "" : ""), true);
+    note(e.message, true);
     box.dataset.tooLarge = e.code === "too-large" ? "1" : "";
     $("share-file").classList.toggle("primary", e.code === "too-large");
     return;
