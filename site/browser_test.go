@@ -380,13 +380,13 @@ func TestExclusionRecomputes(t *testing.T) {
 	err = chromedp.Run(s.ctx,
 		chromedp.SetValue("#target", "5.00", chromedp.ByID),
 		chromedp.Click("#share", chromedp.ByID),
-		chromedp.Poll(`document.getElementById("share-url").value.includes("#d=")`, nil, chromedp.WithPollingTimeout(10*time.Second)),
+		chromedp.Poll(`document.getElementById("share-url").value.includes("#s=")`, nil, chromedp.WithPollingTimeout(10*time.Second)),
 		chromedp.Value("#share-url", &link, chromedp.ByID),
 	)
 	if err != nil {
 		t.Fatal(err)
 	}
-	if !strings.HasPrefix(link, s.base+"/#d=") {
+	if !strings.HasPrefix(link, s.base+"/#s=") {
 		t.Fatalf("share link %q", link)
 	}
 	var target string
@@ -669,8 +669,8 @@ func TestDecimalMarkChoice(t *testing.T) {
 // TestEncodedFileShared drops a UTF-16 file and a Windows-1252 (Latin-1)
 // file whose header has non-ASCII characters and a unit, then shares it: the
 // preview shows the header as the engine's reader decoded it, and the link
-// (which carries the engine's decoded text) reopens with the same header,
-// unit and figures. Expected figures: stats.Analyze run natively on the same
+// (which carries the file's bytes as read) reopens with the same header,
+// unit, figures and encoding. Expected figures: stats.Analyze run natively on the same
 // text as UTF-8 (invented values).
 func TestEncodedFileShared(t *testing.T) {
 	text := "Épaisseur (µm)\r\n12,5\r\n12,7\r\n12,4\r\n12,9\r\n12,6\r\n13,0\r\n12,5\r\n12,8\r\n"
@@ -739,12 +739,12 @@ func TestEncodedFileShared(t *testing.T) {
 			var link string
 			err = chromedp.Run(s.ctx,
 				chromedp.Click("#share", chromedp.ByID),
-				chromedp.Poll(`document.getElementById("share-url").value.includes("#d=")`, nil, chromedp.WithPollingTimeout(10*time.Second)),
+				chromedp.Poll(`document.getElementById("share-url").value.includes("#s=")`, nil, chromedp.WithPollingTimeout(10*time.Second)),
 				chromedp.Value("#share-url", &link, chromedp.ByID))
 			if err != nil {
 				t.Fatal(err)
 			}
-			if !strings.HasPrefix(link, s.base+"/#d=") {
+			if !strings.HasPrefix(link, s.base+"/#s=") {
 				t.Fatalf("share link %q", link)
 			}
 			err = chromedp.Run(s.ctx,
@@ -757,6 +757,9 @@ func TestEncodedFileShared(t *testing.T) {
 			}
 			s.state(t)
 			check("opened from the link")
+			if err := chromedp.Run(s.ctx, chromedp.Text("#preview-note", &note, chromedp.ByID)); err != nil || !strings.Contains(note, f.encoding) {
+				t.Errorf("opened from the link: preview note %q does not say the encoding %s", note, f.encoding)
+			}
 		})
 	}
 }
