@@ -32,8 +32,8 @@ vet:
 test-go: ## native unit tests (browser tests run in test-browser)
 	$(GO) test -short ./...
 
-test-wasm: ## the engine's tests again as js/wasm, in Node through go_js_wasm_exec
-	PATH="$(WASMPATH)" GOOS=js GOARCH=wasm $(GO) test ./stats/...
+test-wasm: ## the engine's tests again as js/wasm (-short: the long property runs are native only), in Node through go_js_wasm_exec
+	PATH="$(WASMPATH)" GOOS=js GOARCH=wasm $(GO) test -short ./stats/...
 
 test-browser: deps-browser dist ## the page in headless Chromium
 	$(GO) test -count=1 ./site/
