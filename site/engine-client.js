@@ -44,6 +44,7 @@ export function restartEngine(reason) {
   for (const [, p] of pending) p.reject(new Error(reason));
   pending.clear();
   state.hasTable = false;
+  state.lastKey = "";
   startEngine();
 }
 // cancelRead asks the worker to stop reading a file (it answers the file

@@ -29,7 +29,12 @@ async function dataText() {
 }
 export async function makeShareLink(options) {
   const text = await dataText();
+  // reasons: {row: text} for the rows left out with a reason typed (the
+  // engine does not carry them yet; see options.excludeReasons to come)
+  const reasons = {};
+  for (const r of options.exclude || []) { const t = (state.reasons.get(r) || "").trim(); if (t) reasons[r] = t; }
   const payload = { v: 1, text, name: state.source === "file" ? state.file.name : "", cols: state.cols, options };
+  if (Object.keys(reasons).length) payload.reasons = reasons;
   const z = await pipe(new TextEncoder().encode(JSON.stringify(payload)), new CompressionStream("deflate-raw"));
   return location.origin + location.pathname + "#d=" + b64url(z);
 }
