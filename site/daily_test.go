@@ -285,10 +285,10 @@ func TestScreensAndFocus(t *testing.T) {
 		s.state(t)
 		s.eval(t, `(() => { window.__blobs = []; const o = URL.createObjectURL.bind(URL);
 			URL.createObjectURL = (b) => { window.__blobs.push(b); return o(b) };
-			document.querySelector("#card-centre .save-svg").scrollIntoView({block: "center"}); return true })()`, nil)
+			document.querySelector("#card-centre figcaption button").scrollIntoView({block: "center"}); return true })()`, nil)
 		var n int
 		var status string
-		s.run(t, chromedp.Click("#card-centre .save-svg", chromedp.ByQuery), chromedp.Sleep(150*time.Millisecond),
+		s.run(t, chromedp.Click("#card-centre figcaption button", chromedp.ByQuery), chromedp.Sleep(150*time.Millisecond),
 			chromedp.Evaluate(`window.__blobs.length`, &n), chromedp.Text("#status", &status, chromedp.ByID))
 		if n != 1 || !strings.Contains(status, "histogram.svg") {
 			t.Errorf("after one click on Save SVG: %d downloads, status %q", n, status)
