@@ -18,7 +18,8 @@
 //   Web Worker as the page, never touches the page's own data or settings, and
 //   sends nothing anywhere. lotlens.ready() resolves once the engine has loaded.
 import { $, SCHEMA, state, setStatus, errorOf } from "./state.js";
-import { startEngine, whenReady, call } from "./engine-client.js";
+import { startEngine, whenReady, call, onWarmed } from "./engine-client.js";
+import { warmRender } from "./cards.js";
 import { readSettings, restoreFromHash } from "./input.js";
 import { copyText, summaryText, download, fileBase, suspectsCSV } from "./export.js";
 import { makeShareLink } from "./share.js";
@@ -65,6 +66,11 @@ window.lotlens = Object.freeze({
 
 // ---------- start ----------
 startEngine();
+// once the engine is warm, warm the page's rendering too, when idle
+onWarmed((json, svg) => {
+  const go = () => warmRender(json, svg);
+  if ("requestIdleCallback" in window) requestIdleCallback(go, { timeout: 2000 }); else setTimeout(go, 50);
+});
 whenReady().then(async () => {
   if (!(await restoreFromHash())) setStatus("Ready. Paste values, open a file or try the demo.");
 });

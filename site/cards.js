@@ -150,15 +150,19 @@ function restoreFocus(f) {
 }
 
 // reveal brings the verdict into view and focuses it when the report sits
-// below the input panel (portrait tablets, phones), where it would start far
-// below the fold.
+// below the input panel (narrower than the two-column layout of style.css:
+// portrait tablets, phones), where it would start far below the fold. It
+// waits for the next frame, whose layout the page needs anyway, so the
+// rendering does not pay for a layout of its own.
+const SIDE_BY_SIDE = matchMedia("(min-width: 1000px)");
 function reveal() {
-  const r = $("report").getBoundingClientRect(), p = $("input").getBoundingClientRect();
-  if (r.top < p.bottom - 1) return; // side by side: the report is in view
-  const v = $("card-verdict");
-  if (!v) return;
-  v.scrollIntoView({ block: "start" });
-  v.focus({ preventScroll: true });
+  if (SIDE_BY_SIDE.matches) return; // the report is beside the panel, in view
+  requestAnimationFrame(() => {
+    const v = $("card-verdict");
+    if (!v) return;
+    v.scrollIntoView({ block: "start" });
+    v.focus({ preventScroll: true });
+  });
 }
 
 // ---------- report ----------
@@ -198,5 +202,19 @@ export function printHead(rep) {
     el("p", { text: "Settings: " + settingsLines(rep).join("; ") + "." }),
     el("p", { class: "print-excluded", text: excl.length ? "Left out by the user: " + excl.map(excludedLine).join(", ") + "." : "No reading left out by the user." }),
   ];
+}
+// warmRender draws every card of a report of invented data off screen (the
+// engine's warm-up report) and throws them away, so that the first real
+// report does not pay for compiling the page's rendering code. Only while
+// the page shows no report and nothing runs; the state is put back.
+export function warmRender(json, svg) {
+  if (state.report || state.busy) return;
+  const keep = { report: state.report, svg: state.svg, full: state.full, allSuspects: state.allSuspects };
+  try {
+    state.report = JSON.parse(json); state.svg = svg;
+    for (const c of cardList()) c.build(state.report);
+  } catch (e) { /* warm-up only */ } finally {
+    Object.assign(state, keep);
+  }
 }
 export function refreshPrintHead() { if (state.report) $("print-head").replaceChildren(...printHead(state.report)); }
