@@ -1,5 +1,5 @@
 // The verdict: what to quote and why, the warnings and the caution.
-import { el, num, withUnit, helpLinks, missing, quoteIsMedian } from "./dom.js";
+import { el, num, withUnit, helpLinks, missing, quoteIsMedian, count } from "./dom.js";
 import { addCard, card, quote } from "./card-kit.js";
 
 function verdictCard(rep) {
@@ -13,9 +13,9 @@ function verdictCard(rep) {
   } else {
     kids.push(el("p", { class: "lead", text: "No centre or spread could be computed: see the notes below." }));
   }
-  kids.push(el("p", { class: "basis", text: rep.counts.used + " values used" +
+  kids.push(el("p", { class: "basis", text: count(rep.counts.used, "value") + " used" +
     (rep.counts.excluded ? ", " + rep.counts.excluded + " left out by you" : "") +
-    (rep.counts.rejected ? ", " + rep.counts.rejected + " cells not numbers" : "") +
+    (rep.counts.rejected ? ", " + count(rep.counts.rejected, "cell") + " not numbers" : "") +
     (rep.counts.missing ? ", " + rep.counts.missing + " empty" : "") + "." }));
   if (v.reasons && v.reasons.length) kids.push(el("ul", { class: "reasons" }, ...v.reasons.map((r) => el("li", { "data-code": r.code, text: r.text }))));
   if (v.warnings && v.warnings.length) kids.push(el("ul", { class: "warnings", "aria-label": "Warnings" }, ...v.warnings.map((r) => el("li", { "data-code": r.code }, el("strong", { text: "Warning: " }), r.text))));

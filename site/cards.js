@@ -4,7 +4,7 @@
 // keeps keyboard focus where the user was across a re-render. Only what the
 // engine reports is shown; nothing is computed here.
 import { $, state, actions } from "./state.js";
-import { unit, el, settingsLines, sourceText, reasonText, excludedLine, whenText } from "./dom.js";
+import { unit, el, settingsLines, sourceText, reasonText, excludedLine, whenText, count } from "./dom.js";
 import { cardList } from "./card-kit.js";
 import { hideTip, showTip, pointsOf } from "./chart-tips.js";
 // The cards, in report order: one line each.
@@ -197,7 +197,7 @@ export function printHead(rep) {
   const excl = rep.settings.excluded || [];
   return [
     el("h2", { class: "print-title", text: "Lotlens report: " + (rep.input.column || "value") + (unit() ? " (" + unit() + ")" : "") }),
-    el("p", { text: "Made " + whenText() + " from " + sourceText() + "; " + rep.counts.used + " values used." }),
+    el("p", { text: "Made " + whenText() + " from " + sourceText() + "; " + count(rep.counts.used, "value") + " used." }),
     el("p", null, "Data fingerprint (SHA-256 of the input as read): ", el("code", { text: rep.input.fingerprint })),
     el("p", { text: "Settings: " + settingsLines(rep).join("; ") + "." }),
     el("p", { class: "print-excluded", text: excl.length ? "Left out by the user: " + excl.map(excludedLine).join(", ") + "." : "No reading left out by the user." }),

@@ -383,6 +383,18 @@ func TestWordingAndInput(t *testing.T) {
 		}
 	})
 
+	t.Run("one value is one value", func(t *testing.T) {
+		s.open(t)
+		s.run(t, paste("5.1\n"), analysed(1))
+		s.state(t)
+		var basis, status string
+		s.eval(t, `document.querySelector("#card-verdict .basis").textContent`, &basis)
+		s.eval(t, `document.getElementById("status").textContent`, &status)
+		if !strings.HasPrefix(basis, "1 value used") || !strings.Contains(status, "Analysed 1 value ") {
+			t.Errorf("one value: verdict %q, status %q", basis, status)
+		}
+	})
+
 	t.Run("pasted lines counted as an editor counts them", func(t *testing.T) {
 		s.open(t)
 		s.run(t, chromedp.Evaluate(`(() => { const d = document.getElementById("data"); d.value = "";

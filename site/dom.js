@@ -52,6 +52,10 @@ export function pText(p) {
   const s = fmtP(p).replace("\u00a0", " ");
   return s.startsWith("<") ? "p " + s : "p = " + s;
 }
+// count writes "1 value", "2 values" (many defaults to one + "s").
+export function count(n, one, many) {
+  return (typeof n === "number" ? n.toLocaleString("en-US") : String(n)) + " " + (n === 1 ? one : (many || one + "s"));
+}
 export function pct(level) { return (Math.round(level * 1000) / 10) + " %"; }
 // parseNum reads a setting typed with a decimal point or comma.
 export function parseNum(s) {

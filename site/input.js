@@ -1,7 +1,7 @@
 // Input: paste, file, demo, shared link; the settings; running the
 // analysis and showing its answer or its error.
 import { $, SCHEMA, state, actions, setStatus, errorOf, showError } from "./state.js";
-import { parseNum } from "./dom.js";
+import { parseNum, count } from "./dom.js";
 import { call, whenReady, restartEngine, cancelRead } from "./engine-client.js";
 import { render, captureFocus, renderExclusions, refreshPrintHead } from "./cards.js";
 import { readShareLink } from "./share.js";
@@ -115,7 +115,10 @@ export async function analyseNow(t0, how) {
   const err = errorOf(res);
   if (err) {
     showError(err);
-    clearReport();
+    // the report goes; the column pickers stay, so that a refused column
+    // choice can be changed back
+    $("report").hidden = true; $("preview-box").hidden = true;
+    document.body.classList.remove("has-report");
     state.lastKey = "";
     document.body.dataset.state = "error";
     return;
@@ -135,7 +138,7 @@ export async function analyseNow(t0, how) {
     state.timing.beforeSendMs = state.sentAt - (performance.timeOrigin + start);
   }
   const rep = state.report;
-  setStatus((how.notice ? how.notice + " " : "") + "Analysed " + rep.counts.used + " values" + (rep.counts.excluded ? " (" + rep.counts.excluded + " left out by you)" : "") +
+  setStatus((how.notice ? how.notice + " " : "") + "Analysed " + count(rep.counts.used, "value") + (rep.counts.excluded ? " (" + rep.counts.excluded + " left out by you)" : "") +
     " in " + Math.round(t2 - start) + " ms. " + rep.input.summary);
   if (state.bigText && state.source === "text") describeBigText(rep);
   document.body.dataset.state = "report";
@@ -178,7 +181,7 @@ function lineCount(text) {
 function describeBigText(rep) {
   const rd = rep.input.reader || {};
   data.placeholder = "Pasted " + lineCount(state.bigText).toLocaleString() + " lines (" + sizeText(state.bigText.length) + "): " +
-    rep.counts.used.toLocaleString() + " values used" + (rd.headerRow ? ", header in row " + rd.headerRow : "") +
+    count(rep.counts.used, "value") + " used" + (rd.headerRow ? ", header in row " + rd.headerRow : "") +
     ". Kept out of this box so the page stays quick. Press \u201cEdit the pasted text\u201d to change them, or paste again to replace them.";
 }
 function dropBigText() {
