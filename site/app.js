@@ -20,7 +20,8 @@
 //   sends nothing anywhere. lotlens.ready() resolves once the engine has loaded.
 //   lotlens.shownReport() is the report the page shows, as JSON text.
 import { $, SCHEMA, state, setStatus, errorOf } from "./state.js";
-import { startEngine, whenReady, call } from "./engine-client.js";
+import { startEngine, whenReady, call, onWarmed } from "./engine-client.js";
+import { warmRender } from "./cards.js";
 import { readSettings, buildRequest } from "./input.js";
 import { copyText, summaryText, download, fileBase, suspectsCSV } from "./export.js";
 import { shareLink, takeFromAddress, openIncoming } from "./share.js";
@@ -61,6 +62,11 @@ window.lotlens = Object.freeze({
 // current history entry) before anything else, so it does not linger.
 const incoming = takeFromAddress();
 startEngine();
+// once the engine is warm, warm the page's rendering too, when idle
+onWarmed((json, svg) => {
+  const go = () => warmRender(json, svg);
+  if ("requestIdleCallback" in window) requestIdleCallback(go, { timeout: 2000 }); else setTimeout(go, 50);
+});
 whenReady().then(async () => {
   if (incoming) await openIncoming(incoming);
   else if (!document.body.dataset.shareError && !state.report) setStatus("Ready. Paste values, open a file or try the demo.");

@@ -1,8 +1,10 @@
-// The spec part of the "Against the spec" card: conformance, expected
-// fraction outside, capability indices with their bounds, the model, the
-// tolerance intervals and the sample sizes, as the engine reports them
-// (report.spec). Nothing is computed here but the display of ppm.
-import { el, num, fmt, pct, comma, table, helpLinks, withUnit } from "./dom.js";
+// Against the spec: the target tests where a target is given, then the
+// batch against its limits (report.spec): conformance, expected fraction
+// outside, capability indices with their bounds, the model, the tolerance
+// intervals and the sample sizes, as the engine reports them. Nothing is
+// computed here but the display of ppm.
+import { el, num, pct, comma, table, helpLinks, withUnit, missing } from "./dom.js";
+import { addCard, card, testRows } from "./card-kit.js";
 
 // ppm writes a fraction given in ppm: ppm below 1 %, a percentage above.
 function ppm(v) {
@@ -40,7 +42,7 @@ const sigmaNames = {
 
 // specSection returns the elements of the spec part, or a hint when no
 // limit is given.
-export function specSection(rep) {
+function specSection(rep) {
   const sp = rep.spec;
   const st = rep.settings;
   const hasLimit = (st.lsl !== undefined && st.lsl !== null) || (st.usl !== undefined && st.usl !== null);
@@ -120,3 +122,27 @@ export function specSection(rep) {
   out.push(helpLinks([["conformance", "outside the limits"], ["capability", "capability indices"], ["non-normal-capability", "non-normal data"], ["tolerance-intervals", "tolerance intervals"]]));
   return out;
 }
+
+function specCard(rep) {
+  const st = rep.settings;
+  const kids = [];
+  const links = helpLinks([["t-test", "t test"], ["wilcoxon", "Wilcoxon signed-rank"], ["cautions", "cautions"]]);
+  if (rep.target) {
+    const t = rep.target;
+    kids.push(el("p", { class: "quote" }, el("span", { class: "quote-label", text: "Target " }), ...withUnit(num(t.value, 0, "target"))));
+    if (t.statement) kids.push(el("p", { class: "lead-small", text: t.statement }));
+    const tests = testRows([t.t, t.wilcoxon]);
+    if (tests.length) kids.push(table(["Test", "Statistic", "df", "p", "Method"], tests));
+    kids.push(el("p", { class: "why", text: "The t test compares the mean with the target; the Wilcoxon signed-rank test compares the centre without assuming a normal shape." }));
+  } else if (st.target !== undefined && st.target !== null) {
+    kids.push(missing("target", "The comparison with the target"));
+  } else {
+    kids.push(el("p", { class: "needs", text: "To compare the centre with a nominal value, give a Target in Settings." }));
+  }
+  kids.push(...specSection(rep));
+  kids.push(links);
+  const empty = !rep.target && (st.target === undefined || st.target === null) && (st.lsl === undefined || st.lsl === null) && (st.usl === undefined || st.usl === null);
+  return card(empty ? "spec placeholder" : "spec", "Against the spec", ...kids);
+}
+
+addCard("spec", specCard);
