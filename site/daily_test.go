@@ -219,7 +219,7 @@ func TestDailyFlow(t *testing.T) {
 		}
 		var link string
 		s.run(t, chromedp.Click("#share", chromedp.ByID),
-			chromedp.Poll(`document.getElementById("share-url").value.includes("#d=")`, nil, chromedp.WithPollingTimeout(10*time.Second)),
+			chromedp.Poll(`document.getElementById("share-url").value.includes("#s=")`, nil, chromedp.WithPollingTimeout(10*time.Second)),
 			chromedp.Value("#share-url", &link, chromedp.ByID))
 		s.run(t, chromedp.Navigate("about:blank"), chromedp.Navigate(link),
 			chromedp.WaitVisible(`body[data-ready="1"]`, chromedp.ByQuery), analysed(1))
