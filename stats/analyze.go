@@ -107,6 +107,7 @@ func AnalyzeTable(tab *ingest.Table, fingerprint string, req Request) (*Report, 
 		}
 	}
 	cv.seq, cv.outOfOrder = cols.orderSequence()
+	cv.group, cv.wide = cols.group, cols.wide
 	if cols.order != nil {
 		rep.Input.Order = cols.order.Name
 	}
@@ -132,6 +133,11 @@ type colView struct {
 	// into vals), from the request's order column; nil means row order.
 	seq        []int32
 	outOfOrder int // rows out of order in the file, by the order column
+	// group is the request's group column (cells aligned with vals), wide
+	// the side-by-side value columns compared as groups; both nil without
+	// a groups section.
+	group *ingest.Column
+	wide  []*ingest.Column
 }
 
 // maxIncompleteListed bounds the incomplete rows listed per optional column.

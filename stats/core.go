@@ -244,6 +244,8 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 		}
 	}
 
+	rep.Groups = groupsSection(rep, cv, opts)
+
 	// Charts.
 	ch := &Charts{}
 	ch.Histogram = histogram(sorted, qs.Q3-qs.Q1, step)
