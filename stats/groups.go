@@ -198,10 +198,10 @@ type GroupEffect struct {
 
 // Limits of the section.
 const (
-	maxGroupSuspects = 50   // suspects listed per group
-	maxGroupPoints   = 300  // dot-plot points per group before thinning
-	maxPairShiftWork = 1e6  // readings × (tested groups - 1) up to which pairwise shifts are computed
-	groupNameLen     = 3    // labels this short are prefixed with the column name in sentences
+	maxGroupSuspects = 50  // suspects listed per group
+	maxGroupPoints   = 300 // dot-plot points per group before thinning
+	maxPairShiftWork = 1e6 // readings × (tested groups - 1) up to which pairwise shifts are computed
+	groupNameLen     = 3   // labels this short are prefixed with the column name in sentences
 )
 
 // grpSrc is one column the readings come from.
