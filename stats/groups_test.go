@@ -22,7 +22,6 @@ import (
 // testdata/rref/groups-data.tsv (invented, plus R's PlantGrowth and the
 // Hollander-Wolfe permeability data).
 
-
 // grpSets returns each data set as its groups' readings as typed.
 func grpSets(t testing.TB) map[string][][]string {
 	t.Helper()
@@ -520,4 +519,82 @@ func TestGroupsFloatPath(t *testing.T) {
 		t.Errorf("exact %v, noted %v", g.Exact, noted)
 	}
 	grpNear(t, "float kw H", grpTest(g, "kruskal-wallis").Statistic, ref["kw.H"], 1e-10)
+}
+
+// FuzzGroups: the section never panics, a successful report is JSON
+// without NaN or Inf (checkClean), every group's readings are counted
+// once, and wide and long input of the same readings agree on the groups'
+// sizes. The fuzzer gives a list of (group, reading) pairs as text. Run
+// long with
+//
+//	go test -run '^$' -fuzz FuzzGroups -fuzztime 10m -parallel 1 ./stats/
+func FuzzGroups(f *testing.F) {
+	for _, s := range []string{
+		"A 1\nA 2\nA 3\nB 4\nB 5\nB 6\n", "A 1\nB 1\nA 1\nB 1\nA 1\nB 1\n", "A 1e300\nA -1e300\nA 0\nB 1\nB 2\nB 3\n",
+		"A 0.1\nA 0.10\nA 0.100\nB 5\nB 5\nB 5\nC 7\n", "A 1\nB 2\nC 3\nD 4\n", "A 5.10\nA 5.12\nA 5.60\nA 5.11\nB 5.2\nB 5.3\nB 5.25\nC 1\nC 1\nC 1\n",
+		"A 1.7976931348623157e308\nA 1\nA 2\nB -1.7976931348623157e308\nB 3\nB 4\n",
+	} {
+		f.Add(s, 0.95, true)
+	}
+	f.Fuzz(func(t *testing.T, pairs string, conf float64, limits bool) {
+		groups := map[string][]string{}
+		var order []string
+		for _, line := range strings.Split(pairs, "\n") {
+			g, v, ok := strings.Cut(strings.TrimSpace(line), " ")
+			if !ok || g == "" || strings.ContainsAny(g+v, "\t\r\"") || strings.TrimSpace(v) == "" {
+				continue
+			}
+			if _, seen := groups[g]; !seen {
+				order = append(order, g)
+			}
+			groups[g] = append(groups[g], strings.TrimSpace(v))
+		}
+		if len(order) == 0 || len(order) > 60 {
+			return
+		}
+		var long strings.Builder
+		long.WriteString("Grp\tVal\n")
+		var gs [][]string
+		for _, g := range order {
+			gs = append(gs, groups[g])
+			for _, v := range groups[g] {
+				long.WriteString("L" + g + "\t" + v + "\n")
+			}
+		}
+		o := Options{Confidence: conf}
+		if limits {
+			lsl, usl := -1.0, 1.0
+			o.LSL, o.USL = &lsl, &usl
+		}
+		rep, err := Analyze(Request{Text: long.String(), Value: "Val", Group: "Grp", Options: o})
+		if err != nil {
+			return
+		}
+		checkClean(t, rep)
+		if rep.Groups == nil {
+			return
+		}
+		total := 0
+		for _, l := range rep.Groups.Levels {
+			total += l.N
+			if l.InTests != (l.N >= 3) {
+				t.Fatalf("group %s of %d readings: in tests %v", l.Name, l.N, l.InTests)
+			}
+		}
+		if total != rep.Counts.Used {
+			t.Fatalf("groups hold %d readings, the column %d", total, rep.Counts.Used)
+		}
+		names := make([]string, len(gs))
+		for i := range gs {
+			names[i] = fmt.Sprintf("G%d", i)
+		}
+		if len(gs) < 2 {
+			return
+		}
+		wide, err := Analyze(Request{Text: grpWideText(gs), Groups: names, Options: o})
+		if err != nil || wide.Groups == nil {
+			return // the reader may read a column of the wide table differently (e.g. as dates)
+		}
+		checkClean(t, wide)
+	})
 }
