@@ -258,8 +258,13 @@ func groupsSection(rep *Report, cv *colView, opts Options) *Groups {
 	}
 	// values, the common decimal scale, sorting
 	D, exact := 0, true
+	total := 0
 	for _, w := range ws {
-		w.sorted = make([]float64, len(w.cells))
+		total += len(w.cells)
+	}
+	fbuf := make([]float64, total) // one array for all groups
+	for _, w := range ws {
+		w.sorted, fbuf = fbuf[:len(w.cells):len(w.cells)], fbuf[len(w.cells):]
 		for k, i := range w.cells {
 			w.sorted[k] = w.src.vals[i]
 			if d := w.src.dec[i]; d < 0 || d > maxDec {
@@ -275,8 +280,9 @@ func groupsSection(rep *Report, cv *colView, opts Options) *Groups {
 		}
 	}
 	if exact {
+		mbuf := make([]int64, total)
 		for _, w := range ws {
-			w.mant = make([]int64, len(w.sorted))
+			w.mant, mbuf = mbuf[:len(w.sorted):len(w.sorted)], mbuf[len(w.sorted):]
 			for k, x := range w.sorted {
 				m, ok := mantissa(x, int8(D))
 				if !ok {
@@ -330,30 +336,56 @@ func groupsSection(rep *Report, cv *colView, opts Options) *Groups {
 // or values (numbers), in order of first appearance.
 func groupLong(src *grpSrc, gc *ingest.Column, excl map[int32]bool) []*grpWork {
 	var ws []*grpWork
-	byLabel := map[int]int{}
-	byValue := map[float64]int{}
+	byLabel := make([]int32, len(gc.LabelNames())) // label -> group + 1
+	byValue := map[float64]int32{}
+	// pass 1: each cell's group (0 = not used), and the groups' sizes
+	gid := make([]int32, len(src.vals))
+	var sizes []int
 	for i, x := range src.vals {
 		if x != x || math.IsInf(x, 0) || partnerMissing(gc, i) || (excl != nil && excl[src.rows[i]]) {
 			continue
 		}
-		var k int
-		var ok bool
+		var k int32
 		if gc.Kind == "text" {
-			k, ok = byLabel[gc.Label(i)]
+			if lb := gc.Label(i); lb < len(byLabel) {
+				k = byLabel[lb]
+			}
 		} else {
-			k, ok = byValue[gc.Values[i]]
+			k = byValue[gc.Values[i]]
 		}
-		if !ok {
-			k = len(ws)
+		if k == 0 {
+			if len(ws) >= method.MaxGroups+1 {
+				continue // refused by pickColumns; never grow without bound
+			}
 			name := strings.TrimSpace(gc.Text(i))
 			ws = append(ws, &grpWork{name: name, title: grpTitle(gc.Name, name), src: src})
-			if gc.Kind == "text" {
-				byLabel[gc.Label(i)] = k
+			sizes = append(sizes, 0)
+			k = int32(len(ws))
+			if lb := gc.Label(i); gc.Kind == "text" && lb < len(byLabel) {
+				byLabel[lb] = k
 			} else {
 				byValue[gc.Values[i]] = k
 			}
 		}
-		ws[k].cells = append(ws[k].cells, int32(i))
+		gid[i] = k
+		sizes[k-1]++
+	}
+	// pass 2: the cells of every group, carved out of one array
+	total := 0
+	for _, n := range sizes {
+		total += n
+	}
+	buf := make([]int32, total)
+	off := 0
+	for k, w := range ws {
+		w.cells = buf[off : off : off+sizes[k]]
+		off += sizes[k]
+	}
+	for i, k := range gid {
+		if k > 0 {
+			w := ws[k-1]
+			w.cells = append(w.cells, int32(i))
+		}
 	}
 	return ws
 }
