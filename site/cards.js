@@ -4,6 +4,7 @@
 import { $, state, actions } from "./state.js";
 import { fmt, fmtP, pct, unit, comma, el, num, withUnit, helpLinks, table, intervalText, missing, quoteIsMedian, settingsLines, sourceText } from "./dom.js";
 import { download, fileBase, downloadProblems } from "./export.js";
+import { groupsCard } from "./card-groups.js";
 
 // ---------- charts ----------
 // The engine's SVG text is parsed by the HTML parser of an inert
@@ -375,14 +376,6 @@ function timeCard(rep) {
     : "For control limits and run rules over time, choose an order or time column under Columns (the chart above uses the order of the rows)." }));
   kids.push(helpLinks([["run-chart", "run chart"]]));
   return card("time", "Over time", ...kids);
-}
-
-function groupsCard(rep) {
-  return card("groups placeholder", "Groups",
-    el("p", { class: "needs", text: state.cols.group
-      ? "Comparing the groups of the chosen column is not computed in this version of Lotlens."
-      : "To compare lines, shifts or suppliers, choose a group column under Columns (data with more than one column)." }),
-    helpLinks([["reading-your-report", "reading your report"]]));
 }
 
 export function printHead(rep) {

@@ -1,0 +1,122 @@
+// The Groups card: the engine's groups section (report.groups) as a
+// sentence, a table per group, the tests, the pairs and the chart. Only
+// what the engine reports is shown; nothing is computed here.
+import { state } from "./state.js";
+import { fmt, fmtP, pct, unit, el, num, helpLinks, table, missing } from "./dom.js";
+import { download, fileBase } from "./export.js";
+
+const LINKS = [["groups", "groups"], ["anova", "ANOVA and Welch's ANOVA"], ["kruskal-wallis", "Kruskal-Wallis"],
+  ["two-groups", "two groups"], ["spread-tests", "spread tests"], ["pairwise", "pairwise comparisons"], ["letters", "letters"]];
+
+function article(id, title, placeholder, kids) {
+  return el("article", { class: "card" + (placeholder ? " placeholder" : ""), id: "card-" + id, "aria-labelledby": "card-" + id + "-h" },
+    el("h3", { id: "card-" + id + "-h", text: title }), ...kids);
+}
+
+// The chart, parsed as cards.js does (an inert template); the page's tips
+// and keyboard steps work on any .chart-fig.
+function groupsFigure() {
+  const src = state.svg && state.svg.groups;
+  if (!src) return el("p", { class: "missing", text: "No chart: the report has no data for it." });
+  const tpl = document.createElement("template");
+  tpl.innerHTML = src;
+  const svg = tpl.content.firstElementChild;
+  if (!svg || svg.nodeName !== "svg" || tpl.content.childElementCount !== 1) return el("p", { class: "missing", text: "The chart could not be drawn." });
+  const fig = el("figure", { class: "chart-fig", "data-chart": "groups", tabindex: "0", "aria-describedby": "kbd-groups" });
+  fig.append(svg);
+  fig.append(el("figcaption", null,
+    el("span", { text: "Each group on one scale: box plot above its readings, the centre with its interval below the box; suspect readings circled and labelled by row; letters beside the names. " }),
+    el("span", { id: "kbd-groups", class: "kbd-hint", text: "Tap or hover a point for its row; with the keyboard, arrow keys step through the points and Enter leaves one out or puts it back." }),
+    el("button", { type: "button", class: "small", text: "Save SVG", onclick: () => download(fileBase() + "-groups.svg", src, "image/svg+xml") })));
+  return fig;
+}
+
+function range(ci, extra) {
+  if (!ci) return "\u2013";
+  return [num(ci.lo, extra), " to ", num(ci.hi, extra)];
+}
+
+function testTable(tests) {
+  return table(["Test", "Statistic", "df", "p", "Note"], tests.map((t) => [
+    t.lead ? el("strong", { text: t.name + " (leads)" }) : t.name,
+    el("span", { class: "num", "data-field": "groups-test-" + t.code, "data-value": String(t.statistic), text: fmt(t.statistic, 3) }),
+    t.df !== undefined && t.df !== null ? (t.df2 !== undefined && t.df2 !== null ? fmt(t.df, 0) + ", " + fmt(t.df2, 0) : fmt(t.df, 0)) : "\u2013",
+    el("span", { class: "num", "data-field": "groups-p-" + t.code, "data-value": String(t.p), text: fmtP(t.p) }),
+    t.method || ""]), "figs groups-tests");
+}
+
+function pairTable(set) {
+  const share = (p) => p.ofTolerance !== undefined && p.ofTolerance !== null;
+  const anyTol = set.pairs.some(share);
+  const head = ["Pair (B \u2212 A)", "Difference", "Interval", "p (adjusted)", "Differ"];
+  if (anyTol) head.push("Of tolerance");
+  return table(head, set.pairs.map((p) => {
+    const row = [p.b + " \u2212 " + p.a, p.diff !== undefined && p.diff !== null ? num(p.diff, 1) : "\u2013", range(p.ci, 1), fmtP(p.p), p.differ ? "yes" : "no"];
+    if (anyTol) row.push(share(p) ? (Math.round(p.ofTolerance * 1000) / 10) + " %" : "\u2013");
+    return row;
+  }), "figs groups-pairs");
+}
+
+function levelTable(g) {
+  const specs = g.levels.some((l) => l.spec);
+  const head = ["Group", "n", "Quote", "Centre", "Interval", "Spread", "Suspects", "Letters"];
+  if (specs) head.push("Outside spec", "Cpk (interval)");
+  return table(head, g.levels.map((l, i) => {
+    const med = l.quote === "median-iqr";
+    const row = [l.title, String(l.n), l.n ? (med ? "median, IQR" : "mean, SD") : "\u2013",
+      l.n ? num(med ? l.median : l.mean, med ? 1 : 2, "groups-centre-" + i) : "\u2013",
+      range(med ? l.medianCI : l.meanCI, med ? 1 : 2),
+      l.n ? num(med ? l.iqr : l.sd, med ? 1 : 2) : "\u2013",
+      l.suspectCount ? l.suspects.map((s) => "row " + s.row + " (" + s.text + ")").join(", ") + (l.suspectCount > l.suspects.length ? " and " + (l.suspectCount - l.suspects.length) + " more" : "") : "none",
+      l.inTests ? (l.letters || "\u2013") : "left out: " + (l.leftOut || "")];
+    if (specs) {
+      const s = l.spec;
+      row.push(s ? (Math.round(s.outside * 1000) / 10) + " % (" + (s.below + s.above) + ")" : "\u2013",
+        s && s.cpk !== undefined && s.cpk !== null ? [el("span", { text: (Math.round(s.cpk * 100) / 100).toFixed(2) + " " }), s.cpkCI ? "(" + s.cpkCI.lo.toFixed(2) + " to " + s.cpkCI.hi.toFixed(2) + ")" : ""] : "\u2013");
+    }
+    return row;
+  }), "figs groups-levels");
+}
+
+export function groupsCard(rep) {
+  const g = rep.groups;
+  if (!g) {
+    if (state.cols.group) return article("groups", "Groups", false, [missing("groups", "The comparison of groups"), helpLinks(LINKS)]);
+    return article("groups", "Groups", true, [
+      el("p", { class: "needs", text: "To compare lines, shifts or suppliers, choose a group column under Columns (data with more than one column)." }),
+      helpLinks(LINKS)]);
+  }
+  const kids = [];
+  kids.push(el("p", { class: "lead groups-statement", "data-field": "groups-statement", text: g.statement }));
+  kids.push(el("p", { class: "basis", text: g.shape === "wide"
+    ? "Groups from " + g.levels.length + " columns side by side: " + (g.columns || []).join(", ") + "."
+    : g.levels.length + " groups from column \u201c" + g.column + "\u201d." }));
+  if (g.reasons && g.reasons.length) kids.push(el("details", null,
+    el("summary", { text: g.lead === "medians" ? "Why the rank tests lead" : "Why the tests of means lead" }),
+    el("ul", { class: "reasons" }, ...g.reasons.map((r) => el("li", { "data-code": r.code, text: r.text })))));
+  kids.push(groupsFigure());
+  kids.push(levelTable(g));
+  if (g.effect) {
+    const e = g.effect, rows = [["Difference in means (" + e.b + " \u2212 " + e.a + ")", [num(e.meanDiff, 2, "groups-mean-diff")].concat(unit() ? [" " + unit()] : [])],
+      ["  interval", range(e.meanDiffCI, 2)]];
+    if (e.shift !== undefined && e.shift !== null) rows.push(["Hodges-Lehmann shift", num(e.shift, 1, "groups-shift")], ["  interval", range(e.shiftCI, 1)]);
+    if (e.hedgesG !== undefined && e.hedgesG !== null) rows.push(["Hedges' g (in pooled SDs)", e.hedgesG.toFixed(2)]);
+    if (e.ofTolerance !== undefined && e.ofTolerance !== null) rows.push(["Share of the tolerance", (Math.round(e.ofTolerance * 1000) / 10) + " %"]);
+    kids.push(el("details", { open: "" }, el("summary", { text: "How far apart" }), table(["Figure", "Value"], rows, "figs kv")));
+  }
+  if (g.centre) kids.push(el("details", null, el("summary", { text: "Tests of a difference in centre" }),
+    el("p", { class: "why", text: g.centre.why }), testTable(g.centre.tests)));
+  else kids.push(missing("groups.centre", "The tests of a difference in centre"));
+  if (g.spread) kids.push(el("details", null, el("summary", { text: "Tests of a difference in spread" }),
+    el("p", { class: "why", text: g.spread.why + " Largest SD / smallest SD: " + g.spread.ratio.toFixed(2) + " (" + g.spread.largest + " / " + g.spread.smallest + ")" +
+      (g.spread.ratioCI ? ", " + pct(g.spread.ratioCI.level) + " interval " + g.spread.ratioCI.lo.toFixed(2) + " to " + g.spread.ratioCI.hi.toFixed(2) : "") + "." }),
+    testTable(g.spread.tests)));
+  const pw = g.pairwise;
+  if (pw) for (const [key, set] of [["means", pw.means], ["medians", pw.medians]]) {
+    if (!set) continue;
+    kids.push(el("details", null, el("summary", { text: "Pairs, " + key + ": " + set.method + (set.lead ? " (gives the letters)" : "") }),
+      el("p", { class: "why", text: set.why }), pairTable(set)));
+  }
+  kids.push(helpLinks(LINKS));
+  return article("groups", "Groups", false, kids);
+}
