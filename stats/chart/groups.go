@@ -7,6 +7,9 @@ import (
 	"lotlens/stats"
 )
 
+// maxRowLabels bounds the row labels drawn per group.
+const maxRowLabels = 12
+
 // groupStyle gives each group a colour and a marker shape, so that no group
 // is told from another by colour alone (each row is also labelled).
 var groupStyle = []struct{ colour, shape string }{
@@ -43,7 +46,7 @@ func Groups(r *stats.Report) string {
 		return ""
 	}
 	lo, hi = pad(lo, hi, 0.04)
-	const rowH, left = 64.0, 128.0
+	const rowH, left = 80.0, 128.0
 	h := marginT + 24 + rowH*float64(len(g.Levels)) + marginB
 	xs := scale{lo, hi, left, Width - marginR}
 	xt, xdec := Ticks(lo, hi, 7)
@@ -124,14 +127,25 @@ func Groups(r *stats.Report) string {
 			y := dots + float64(k%5-2)*2.5
 			c.marker(st.shape, xs.at(p.Y), y, rad, st.colour, p.Row, fmt.Sprintf("%s, row %d: %s", l.Title, p.Row, f.Value(p.Y)), "")
 		}
-		lastX := -1e9
-		for _, s := range l.Suspects {
+		// row labels in two lanes below the dots, staggered so that
+		// neighbours do not overlap; beyond maxRowLabels a suspect keeps
+		// its row in its tip only
+		lastX := [2]float64{-1e9, -1e9}
+		for k, s := range l.Suspects {
 			x := xs.at(s.Value)
 			c.marker("open-circle", x, dots, 5, Vermilion, s.Row, fmt.Sprintf("%s, row %d: %s (suspect)", l.Title, s.Row, f.Value(s.Value)), "suspect")
-			if x-lastX > 44 {
-				c.text(x, dots+16, "middle", "row-label", fmt.Sprintf("row %d", s.Row))
-				lastX = x
+			if k >= maxRowLabels {
+				continue
 			}
+			lane := 0
+			if x-lastX[0] < 52 {
+				lane = 1
+				if x-lastX[1] < 52 && lastX[1] < lastX[0] {
+					lane = 0
+				}
+			}
+			lastX[lane] = x
+			c.text(x, dots+16+float64(lane)*13, "middle", "row-label", fmt.Sprintf("row %d", s.Row))
 		}
 		c.printf(`</g>`)
 	}
