@@ -65,7 +65,8 @@ func (e errString) Error() string { return string(e) }
 
 // TestColumnsAligned: order, subgroup and group columns are read with the
 // value column, rows aligned; a row missing its partner cell is listed; a
-// column no section reads is refused, never ignored.
+// column no section reads is refused, never ignored. (Values and rows
+// worked by hand from the table below.)
 func TestColumnsAligned(t *testing.T) {
 	text := "Seq\tShift\tWeight (g)\tLot\n3\tA\t5.12\tL1\n1\tA\t5.08\tL1\n2\tB\t5.10\tL2\n\tB\t5.11\tL2\n5\tA\t5.09\t\n4\tB\t5.13\tL3\n"
 	rep, err := Analyze(Request{Text: text, Value: "Weight", Order: "Seq"})
@@ -99,11 +100,19 @@ func TestColumnsAligned(t *testing.T) {
 	if !noted {
 		t.Errorf("out-of-order rows not noted: %+v", rep.Notes)
 	}
+	// the group column is read by the groups section, cell by cell with
+	// the values: Shift A holds rows 2, 3 and 6
+	grp, err := Analyze(Request{Text: text, Value: "Weight", Group: "Shift"})
+	if err != nil || grp.Groups == nil || len(grp.Groups.Levels) != 2 {
+		t.Fatalf("group Shift: %v %+v", err, grp)
+	}
+	if a := grp.Groups.Levels[0]; a.Name != "A" || a.N != 3 || a.Min != 5.08 || a.Max != 5.12 {
+		t.Errorf("group A: %s n %d %g..%g, want A, 3 readings 5.08..5.12 (rows 2, 3, 6)", a.Name, a.N, a.Min, a.Max)
+	}
 	for _, c := range []struct {
 		req  Request
 		code string
 	}{
-		{Request{Text: text, Value: "Weight", Group: "Shift"}, CodeUnused},
 		{Request{Text: text, Value: "Weight", Subgroup: "Lot"}, CodeUnused},
 		{Request{Text: text, Value: "Weight", Order: "Weight"}, CodeColumn},
 		{Request{Text: text, Value: "Weight", Order: "Shift"}, CodeColumn},
