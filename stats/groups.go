@@ -1244,19 +1244,24 @@ func grpTolerance(g *Groups) float64 {
 // values of the group column beside a number in the value column).
 func groupCount(val, gc *ingest.Column) int {
 	seen := map[float64]bool{}
-	labels := map[int]bool{}
+	labels := make([]bool, len(gc.LabelNames()))
+	k := 0
 	for i, x := range val.Values {
 		if x != x || math.IsInf(x, 0) || partnerMissing(gc, i) {
 			continue
 		}
 		if gc.Kind == "text" {
-			labels[gc.Label(i)] = true
-		} else {
-			seen[gc.Values[i]] = true
+			if lb := gc.Label(i); lb < len(labels) && !labels[lb] {
+				labels[lb] = true
+				k++
+			}
+		} else if v := gc.Values[i]; !seen[v] {
+			seen[v] = true
+			k++
 		}
-		if len(labels)+len(seen) > method.MaxGroups {
+		if k > method.MaxGroups {
 			break
 		}
 	}
-	return len(labels) + len(seen)
+	return k
 }
