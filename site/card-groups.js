@@ -1,7 +1,7 @@
 // The Groups card: the engine's groups section (report.groups) as a
 // sentence, a table per group, the tests, the pairs and the chart. Only
 // what the engine reports is shown; nothing is computed here.
-import { state } from "./state.js";
+import { state, actions } from "./state.js";
 import { fmt, fmtP, pct, unit, el, num, helpLinks, table, missing } from "./dom.js";
 import { download, fileBase } from "./export.js";
 
@@ -78,13 +78,32 @@ function levelTable(g) {
   }), "figs groups-levels");
 }
 
+// sideBySide offers the numeric columns to compare as groups when the data
+// hold one column per group ("wide"); the choice travels as state.cols.groups.
+function sideBySide(rep) {
+  const cols = ((rep.input && rep.input.columns) || []).filter((c) => c.numbers > 0 && c.kind === "number");
+  if (cols.length < 2) return null;
+  const on = new Set(state.cols.groups || []);
+  const boxes = cols.map((c) => el("label", { class: "inline" },
+    el("input", { type: "checkbox", name: "groups-wide", value: c.name, checked: on.has(c.name) }), " " + c.name + " "));
+  const go = () => {
+    const picked = Array.from(document.querySelectorAll('input[name="groups-wide"]:checked')).map((b) => b.value);
+    state.cols.groups = picked.length >= 2 ? picked : [];
+    if (state.cols.groups.length) { state.cols.group = ""; const s = document.getElementById("col-group"); if (s) s.value = ""; }
+    actions.analyse();
+  };
+  return el("fieldset", { class: "groups-wide" }, el("legend", { text: "Or compare columns side by side (one column per group)" }), ...boxes,
+    el("button", { type: "button", class: "small", id: "groups-wide-go", text: on.size ? "Compare these columns" : "Compare side by side", onclick: go }),
+    on.size ? el("button", { type: "button", class: "small", text: "Stop comparing columns", onclick: () => { state.cols.groups = []; actions.analyse(); } }) : null);
+}
+
 export function groupsCard(rep) {
   const g = rep.groups;
   if (!g) {
     if (state.cols.group) return article("groups", "Groups", false, [missing("groups", "The comparison of groups"), helpLinks(LINKS)]);
     return article("groups", "Groups", true, [
       el("p", { class: "needs", text: "To compare lines, shifts or suppliers, choose a group column under Columns (data with more than one column)." }),
-      helpLinks(LINKS)]);
+      sideBySide(rep), helpLinks(LINKS)]);
   }
   const kids = [];
   kids.push(el("p", { class: "lead groups-statement", "data-field": "groups-statement", text: g.statement }));
@@ -117,6 +136,7 @@ export function groupsCard(rep) {
     kids.push(el("details", null, el("summary", { text: "Pairs, " + key + ": " + set.method + (set.lead ? " (gives the letters)" : "") }),
       el("p", { class: "why", text: set.why }), pairTable(set)));
   }
+  if (g.shape === "wide") kids.push(sideBySide(rep));
   kids.push(helpLinks(LINKS));
   return article("groups", "Groups", false, kids);
 }

@@ -131,4 +131,21 @@ func TestGroupsCard(t *testing.T) {
 	if wide.Groups == nil || wide.Groups.Shape != "wide" || wide.Groups.Statement != wideWant.Groups.Statement {
 		t.Errorf("wide through the page: %+v", wide.Groups)
 	}
+
+	// wide on the page: paste the columns side by side, tick both, compare
+	var shown, shape string
+	if err := chromedp.Run(s.ctx, paste(a.String()), analysed(3),
+		chromedp.Evaluate(`document.querySelectorAll('input[name="groups-wide"]').forEach((b) => { b.checked = true }); true`, nil),
+		chromedp.Click("#groups-wide-go", chromedp.ByID), analysed(4)); err != nil {
+		t.Fatal(err)
+	}
+	s.state(t)
+	if err := chromedp.Run(s.ctx,
+		chromedp.Text("#card-groups [data-field=groups-statement]", &shown, chromedp.ByQuery),
+		chromedp.Text("#card-groups .basis", &shape, chromedp.ByQuery)); err != nil {
+		t.Fatal(err)
+	}
+	if shown != wideWant.Groups.Statement || !strings.Contains(shape, "side by side") {
+		t.Errorf("wide on the page: %q (%q), engine %q", shown, shape, wideWant.Groups.Statement)
+	}
 }
