@@ -4,6 +4,7 @@
 import { $, state, actions } from "./state.js";
 import { fmt, fmtP, pct, unit, comma, el, num, withUnit, helpLinks, table, intervalText, missing, quoteIsMedian, settingsLines, sourceText } from "./dom.js";
 import { download, fileBase, downloadProblems } from "./export.js";
+import { specSection } from "./card-spec.js";
 import { groupsCard } from "./card-groups.js";
 
 // ---------- charts ----------
@@ -355,14 +356,7 @@ function specCard(rep) {
   } else {
     kids.push(el("p", { class: "needs", text: "To compare the centre with a nominal value, give a Target in Settings." }));
   }
-  if (st.lsl === undefined && st.usl === undefined || st.lsl === null && st.usl === null) {
-    kids.push(el("p", { class: "needs", text: "To see the fraction out of specification and the capability indices, give the lower and upper specification limits (LSL, USL) in Settings." }));
-  } else {
-    kids.push(el("p", { class: "needs" }, "Limits: ",
-      st.lsl !== undefined && st.lsl !== null ? el("span", null, "LSL ", num(st.lsl, 0, "lsl")) : "no LSL", ", ",
-      st.usl !== undefined && st.usl !== null ? el("span", null, "USL ", num(st.usl, 0, "usl")) : "no USL",
-      ". They are drawn on the histogram and the run chart. The fraction out of specification and the capability indices are not computed in this version of Lotlens."));
-  }
+  kids.push(...specSection(rep));
   kids.push(links);
   const empty = !rep.target && (st.target === undefined || st.target === null) && (st.lsl === undefined || st.lsl === null) && (st.usl === undefined || st.usl === null);
   return card(empty ? "spec placeholder" : "spec", "Against the spec", ...kids);

@@ -6,9 +6,12 @@
 //        {type:"progress", id, read, total} and then {type:"file-read", id, json}
 //   {type:"cancel"}                      stop reading; the file call answers
 //                                        {type:"file-read", id, json} with code "cancelled"
-//   {type:"forget"}                      drop the kept file table
-//   {type:"text", id}                    the kept file's text as the engine decoded it
-//                                        (for the share link); reply {type:"text", id, text} or {.., json}
+//   {type:"forget"}                      drop the kept table and the data's bytes
+//   {type:"share", id, share, form}      make a share payload (form "link", "file" or "bytes");
+//                                        reply {type:"shared", id, json, bytes?}
+//   {type:"open", id, data, form}        open a payload: data is the link text, a File
+//                                        (.lotlens) or a Uint8Array (decrypted stored copy);
+//                                        reply {type:"opened", id, json, shared?, svg}
 // Every json is a report or the engine's error object {error, code}.
 // Out, once: {type:"ready"} (posted by the Go side) or {type:"error", error}.
 "use strict";
@@ -78,6 +81,16 @@ async function readFile(id, file) {
   }
 }
 
+async function openPayload(id, data, form) {
+  try {
+    if (typeof data !== "string" && !(data instanceof Uint8Array)) data = new Uint8Array(await data.arrayBuffer());
+    const r = self.lotlensOpen(data, form);
+    postMessage({ type: "opened", id, json: r.json, shared: r.shared, svg: r.svg });
+  } catch (e) {
+    postMessage({ type: "opened", id, json: JSON.stringify({ error: "The file could not be read: pick it again.", code: "file-read" }) });
+  }
+}
+
 onmessage = (ev) => {
   const m = ev.data;
   switch (m.type) {
@@ -102,11 +115,14 @@ onmessage = (ev) => {
     case "forget":
       self.lotlensForget();
       break;
-    case "text":
+    case "share":
       {
-        const r = self.lotlensText();
-        postMessage(Object.assign({ type: "text", id: m.id }, r.text !== undefined ? { text: r.text } : { json: r.json }));
+        const r = self.lotlensShare(JSON.stringify(m.share), m.form);
+        postMessage({ type: "shared", id: m.id, json: r.json, bytes: r.bytes }, r.bytes ? [r.bytes.buffer] : []);
       }
+      break;
+    case "open":
+      openPayload(m.id, m.data, m.form);
       break;
   }
 };

@@ -4,7 +4,7 @@ import { $, SCHEMA, state, actions, setStatus, errorOf, showError } from "./stat
 import { parseNum } from "./dom.js";
 import { call, whenReady, restartEngine, cancelRead } from "./engine-client.js";
 import { render } from "./cards.js";
-import { readShareLink } from "./share.js";
+import { openShared, isSharedFile, clearShared } from "./share.js";
 
 const data = $("data");
 function resetForNewData() {
@@ -12,6 +12,7 @@ function resetForNewData() {
   state.allSuspects = false;
   state.leaveOutRows = []; state.leaveOutText = ""; $("leave-out").value = "";
   state.cols = { value: "", group: "", order: "", subgroup: "" };
+  clearShared();
 }
 
 export function readSettings() {
@@ -51,8 +52,8 @@ export function readSettings() {
   return errs.length ? null : o;
 }
 
-function buildRequest(options) {
-  const req = { schema: SCHEMA, options };
+export function buildRequest(options) {
+  const req = { schema: SCHEMA, options: Object.assign({}, state.carried, options) };
   for (const k of ["value", "group", "order", "subgroup"]) if (state.cols[k]) req[k] = state.cols[k];
   if (!state.cols.group && state.cols.groups && state.cols.groups.length) req.groups = state.cols.groups; // side by side (card-groups.js)
   if (state.source === "text") req.text = state.text;
@@ -142,6 +143,13 @@ function analyseText(t0) {
 
 async function analyseFile(file) {
   if (!file) return;
+  if (isSharedFile(file)) {
+    if (state.source === "file") call({ type: "forget" });
+    resetForNewData();
+    state.report = null; $("report").hidden = true;
+    await openShared(file, "file", "file");
+    return;
+  }
   resetForNewData();
   state.source = "file"; state.file = file; state.text = ""; state.hasTable = false; state.sourceName = file.name;
   const t0 = performance.now();
@@ -219,33 +227,6 @@ function toggleExclude(row) {
   analyseNow();
 }
 
-// ---------- shared link ----------
-export async function restoreFromHash() {
-  if (!location.hash.startsWith("#d=")) return false;
-  let p;
-  try { p = await readShareLink(location.hash); } catch (e) {
-    setStatus("This link's data could not be read (" + e.message + "). The link may be cut short: ask for the file instead.", true);
-    return false;
-  }
-  const o = p.options || {};
-  state.sourceName = p.name || "";
-  if (p.text.length > BIG_PASTE) holdBigText(p.text); else { dropBigText(); data.value = p.text; }
-  $("unit").value = o.unit || "";
-  for (const k of ["target", "lsl", "usl"]) $(k).value = o[k] !== undefined && o[k] !== null ? String(o[k]) : "";
-  if (o.confidence) $("confidence").value = String(o.confidence);
-  if (o.quantile) $("quantile").value = o.quantile;
-  $("decimal-mark").value = o.decimalMark || "";
-  state.source = "text"; state.text = p.text; state.file = null;
-  state.exclude = new Set(o.exclude || []);
-  state.leaveOutRows = []; state.leaveOutText = ""; $("leave-out").value = "";
-  state.cols = Object.assign({ value: "", group: "", order: "", subgroup: "" }, p.cols || {});
-  await whenReady();
-  await analyseNow();
-  setStatus("Opened from a shared link" + (p.name ? " (" + p.name + ")" : "") + ". " + $("status").textContent);
-  return true;
-}
-
-
 // ---------- wiring ----------
 $("analyse").addEventListener("click", () => analyseText());
 data.addEventListener("paste", (ev) => {
@@ -295,7 +276,7 @@ $("clear").addEventListener("click", () => {
   resetForNewData();
   state.source = null; state.text = ""; state.file = null; state.report = null; state.sourceName = "";
   $("report").hidden = true; $("preview-box").hidden = true; $("columns").hidden = true; $("exclusions").hidden = true;
-  if (location.hash) history.replaceState(null, "", location.pathname);
+  if (location.hash || location.search) history.replaceState(null, "", location.pathname);
   setStatus("Cleared.");
   data.focus();
 });

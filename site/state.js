@@ -30,6 +30,9 @@ export const state = {
   runToken: 0,      // the latest analysis; older answers are dropped
   bigText: "",      // a large paste kept out of the text box
   tip: { row: null, fig: null, index: -1 }, // the chart point whose tip is shown
+  shared: null,     // the data came from a shared payload: {how, created, name, fingerprint, bytes} (share.js)
+  reasons: new Map(), // row -> the user's reason for leaving it out (carried in a share payload)
+  carried: {},      // options of a shared payload the page has no field for (kept for re-runs)
 };
 
 // actions are set by input.js: analyse (run the analysis again) and

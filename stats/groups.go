@@ -2,22 +2,22 @@ package stats
 
 import (
 	"errors"
-	"fmt"
 	"math"
 	"sort"
 	"strconv"
 	"strings"
 
-	"gonum.org/v1/gonum/stat/distuv"
-
+	"lotlens/stats/decimal"
 	"lotlens/stats/ingest"
 	"lotlens/stats/method"
 )
 
 // This file: the Groups section (do lines, shifts, cavities or suppliers
-// differ): its report types and its builder. The numbers come from
-// stats/method (anova.go, ranks.go, pairwise.go, spreadtest.go); the
-// sentences are made by the small functions at the bottom of the file.
+// differ): its report types and its builder. Each group's own figures come
+// from the column's code (prepareSample, buildCentre, buildSpread,
+// boxElements, skewness, verdict, withinOf, method.Capability); the tests
+// from stats/method (anova.go, ranks.go, pairwise.go, spreadtest.go); the
+// sentences from the "Groups" part of words.go.
 //
 // Groups come either from a group column beside the value column ("long":
 // Request.Group) or from several value columns side by side, one per group
@@ -99,17 +99,27 @@ type GroupPoint struct {
 	Y   float64 `json:"y"`
 }
 
-// GroupSpec is one group against the specification limits.
+// GroupSpec is one group against the specification limits: the counts
+// outside, decided as the spec section decides them, and the capability
+// indices of method.Capability from the group's own figures.
 type GroupSpec struct {
 	Below     int       `json:"below"`               // readings below the LSL
 	Above     int       `json:"above"`               // readings above the USL
 	Outside   float64   `json:"outside"`             // fraction outside, observed
 	OutsideCI *Interval `json:"outsideCI,omitempty"` // Clopper-Pearson
-	Cpk       *float64  `json:"cpk,omitempty"`
-	CpkCI     *Interval `json:"cpkCI,omitempty"`
-	// Sigma names the sigma behind Cpk: "overall-sd" (the group's sample
-	// SD, so Cpk here equals Ppk).
-	Sigma string `json:"sigma"`
+	// Cpk is from the group's within-process sigma, estimated as the
+	// column's (see within.go): the moving range of the group's readings
+	// in time order, or the pooled SD of its subgroups when a subgroup
+	// column is given. Sigma names the estimator (a Within* code) and
+	// SigmaWithin gives it; both are absent when no within sigma can be had
+	// (too few readings in a row, no variation), with a Note.
+	Cpk         *float64  `json:"cpk,omitempty"`
+	CpkCI       *Interval `json:"cpkCI,omitempty"`
+	Sigma       string    `json:"sigma,omitempty"`
+	SigmaWithin *float64  `json:"sigmaWithin,omitempty"`
+	// Ppk is from the group's overall SD (n − 1).
+	Ppk   *float64  `json:"ppk,omitempty"`
+	PpkCI *Interval `json:"ppkCI,omitempty"`
 }
 
 // GroupTest is one test of the section.
@@ -217,105 +227,120 @@ type grpSrc struct {
 type grpWork struct {
 	name, title string
 	src         *grpSrc
-	cells       []int32 // cell indices into src
-	sorted      []float64
-	mant        []int64 // sorted mantissas at the common scale (exact path)
+	cells       []int32 // cell indices into src, in row order
+	time        []int32 // the same cells in time order (cv.inOrder), for the within sigma
+	s           *sample
+	ps          *decimal.PowerSums
+	mant        []int64 // the sorted readings' mantissas on the section's grid (exact path)
 	lvl         GroupLevel
 }
 
 // groupsSection builds the Groups section from the group column (long) or
 // the side-by-side columns (wide) of cv; nil when the request has neither.
-func groupsSection(rep *Report, cv *colView, opts Options) *Groups {
+func groupsSection(rep *Report, w words, cv *colView, opts Options) *Groups {
 	if cv.group == nil && len(cv.wide) == 0 {
 		return nil
 	}
 	g := &Groups{Alpha: math.Round((1-opts.Confidence)*1e12) / 1e12, Levels: []GroupLevel{}}
 	excl := cv.excludedByUser
+	used := func(c *grpSrc, i int) bool {
+		x := c.vals[i]
+		return x == x && !math.IsInf(x, 0) && (excl == nil || !excl[c.rows[i]])
+	}
 	var ws []*grpWork
 	if cv.group != nil {
 		g.Shape, g.Column = "long", cv.group.Name
 		src := &grpSrc{name: cv.name, vals: cv.vals, dec: cv.dec, rows: cv.rows, text: cv.text}
-		ws = groupLong(src, cv.group, excl)
+		var gid []int32
+		ws, gid = groupLong(src, cv.group, used)
+		for i := range cv.inOrder() {
+			if k := gid[i]; k > 0 {
+				ws[k-1].time = append(ws[k-1].time, int32(i))
+			}
+		}
 	} else {
 		g.Shape = "wide"
 		for _, c := range cv.wide {
 			g.Columns = append(g.Columns, c.Name)
 			src := &grpSrc{name: c.Name, vals: c.Values, dec: c.Dec, rows: c.Rows, text: c.Text}
-			w := &grpWork{name: c.Name, title: c.Name, src: src}
-			for i, x := range c.Values {
-				if x != x || math.IsInf(x, 0) || (excl != nil && excl[c.Rows[i]]) {
-					continue
+			gw := &grpWork{name: c.Name, title: c.Name, src: src}
+			for i := range c.Values {
+				if used(src, i) {
+					gw.cells = append(gw.cells, int32(i))
 				}
-				w.cells = append(w.cells, int32(i))
 			}
-			ws = append(ws, w)
+			for i := range cv.inOrder() {
+				if i < len(c.Values) && used(src, i) {
+					gw.time = append(gw.time, int32(i))
+				}
+			}
+			ws = append(ws, gw)
 		}
 	}
 	if len(ws) > method.MaxGroups {
 		// pickColumns refuses these; a guard for other callers
-		rep.Notes = append(rep.Notes, Note{Field: "groups", Text: fmt.Sprintf("%d groups: at most %d can be compared", len(ws), method.MaxGroups)})
+		rep.Notes = append(rep.Notes, Note{Field: "groups", Text: w.grpTooMany(len(ws), method.MaxGroups)})
 		return nil
 	}
-	// values, the common decimal scale, sorting
-	D, exact := 0, true
-	total := 0
-	for _, w := range ws {
-		total += len(w.cells)
-	}
-	fbuf := make([]float64, total) // one array for all groups
-	for _, w := range ws {
-		w.sorted, fbuf = fbuf[:len(w.cells):len(w.cells)], fbuf[len(w.cells):]
-		for k, i := range w.cells {
-			w.sorted[k] = w.src.vals[i]
-			if d := w.src.dec[i]; d < 0 || d > maxDec {
-				exact = false
-			} else if int(d) > D {
-				D = int(d)
+
+	// The section's decimal grid: the largest decimal count of all groups,
+	// when every reading is a plain decimal (as the column's, core.go).
+	total, maxD, onGrid := 0, 0, true
+	for _, gw := range ws {
+		total += len(gw.cells)
+		for _, i := range gw.cells {
+			d := int(gw.src.dec[i])
+			if d < 0 {
+				onGrid = false
+				break
+			}
+			maxD = max(maxD, d)
+			if onGrid {
+				_, onGrid = decimal.Mantissa(gw.src.vals[i], d)
 			}
 		}
 	}
-	for _, w := range ws {
-		if !exact || !countSortFixed(w.sorted, D) {
-			sortFloats(w.sorted)
+	var grid decimal.Grid
+	if onGrid {
+		grid, _ = decimal.NewGrid(maxD)
+	}
+	// each group's sample, sorted and with its moments, as the column's
+	fbuf := make([]float64, total) // one array for all groups
+	exact := grid.Valid()
+	for _, gw := range ws {
+		xs := fbuf[:len(gw.cells):len(gw.cells)]
+		fbuf = fbuf[len(gw.cells):]
+		for k, i := range gw.cells {
+			xs[k] = gw.src.vals[i]
 		}
+		gw.s, gw.ps = prepareSample(xs, grid, opts.Quantile)
+		exact = exact && (gw.s.exact || gw.s.n == 0)
 	}
 	if exact {
 		mbuf := make([]int64, total)
-		for _, w := range ws {
-			w.mant, mbuf = mbuf[:len(w.sorted):len(w.sorted)], mbuf[len(w.sorted):]
-			for k, x := range w.sorted {
-				m, ok := mantissa(x, int8(D))
-				if !ok {
-					exact = false
-					break
-				}
-				w.mant[k] = m
-			}
-			if !exact {
-				break
+		for _, gw := range ws {
+			gw.mant, mbuf = mbuf[:gw.s.n:gw.s.n], mbuf[gw.s.n:]
+			for k, x := range gw.s.sorted {
+				gw.mant[k] = grid.M(x)
 			}
 		}
-	}
-	if !exact {
-		for _, w := range ws {
-			w.mant = nil
-		}
-		rep.Notes = append(rep.Notes, Note{Field: "groups.exact", Text: grpWordsNotExact()})
+	} else {
+		rep.Notes = append(rep.Notes, Note{Field: "groups.exact", Text: w.grpNotExact()})
 	}
 	g.Exact = exact
 
 	// each group on its own
-	for _, w := range ws {
-		w.lvl = groupLevel(w, opts, exact, D)
+	for _, gw := range ws {
+		gw.lvl = groupLevel(rep, w, gw, cv, opts)
 	}
 	// screening: groups of 1 or 2 readings are listed, not tested
 	sizes := make([]int, len(ws))
-	for i, w := range ws {
-		sizes[i] = len(w.sorted)
+	for i, gw := range ws {
+		sizes[i] = gw.s.n
 	}
 	keep, skipped := method.ScreenGroups(sizes)
 	for _, s := range skipped {
-		ws[s.Group].lvl.LeftOut = grpWordsLeftOut(s.N)
+		ws[s.Group].lvl.LeftOut = w.grpLeftOut(s.N, method.MinGroupReadings)
 	}
 	for _, i := range keep {
 		ws[i].lvl.InTests = true
@@ -324,25 +349,25 @@ func groupsSection(rep *Report, cv *colView, opts Options) *Groups {
 	for _, i := range keep {
 		tested = append(tested, ws[i])
 	}
-	groupTests(g, tested, opts, rep)
-	for _, w := range ws {
-		g.Levels = append(g.Levels, w.lvl)
+	groupTests(g, w, tested, grid, opts, rep)
+	for _, gw := range ws {
+		g.Levels = append(g.Levels, gw.lvl)
 	}
-	g.Statement = grpStatement(g, tested, opts, rep, len(skipped))
+	g.Statement = grpStatement(g, w, tested, rep, len(skipped))
 	return g
 }
 
 // groupLong splits the value column by the group column's labels (text)
-// or values (numbers), in order of first appearance.
-func groupLong(src *grpSrc, gc *ingest.Column, excl map[int32]bool) []*grpWork {
-	var ws []*grpWork
+// or values (numbers), in order of first appearance. gid is each cell's
+// group + 1 (0: not used).
+func groupLong(src *grpSrc, gc *ingest.Column, used func(*grpSrc, int) bool) (ws []*grpWork, gid []int32) {
 	byLabel := make([]int32, len(gc.LabelNames())) // label -> group + 1
 	byValue := map[float64]int32{}
-	// pass 1: each cell's group (0 = not used), and the groups' sizes
-	gid := make([]int32, len(src.vals))
+	// pass 1: each cell's group, and the groups' sizes
+	gid = make([]int32, len(src.vals))
 	var sizes []int
-	for i, x := range src.vals {
-		if x != x || math.IsInf(x, 0) || partnerMissing(gc, i) || (excl != nil && excl[src.rows[i]]) {
+	for i := range src.vals {
+		if !used(src, i) || partnerMissing(gc, i) {
 			continue
 		}
 		var k int32
@@ -377,197 +402,143 @@ func groupLong(src *grpSrc, gc *ingest.Column, excl map[int32]bool) []*grpWork {
 	}
 	buf := make([]int32, total)
 	off := 0
-	for k, w := range ws {
-		w.cells = buf[off : off : off+sizes[k]]
+	for k, gw := range ws {
+		gw.cells = buf[off : off : off+sizes[k]]
 		off += sizes[k]
 	}
 	for i, k := range gid {
 		if k > 0 {
-			w := ws[k-1]
-			w.cells = append(w.cells, int32(i))
+			gw := ws[k-1]
+			gw.cells = append(gw.cells, int32(i))
 		}
 	}
-	return ws
+	return ws, gid
 }
 
-// groupLevel computes one group's own figures.
-func groupLevel(w *grpWork, opts Options, exact bool, D int) GroupLevel {
-	s := w.sorted
-	n := len(s)
-	l := GroupLevel{Name: w.name, Title: w.title, N: n, Suspects: []Suspect{}, Points: []GroupPoint{}}
+// groupLevel computes one group's own figures with the column's builders:
+// the centre and spread sections (buildCentre, buildSpread) of the group
+// alone, Tukey's fences and the box (boxElements, exact on the decimals as
+// typed), the skewness and the verdict's rules (verdict), and the spec
+// figures. Notes of the column's builders about a group are not repeated.
+func groupLevel(rep *Report, w words, gw *grpWork, cv *colView, opts Options) GroupLevel {
+	s := gw.s
+	n := s.n
+	l := GroupLevel{Name: gw.name, Title: gw.title, N: n, Suspects: []Suspect{}, Points: []GroupPoint{}}
 	if n == 0 {
-		l.Quote = ""
 		return l
 	}
-	lo, hi := s[0], s[n-1]
-	l.Min, l.Max = lo, hi
-	var mo moments
-	ok := false
-	if exact {
-		ea := exactAcc{ok: true}
-		for _, m := range w.mant {
-			ea.acc[D].add(m)
-		}
-		mo, ok = ea.moments()
-	}
-	if !ok {
-		mo = compensatedMoments(s, lo, hi)
-	}
-	constant := lo == hi
-	if constant {
-		mo.mean, mo.sd = lo, 0
-	}
-	l.Mean, l.SD = mo.mean, mo.sd
-	q1, med, q3 := quantileHF(s, 0.25, 7), quantileHF(s, 0.5, 7), quantileHF(s, 0.75, 7)
-	l.Median, l.IQR = med, q3-q1
-	if !constant {
-		l.MeanCI = meanCI(mo.mean, mo.sd, n, opts.Confidence)
-		l.SDCI = sdCI(mo.sd, n, opts.Confidence)
-		if n >= 2 {
-			l.MedianCI, _ = medianCI(s, opts.Confidence)
-		}
-	}
-	// Tukey's fences on this group alone, exact on the mantissas
-	b := boxElements(s, q1, med, q3)
-	loIn, hiIn, loOut, hiOut := grpFenceCuts(w, q1, q3)
-	inner := loIn + (n - hiIn)
-	outer := loOut + (n - hiOut)
-	if loIn < n {
-		b.LoWhisker = math.Min(s[loIn], q1)
-	}
-	if hiIn > 0 {
-		b.HiWhisker = math.Max(s[hiIn-1], q3)
-	}
-	l.Box = b
+	l.Min, l.Max = s.sorted[0], s.sorted[n-1]
+	own := &Report{} // the group's own report: the builders write their notes here
+	c := buildCentre(own, w, s, opts, 1, nil)
+	sp := buildSpread(own, w, s, opts)
+	l.Mean, l.MeanCI, l.Median, l.MedianCI = c.Mean, c.MeanCI, c.Median, c.MedianCI
+	l.SD, l.SDCI, l.IQR = sp.SD, sp.SDCI, sp.IQR
+	l.Box = boxElements(s)
+	inner, outer := fenceCounts(s)
 	l.SuspectCount = inner
-	grpSuspects(w, &l, s, loIn, hiIn, loOut, hiOut)
-	grpPoints(w, &l)
+	grpSuspects(w, gw, &l)
+	grpPoints(gw, &l)
 
 	// the single-column verdict's rules on this group
-	maxRun, distinct, run := 1, 1, 1
-	for i := 1; i < n; i++ {
-		if s[i] != s[i-1] {
-			distinct++
-			run = 1
-		} else if run++; run > maxRun {
-			maxRun = run
-		}
+	distinct, maxRun := runs(s.sorted)
+	own.Spread, own.Quantile = sp, &Quantiles{Min: l.Min}
+	if n >= 3 && !s.constant {
+		sk, _, _ := skewness(w, s.sorted, s.mo.mean, s.mo.sd, gw.ps)
+		own.Shape = &Shape{Skewness: sk}
 	}
-	tmp := &Report{Spread: &Spread{SD: mo.sd, IQR: l.IQR}, Quantile: &Quantiles{Min: lo}, Shape: grpSkewness(s, mo.mean, mo.sd)}
-	verdict(tmp, Options{}, n, constant, maxRun, distinct, 0, inner, outer)
-	l.Quote, l.QuoteReasons = tmp.Verdict.Quote, tmp.Verdict.Reasons
+	verdict(own, w, Options{}, n, s.constant, maxRun, distinct, 0, inner, outer)
+	l.Quote, l.QuoteReasons = own.Verdict.Quote, own.Verdict.Reasons
 
 	if opts.LSL != nil || opts.USL != nil {
-		l.Spec = grpSpec(s, mo.mean, mo.sd, opts)
+		l.Spec = grpSpec(rep, w, gw, cv, opts)
 	}
 	return l
 }
 
-// grpFenceCuts returns the positions in the group's sorted readings of
-// Tukey's (1977) fences: readings [0, loIn) lie below the lower inner
-// fence, [hiIn, n) above the upper one, and likewise for the outer
-// fences. With mantissas the quartiles of type 7 are quarter-integers, so
-// 8 x the fences are integers (8·(Q1 - 1.5 IQR) = 5A - 3B with A = 4 Q1,
-// B = 4 Q3) and every comparison is exact on the decimals as typed.
-func grpFenceCuts(w *grpWork, q1, q3 float64) (loIn, hiIn, loOut, hiOut int) {
-	n := len(w.sorted)
-	if w.mant != nil {
-		m := w.mant
-		q4 := func(p4 int) int64 { // 4 x the type 7 quantile at p = p4/4
-			num := int64(n-1) * int64(p4) // h = num/4 (0-based)
-			j := num / 4
-			f := num % 4
-			if j+1 >= int64(n) {
-				return 4 * m[n-1]
-			}
-			return 4*m[j] + f*(m[j+1]-m[j])
-		}
-		A, B := q4(1), q4(3)
-		lIn, hIn := 5*A-3*B, 5*B-3*A
-		lOut, hOut := 8*A-6*B, 8*B-6*A
-		below := func(t int64) int { return sort.Search(n, func(i int) bool { return 8*m[i] >= t }) }
-		above := func(t int64) int { return sort.Search(n, func(i int) bool { return 8*m[i] > t }) }
-		return below(lIn), above(hIn), below(lOut), above(hOut)
-	}
-	s := w.sorted
-	iqr := q3 - q1
-	below := func(t float64) int { return sort.SearchFloat64s(s, t) }
-	above := func(t float64) int { return sort.Search(n, func(i int) bool { return s[i] > t }) }
-	return below(q1 - 1.5*iqr), above(q3 + 1.5*iqr), below(q1 - 3*iqr), above(q3 + 3*iqr)
-}
-
-// grpSuspects lists the group's readings beyond its inner fences by row:
-// the flagged values are those of sorted[:loIn] and sorted[hiIn:]; the
-// rows holding them are found by one scan of the group's cells.
-func grpSuspects(w *grpWork, l *GroupLevel, s []float64, loIn, hiIn, loOut, hiOut int) {
-	if l.SuspectCount == 0 {
+// grpSuspects lists the group's readings beyond its inner fences (Tukey
+// 1977; exact on the decimals as typed, as the column's) by row, with the
+// column's flag texts; the rows holding them are found by one scan of the
+// group's cells.
+func grpSuspects(w words, gw *grpWork, l *GroupLevel) {
+	s := gw.s
+	n := s.n
+	inLo, inHi := s.fences(s.q1, s.q3, 3, 2)
+	outLo, outHi := s.fences(s.q1, s.q3, 3, 1)
+	loIn, hiIn := s.countBelow(inLo), n-s.countAbove(inHi)
+	loOut, hiOut := s.countBelow(outLo), n-s.countAbove(outHi)
+	if loIn == 0 && hiIn == n {
 		return
 	}
-	n := len(s)
-	var loCut, hiCut, loFar, hiFar float64
-	hasLo, hasHi := loIn > 0, hiIn < n
-	if hasLo {
-		loCut = s[loIn-1] // values <= loCut are flagged
+	sorted := s.sorted
+	loCut, hiCut := math.Inf(-1), math.Inf(1) // values <= loCut or >= hiCut are flagged
+	if loIn > 0 {
+		loCut = sorted[loIn-1]
 	}
-	if hasHi {
-		hiCut = s[hiIn]
+	if hiIn < n {
+		hiCut = sorted[hiIn]
 	}
-	loFar, hiFar = math.Inf(-1), math.Inf(1)
+	loFar, hiFar := math.Inf(-1), math.Inf(1)
 	if loOut > 0 {
-		loFar = s[loOut-1]
+		loFar = sorted[loOut-1]
 	}
 	if hiOut < n {
-		hiFar = s[hiOut]
+		hiFar = sorted[hiOut]
 	}
-	for _, i := range w.cells {
-		x := w.src.vals[i]
-		if !(hasLo && x <= loCut) && !(hasHi && x >= hiCut) {
+	q1, q3 := s.q1.f, s.q3.f
+	iqr := s.sub(s.q3, s.q1).f
+	b := l.Box
+	for _, i := range gw.cells {
+		x := gw.src.vals[i]
+		if x > loCut && x < hiCut {
 			continue
 		}
-		code, txt := "tukey-inner", "beyond the group's inner fence (1.5 IQR)"
-		if x <= loFar || x >= hiFar {
-			code, txt = "tukey-outer", "beyond the group's outer fence (3 IQR)"
+		if len(l.Suspects) >= maxGroupSuspects {
+			break
 		}
-		if len(l.Suspects) < maxGroupSuspects {
-			l.Suspects = append(l.Suspects, Suspect{
-				Reading: Reading{Row: int(w.src.rows[i]), Column: w.src.name, Text: w.src.text(int(i)), Value: x},
-				Flags:   []Flag{{Rule: code, Text: txt}},
-			})
+		outer := x <= loFar || x >= hiFar
+		code := "tukey-inner"
+		if outer {
+			code = "tukey-outer"
 		}
-	}
-	// scores: distance beyond the fence crossed
-	for k := range l.Suspects {
-		sp := &l.Suspects[k]
-		b := l.Box
-		switch {
-		case sp.Value < b.InnerLo:
-			fence := b.InnerLo
-			if sp.Flags[0].Rule == "tukey-outer" {
-				fence = b.OuterLo
-			}
-			sp.Flags[0].Score = fence - sp.Value
+		var f Flag
+		switch below := x <= loCut; {
+		case iqr == 0:
+			f = Flag{Rule: code, Text: w.tukeyFlag(below, -1, outer)}
+		case below:
+			f = Flag{Rule: code, Text: w.tukeyFlag(true, (q1-x)/iqr, outer)}
 		default:
-			fence := b.InnerHi
-			if sp.Flags[0].Rule == "tukey-outer" {
-				fence = b.OuterHi
-			}
-			sp.Flags[0].Score = sp.Value - fence
+			f = Flag{Rule: code, Text: w.tukeyFlag(false, (x-q3)/iqr, outer)}
 		}
+		// score: distance beyond the fence crossed
+		switch {
+		case x <= loCut && outer:
+			f.Score = b.OuterLo - x
+		case x <= loCut:
+			f.Score = b.InnerLo - x
+		case outer:
+			f.Score = x - b.OuterHi
+		default:
+			f.Score = x - b.InnerHi
+		}
+		l.Suspects = append(l.Suspects, Suspect{
+			Reading: Reading{Row: int(gw.src.rows[i]), Column: gw.src.name, Text: gw.src.text(int(i)), Value: x},
+			Flags:   []Flag{f},
+		})
 	}
 }
 
 // grpPoints fills the dot plot's readings: all of them up to
 // maxGroupPoints, else every k-th in data order plus the suspects.
-func grpPoints(w *grpWork, l *GroupLevel) {
-	n := len(w.cells)
+func grpPoints(gw *grpWork, l *GroupLevel) {
+	n := len(gw.cells)
 	step := 1
 	if n > maxGroupPoints {
 		step = (n + maxGroupPoints - 1) / maxGroupPoints
 		l.Thinned = true
 	}
 	for k := 0; k < n; k += step {
-		i := w.cells[k]
-		l.Points = append(l.Points, GroupPoint{Row: int(w.src.rows[i]), Y: w.src.vals[i]})
+		i := gw.cells[k]
+		l.Points = append(l.Points, GroupPoint{Row: int(gw.src.rows[i]), Y: gw.src.vals[i]})
 	}
 	if l.Thinned {
 		for _, s := range l.Suspects {
@@ -576,84 +547,63 @@ func grpPoints(w *grpWork, l *GroupLevel) {
 	}
 }
 
-// grpSkewness is the adjusted skewness G1 with D'Agostino's (1970) test,
-// computed as in shapeSection, for the verdict's rules.
-func grpSkewness(s []float64, mean, sd float64) *Shape {
-	n := len(s)
-	if n < 3 || !(sd > 0) {
-		return nil
-	}
-	fn := float64(n)
-	var s3 float64
-	for _, x := range s {
-		z := (x - mean) / sd
-		s3 += z * z * z
-	}
-	m2 := (fn - 1) / fn
-	g1 := (s3 / fn) / math.Pow(m2, 1.5)
-	G1 := g1 * math.Sqrt(fn*(fn-1)) / (fn - 2)
-	if !finite(G1) {
-		return nil
-	}
-	sh := &Shape{Skewness: &Moment{Value: G1}}
-	if n >= skewTestMinN {
-		if z, ok := dagostinoSkewZ(g1, n); ok {
-			sh.Skewness.Test = &Test{Name: "D'Agostino skewness", Statistic: z, P: twoSidedNormalP(z)}
-		}
-	}
-	return sh
-}
-
-// grpSpec counts the readings outside the limits (exactly: limits and
-// readings are both the doubles nearest their decimals, and that rounding
-// keeps order), with the Clopper and Pearson (1934) interval of the
-// fraction, and Cpk from the group's overall SD with the interval of
-// Bissell (1990, "How reliable is your capability index?", Applied
-// Statistics 39, 331-340): Ĉ ± z·√(1/(9n) + Ĉ²/(2(n-1))).
-func grpSpec(s []float64, mean, sd float64, opts Options) *GroupSpec {
-	n := len(s)
-	sp := &GroupSpec{Sigma: "overall-sd"}
+// grpSpec is one group against the limits: the counts outside as the spec
+// section counts them (specCounts), with the Clopper and Pearson (1934)
+// interval (method.ConformanceFromCounts), and Cpk and Ppk with Bissell's
+// (1990) intervals from method.Capability: Cpk from the group's
+// within-process sigma (withinOf: the column's estimator on the group's
+// readings in time order), Ppk from its overall SD.
+func grpSpec(rep *Report, w words, gw *grpWork, cv *colView, opts Options) *GroupSpec {
+	s := gw.s
+	n := s.n
+	lsl, usl := math.NaN(), math.NaN()
 	if opts.LSL != nil {
-		sp.Below = sort.SearchFloat64s(s, *opts.LSL)
+		lsl = *opts.LSL
 	}
 	if opts.USL != nil {
-		u := *opts.USL
-		sp.Above = n - sort.Search(n, func(i int) bool { return s[i] > u })
+		usl = *opts.USL
 	}
-	x := sp.Below + sp.Above
-	sp.Outside = float64(x) / float64(n)
-	a := 1 - opts.Confidence
-	lo, hi := 0.0, 1.0
-	if x > 0 {
-		lo = distuv.Beta{Alpha: float64(x), Beta: float64(n - x + 1)}.Quantile(a / 2)
+	below, above := specCounts(s.sorted, lsl, usl)
+	sp := &GroupSpec{Below: below, Above: above, Outside: float64(below+above) / float64(n)}
+	if cf, err := method.ConformanceFromCounts(n, below, above, opts.LSL != nil, opts.USL != nil, opts.Confidence); err == nil {
+		sp.OutsideCI = &Interval{Lo: cf.Outside.Lower, Hi: cf.Outside.Upper, Level: opts.Confidence, Method: "clopper-pearson"}
 	}
-	if x < n {
-		hi = distuv.Beta{Alpha: float64(x + 1), Beta: float64(n - x)}.Quantile(1 - a/2)
+	if n < 2 || s.constant {
+		return sp
 	}
-	sp.OutsideCI = &Interval{Lo: lo, Hi: hi, Level: opts.Confidence, Method: "clopper-pearson"}
-	if n >= 2 && sd > 0 {
-		c := math.Inf(1)
-		if opts.LSL != nil {
-			c = (mean - *opts.LSL) / (3 * sd)
-		}
-		if opts.USL != nil {
-			c = math.Min(c, (*opts.USL-mean)/(3*sd))
-		}
-		if finite(c) {
-			fn := float64(n)
-			h := normQuantile(1-a/2) * math.Sqrt(1/(9*fn)+c*c/(2*(fn-1)))
-			sp.Cpk = &c
-			sp.CpkCI = &Interval{Lo: c - h, Hi: c + h, Level: opts.Confidence, Method: "bissell-1990"}
-		}
+	sigW, dfW := math.NaN(), math.NaN()
+	series := make([]float64, len(gw.time))
+	for k, i := range gw.time {
+		series[k] = gw.src.vals[i]
+	}
+	ws := withinOf(series, gw.time, cv.subgroup, opts.WithinSigma)
+	if ws.err == nil {
+		sigW, dfW = ws.est.Sigma, ws.est.DF
+	} else {
+		rep.Notes = append(rep.Notes, Note{Field: "groups.levels.spec.cpk", Text: w.grpNoWithin(gw.title, ws.err)})
+	}
+	ci, err := method.Capability(method.CapabilityInput{Mean: s.mo.mean, SigmaWithin: sigW, DFWithin: dfW, SigmaOverall: s.mo.sd, N: n, LSL: lsl, USL: usl, Target: math.NaN()}, opts.Confidence)
+	if err != nil {
+		return sp
+	}
+	iv := func(x method.CapIndex) *Interval {
+		return &Interval{Lo: x.Lower, Hi: x.Upper, Level: opts.Confidence, Method: x.Method}
+	}
+	if ci.Cpk.Valid {
+		sp.Cpk, sp.CpkCI = fptr(ci.Cpk.Value), iv(ci.Cpk)
+		sp.Sigma, sp.SigmaWithin = ws.method, fptr(sigW)
+	}
+	if ci.Ppk.Valid {
+		sp.Ppk, sp.PpkCI = fptr(ci.Ppk.Value), iv(ci.Ppk)
 	}
 	return sp
 }
 
 // groupTests runs the tests on the groups with enough readings.
-func groupTests(g *Groups, ws []*grpWork, opts Options, rep *Report) {
+func groupTests(g *Groups, w words, ws []*grpWork, grid decimal.Grid, opts Options, rep *Report) {
 	k := len(ws)
 	if k < 2 {
-		rep.Notes = append(rep.Notes, Note{Field: "groups.centre", Text: grpWordsTooFew(k)})
+		rep.Notes = append(rep.Notes, Note{Field: "groups.centre", Text: w.grpTooFew(k, method.MinGroupReadings)})
 		return
 	}
 	conf, alpha := opts.Confidence, g.Alpha
@@ -663,52 +613,52 @@ func groupTests(g *Groups, ws []*grpWork, opts Options, rep *Report) {
 		ms = make([][]int64, k)
 	}
 	equalN := true
-	for i, w := range ws {
-		fs[i] = w.sorted
+	for i, gw := range ws {
+		fs[i] = gw.s.sorted
 		if ms != nil {
-			ms[i] = w.mant
+			ms[i] = gw.mant
 		}
-		if len(w.sorted) != len(ws[0].sorted) {
+		if gw.s.n != ws[0].s.n {
 			equalN = false
 		}
 	}
-	p10 := 1.0 // mantissa units to data units: divide by 10^D
+	p10 := 1.0 // mantissa units to data units: divide by 10^scale
 	if g.Exact {
-		p10 = pow10tab[grpScale(ws)]
+		p10 = decimal.Pow10(grid.Scale)
 	}
 	note := func(field string, err error) {
-		rep.Notes = append(rep.Notes, Note{Field: field, Text: grpWordsMethodError(err, ws)})
+		rep.Notes = append(rep.Notes, Note{Field: field, Text: grpMethodError(w, err, ws)})
 	}
 
 	// which family leads: the verdict's rules, group by group
 	g.Lead = "means"
-	for _, w := range ws {
-		if w.lvl.Quote == "median-iqr" {
+	for _, gw := range ws {
+		if gw.lvl.Quote == "median-iqr" {
 			g.Lead = "medians"
-			for _, r := range w.lvl.QuoteReasons {
-				g.Reasons = append(g.Reasons, Reason{Code: r.Code, Text: w.title + ": " + r.Text, Vals: r.Vals})
+			for _, r := range gw.lvl.QuoteReasons {
+				g.Reasons = append(g.Reasons, Reason{Code: r.Code, Text: w.grpReason(gw.title, r.Text), Vals: r.Vals})
 			}
 		}
 	}
 	if g.Lead == "means" {
-		g.Reasons = []Reason{{Code: "all-mean-sd", Text: grpWordsAllMean()}}
+		g.Reasons = []Reason{{Code: "all-mean-sd", Text: w.grpAllMean()}}
 	}
 
 	// centre
 	c := &GroupCentre{Tests: []GroupTest{}}
 	if k == 2 {
 		if t, err := method.WelchT(fs[1], fs[0], conf); err == nil {
-			c.Tests = append(c.Tests, GroupTest{Code: "welch-t", Name: "Welch's t test", Statistic: t.T, DF: fptr(t.DF), P: t.P, Method: "Welch-Satterthwaite degrees of freedom"})
+			c.Tests = append(c.Tests, GroupTest{Code: "welch-t", Name: w.grpTestName("welch-t"), Statistic: t.T, DF: fptr(t.DF), P: t.P, Method: w.grpTestMethod("welch-t")})
 		} else {
 			note("groups.centre", err)
 		}
 	} else if t, err := method.WelchANOVA(fs); err == nil {
-		c.Tests = append(c.Tests, GroupTest{Code: "welch-anova", Name: "Welch's ANOVA", Statistic: t.F, DF: fptr(t.DF1), DF2: fptr(t.DF2), P: t.P, Method: "F with Welch's fractional denominator degrees of freedom"})
+		c.Tests = append(c.Tests, GroupTest{Code: "welch-anova", Name: w.grpTestName("welch-anova"), Statistic: t.F, DF: fptr(t.DF1), DF2: fptr(t.DF2), P: t.P, Method: w.grpTestMethod("welch-anova")})
 	} else {
 		note("groups.centre", err)
 	}
 	if a, err := method.OneWayANOVA(fs); err == nil {
-		c.Tests = append(c.Tests, GroupTest{Code: "anova", Name: "One-way ANOVA", Statistic: a.F, DF: fptr(a.DF1), DF2: fptr(a.DF2), P: a.P, Method: "F test, equal variances assumed"})
+		c.Tests = append(c.Tests, GroupTest{Code: "anova", Name: w.grpTestName("anova"), Statistic: a.F, DF: fptr(a.DF1), DF2: fptr(a.DF2), P: a.P, Method: w.grpTestMethod("anova")})
 	} else {
 		note("groups.centre", err)
 	}
@@ -724,11 +674,7 @@ func groupTests(g *Groups, ws []*grpWork, opts Options, rep *Report) {
 		}
 		if err == nil {
 			mw = &t
-			how := "normal approximation with tie and continuity corrections"
-			if t.Exact {
-				how = "exact distribution (no ties, both groups under 50)"
-			}
-			c.Tests = append(c.Tests, GroupTest{Code: "mann-whitney", Name: "Mann-Whitney (Wilcoxon rank-sum)", Statistic: t.W, P: t.P, Method: how})
+			c.Tests = append(c.Tests, GroupTest{Code: "mann-whitney", Name: w.grpTestName("mann-whitney"), Statistic: t.W, P: t.P, Method: w.grpMannWhitneyMethod(t.Exact)})
 		} else {
 			note("groups.centre", err)
 		}
@@ -741,8 +687,8 @@ func groupTests(g *Groups, ws []*grpWork, opts Options, rep *Report) {
 			t, err = method.KruskalWallis(fs)
 		}
 		if err == nil {
-			c.Tests = append(c.Tests, GroupTest{Code: "kruskal-wallis", Name: "Kruskal-Wallis", Statistic: t.H, DF: fptr(t.DF), P: t.P,
-				Method: "chi-squared approximation, corrected for ties (factor " + strconv.FormatFloat(t.TieFactor, 'g', 4, 64) + ")"})
+			c.Tests = append(c.Tests, GroupTest{Code: "kruskal-wallis", Name: w.grpTestName("kruskal-wallis"), Statistic: t.H, DF: fptr(t.DF), P: t.P,
+				Method: w.grpKruskalMethod(t.TieFactor)})
 		} else {
 			note("groups.centre", err)
 		}
@@ -755,23 +701,23 @@ func groupTests(g *Groups, ws []*grpWork, opts Options, rep *Report) {
 			c.Differ = c.Tests[i].P < alpha
 		}
 	}
-	c.Why = grpWordsCentreWhy(g.Lead, k)
+	c.Why = w.grpCentreWhy(g.Lead, k)
 	if c.Lead != "" {
 		g.Centre = c
 	} else if len(c.Tests) > 0 {
 		g.Centre = c
-		c.Why += " " + grpWordsLeadMissing()
+		c.Why += " " + w.grpLeadMissing()
 	}
 
 	// spread
 	sp := &GroupSpread{Tests: []GroupTest{}}
 	if t, err := method.BrownForsythe(fs); err == nil {
-		sp.Tests = append(sp.Tests, GroupTest{Code: "brown-forsythe", Name: "Brown-Forsythe (Levene about the medians)", Statistic: t.F, DF: fptr(t.DF1), DF2: fptr(t.DF2), P: t.P})
+		sp.Tests = append(sp.Tests, GroupTest{Code: "brown-forsythe", Name: w.grpTestName("brown-forsythe"), Statistic: t.F, DF: fptr(t.DF1), DF2: fptr(t.DF2), P: t.P})
 	} else {
 		note("groups.spread", err)
 	}
 	if t, err := method.Bartlett(fs); err == nil {
-		sp.Tests = append(sp.Tests, GroupTest{Code: "bartlett", Name: "Bartlett", Statistic: t.K2, DF: fptr(t.DF), P: t.P, Method: "chi-squared; assumes normal data"})
+		sp.Tests = append(sp.Tests, GroupTest{Code: "bartlett", Name: w.grpTestName("bartlett"), Statistic: t.K2, DF: fptr(t.DF), P: t.P, Method: w.grpTestMethod("bartlett")})
 	} else {
 		note("groups.spread", err)
 	}
@@ -779,7 +725,7 @@ func groupTests(g *Groups, ws []*grpWork, opts Options, rep *Report) {
 		sp.Ratio, sp.Largest, sp.Smallest = r.Ratio, ws[r.Largest].name, ws[r.Smallest].name
 		if r.HasCI {
 			sp.RatioCI = &Interval{Lo: r.Lo, Hi: r.Hi, Level: r.Level, Method: "f-distribution"}
-			sp.Tests = append(sp.Tests, GroupTest{Code: "f-ratio", Name: "F test of the variance ratio", Statistic: r.F, DF: fptr(r.DF1), DF2: fptr(r.DF2), P: r.P, Method: "assumes normal data"})
+			sp.Tests = append(sp.Tests, GroupTest{Code: "f-ratio", Name: w.grpTestName("f-ratio"), Statistic: r.F, DF: fptr(r.DF1), DF2: fptr(r.DF2), P: r.P, Method: w.grpTestMethod("f-ratio")})
 		}
 	} else {
 		note("groups.spread", err)
@@ -800,7 +746,7 @@ func groupTests(g *Groups, ws []*grpWork, opts Options, rep *Report) {
 		sp.Lead = sp.Tests[0].Code
 		sp.Differ = sp.Tests[0].P < alpha
 	}
-	sp.Why = grpWordsSpreadWhy(sp.Lead)
+	sp.Why = w.grpSpreadWhy(sp.Lead)
 	if len(sp.Tests) > 0 {
 		g.Spread = sp
 	}
@@ -855,7 +801,7 @@ func groupTests(g *Groups, ws []*grpWork, opts Options, rep *Report) {
 	} else {
 		mp, err = method.TukeyKramer(fs, conf)
 	}
-	mset.Why = grpWordsMeansPairsWhy(mset.Method, spreadsDiffer, equalN)
+	mset.Why = w.grpMeansPairsWhy(mset.Method, spreadsDiffer, equalN)
 	var meanIdx, rankIdx [][2]int
 	if err == nil {
 		for _, p := range mp {
@@ -875,10 +821,10 @@ func groupTests(g *Groups, ws []*grpWork, opts Options, rep *Report) {
 		rp, err = method.Dunn(fs)
 	}
 	if err == nil {
-		dset := &PairSet{Method: "dunn-holm", Why: grpWordsDunnWhy(), Pairs: []GroupPair{}}
+		dset := &PairSet{Method: "dunn-holm", Why: w.grpDunnWhy(), Pairs: []GroupPair{}}
 		N := 0
-		for _, w := range ws {
-			N += len(w.sorted)
+		for _, gw := range ws {
+			N += gw.s.n
 		}
 		shifts := float64(N)*float64(k-1) <= maxPairShiftWork
 		for _, p := range rp {
@@ -902,7 +848,7 @@ func groupTests(g *Groups, ws []*grpWork, opts Options, rep *Report) {
 			dset.Pairs = append(dset.Pairs, gp)
 		}
 		if !shifts {
-			rep.Notes = append(rep.Notes, Note{Field: "groups.pairwise.medians.pairs.diff", Text: grpWordsNoShifts(N, k)})
+			rep.Notes = append(rep.Notes, Note{Field: "groups.pairwise.medians.pairs.diff", Text: w.grpNoShifts(N, k, int(maxPairShiftWork))})
 		}
 		pw.Medians = dset
 	} else {
@@ -948,19 +894,6 @@ func groupTests(g *Groups, ws []*grpWork, opts Options, rep *Report) {
 	}
 }
 
-// grpScale is the common decimal count of the groups' mantissas.
-func grpScale(ws []*grpWork) int {
-	D := 0
-	for _, w := range ws {
-		for _, i := range w.cells {
-			if d := int(w.src.dec[i]); d > D {
-				D = d
-			}
-		}
-	}
-	return D
-}
-
 // grpGlyph is the letter for index x: a..z, then A..Z, then a2, b2, ...
 func grpGlyph(x int) string {
 	const abc = "abcdefghijklmnopqrstuvwxyzABCDEFGHIJKLMNOPQRSTUVWXYZ"
@@ -979,170 +912,35 @@ func grpTitle(column, label string) string {
 	return column + " " + label
 }
 
-// ---------- words ----------
-
-func grpWordsNotExact() string {
-	return "Some readings are not plain decimals as typed (exponent form or too many digits): the rank tests and fences of the groups use binary doubles, so ties and comparisons may differ in the last digit."
-}
-
-func grpWordsLeftOut(n int) string {
-	return fmt.Sprintf("only %d %s: left out of the tests (at least %d are needed to estimate a group's own spread)", n, plural(n, "reading", "readings"), method.MinGroupReadings)
-}
-
-func grpWordsTooFew(k int) string {
-	return fmt.Sprintf("%d %s with %d or more readings: at least two are needed to compare groups", k, plural(k, "group", "groups"), method.MinGroupReadings)
-}
-
-func grpWordsAllMean() string {
-	return "every group is roughly symmetric without far-out readings (the verdict's rules, group by group), so the tests of means lead"
-}
-
-func grpWordsCentreWhy(lead string, k int) string {
-	switch {
-	case lead == "means" && k == 2:
-		return "Welch's t test leads: both groups suit the mean, and Welch's test does not assume equal spreads. The rank test is shown beside it."
-	case lead == "means":
-		return "Welch's ANOVA leads: every group suits the mean, and Welch's test does not assume equal spreads (the classic one-way ANOVA, which does, is shown too). Kruskal-Wallis is shown beside them."
-	case k == 2:
-		return "The Mann-Whitney test leads: at least one group is skewed or holds far-out readings, so the comparison rests on ranks, and the Hodges-Lehmann shift gives the difference. Welch's t test is shown beside it."
-	}
-	return "Kruskal-Wallis leads: at least one group is skewed or holds far-out readings, so the comparison rests on ranks. The tests of means are shown beside it."
-}
-
-func grpWordsLeadMissing() string {
-	return "The leading test could not be computed for these data (see the notes); the others are shown."
-}
-
-func grpWordsSpreadWhy(lead string) string {
-	if lead == "bartlett" {
-		return "Bartlett's test leads: every group looks normal, where it is the most sensitive test of equal spreads. Brown-Forsythe, which does not need normal data, is shown beside it."
-	}
-	return "The Brown-Forsythe test leads: it compares the spread about each group's median and stays honest for skewed data or far-out readings. Bartlett's test assumes normal data."
-}
-
-func grpWordsMeansPairsWhy(m string, spreadsDiffer, equalN bool) string {
-	if m == "tukey-kramer" {
-		return "Tukey-Kramer: the groups are of equal size and their spreads are alike, so a pooled SD serves every pair."
-	}
-	switch {
-	case spreadsDiffer && !equalN:
-		return "Games-Howell: the spreads differ and the group sizes are unequal, so each pair uses its own SDs."
-	case spreadsDiffer:
-		return "Games-Howell: the spreads differ, so each pair uses its own SDs."
-	}
-	return "Games-Howell: the group sizes are unequal, so each pair uses its own SDs rather than a pooled one."
-}
-
-func grpWordsDunnWhy() string {
-	return "Dunn's test on the joint ranks of the Kruskal-Wallis test, with Holm's adjustment for the number of pairs; the Hodges-Lehmann shift of each pair gives the difference in the data's unit."
-}
-
-func grpWordsNoShifts(n, k int) string {
-	return fmt.Sprintf("the Hodges-Lehmann shift of each pair is left out for %d readings in %d groups (it is computed up to %d readings × (groups − 1)); the differences in means are given", n, k, int(maxPairShiftWork))
-}
-
-func grpWordsMethodError(err error, ws []*grpWork) string {
-	var ge *method.GroupsError
-	if errors.As(err, &ge) {
-		who := ""
-		if ge.Group >= 0 && ge.Group < len(ws) {
-			who = " (" + ws[ge.Group].title + ")"
-		}
-		switch ge.Code {
-		case method.GroupsNoSpread:
-			return "not computed: a group has no variation where this test needs some" + who
-		case method.GroupsNotFinite:
-			return "not computed: the result would not be a finite number for these values" + who
-		case method.GroupsTooComplex:
-			return "the letters are left out: the pattern of differences would need too many letters"
-		}
-	}
-	return "not computed for these data: " + err.Error()
-}
-
-// grpNum writes a value at the data's decimals plus extra, with the
-// data's decimal mark.
-func grpNum(rep *Report, v float64, extra int) string {
-	var s string
-	if d := rep.Counts.Decimals; d >= 0 {
-		s = strconv.FormatFloat(v, 'f', min(d+extra, 12), 64)
-	} else {
-		s = strconv.FormatFloat(v, 'g', 3, 64)
-	}
-	if s == "-0" || strings.HasPrefix(s, "-0.") && strings.Trim(s[3:], "0") == "" {
-		s = s[1:]
-	}
-	if rep.Input.DecimalComma {
-		s = strings.Replace(s, ".", ",", 1)
-	}
-	return s
-}
-
-func grpPct(level float64) string {
-	return strconv.FormatFloat(100*level, 'g', 4, 64) + " %"
-}
-
-func grpUnit(rep *Report, s string) string {
-	if rep.Input.Unit != "" {
-		return s + " " + rep.Input.Unit
-	}
-	return s
-}
-
-func grpP(rep *Report, p float64) string {
-	s := pText(p)
-	if rep.Input.DecimalComma {
-		s = strings.Replace(s, ".", ",", 1)
-	}
-	return s
-}
-
-// grpStatement is the section's verdict in plain words.
-func grpStatement(g *Groups, ws []*grpWork, opts Options, rep *Report, skipped int) string {
+// grpStatement is the section's verdict in plain words: the numbers are
+// chosen here, the sentences made by words (figures to the data's
+// decimals plus one).
+func grpStatement(g *Groups, w words, ws []*grpWork, rep *Report, skipped int) string {
 	k := len(ws)
+	dec, unit := -1, rep.Input.Unit
+	if d := rep.Counts.Decimals; d >= 0 {
+		dec = min(d+1, 12)
+	}
 	var b strings.Builder
-	if k < 2 {
-		b.WriteString(fmt.Sprintf("No comparison: %s.", grpWordsTooFew(k)))
-	} else if k == 2 && g.Effect != nil && g.Centre != nil {
+	switch {
+	case k < 2:
+		b.WriteString(w.grpNoComparison(k, method.MinGroupReadings))
+	case k == 2 && g.Effect != nil && g.Centre != nil:
 		e := g.Effect
-		A, B := ws[0].title, ws[1].title
-		d, ci, test := e.MeanDiff, e.MeanDiffCI, "Welch's t test"
-		what, in := "on average", ""
+		d, ci, shift := e.MeanDiff, e.MeanDiffCI, false
 		if g.Lead == "medians" && e.Shift != nil {
-			d, ci, test, what, in = *e.Shift, e.ShiftCI, "Mann-Whitney test", "in centre", "Hodges-Lehmann shift; "
+			d, ci, shift = *e.Shift, e.ShiftCI, true
 		}
-		p := grpLeadP(g)
-		dir := "higher"
-		lo, hi := 0.0, 0.0
-		if ci != nil {
-			lo, hi = ci.Lo, ci.Hi
-		}
-		if d < 0 {
-			dir = "lower"
-			lo, hi = -hi, -lo // the interval of the distance "lower"
-		}
-		iv := ""
-		if ci != nil {
-			iv = fmt.Sprintf("%s interval %s to %s, ", grpPct(ci.Level), grpNum(rep, lo, 1), grpUnit(rep, grpNum(rep, hi, 1)))
-		}
-		if g.Centre.Differ {
-			b.WriteString(fmt.Sprintf("%s reads %s %s than %s %s (%s%s%s %s)", B, grpUnit(rep, grpNum(rep, math.Abs(d), 1)), dir, A, what, in, iv, test, grpP(rep, p)))
-		} else {
-			if ci != nil {
-				iv = fmt.Sprintf("%s interval %s to %s, ", grpPct(ci.Level), grpNum(rep, ci.Lo, 1), grpUnit(rep, grpNum(rep, ci.Hi, 1)))
-			}
-			b.WriteString(fmt.Sprintf("%s and %s show no clear difference in centre: %s minus %s is %s %s (%s%s%s %s)", B, A, B, A, grpUnit(rep, grpNum(rep, d, 1)), what, in, iv, test, grpP(rep, p)))
-		}
-	} else if g.Centre != nil {
-		name := map[string]string{"welch-anova": "Welch's ANOVA", "kruskal-wallis": "Kruskal-Wallis"}[g.Centre.Lead]
-		p := grpLeadP(g)
-		hiI, loI := 0, 0
+		b.WriteString(w.grpTwo(ws[0].title, ws[1].title, g.Centre.Differ, shift, d, ci, dec, unit, grpLeadP(g)))
+	case g.Centre != nil:
+		medians := g.Lead == "medians"
 		c := func(i int) float64 {
-			if g.Lead == "medians" {
+			if medians {
 				return ws[i].lvl.Median
 			}
 			return ws[i].lvl.Mean
 		}
+		hiI, loI := 0, 0
 		for i := range ws {
 			if c(i) > c(hiI) {
 				hiI = i
@@ -1151,32 +949,22 @@ func grpStatement(g *Groups, ws []*grpWork, opts Options, rep *Report, skipped i
 				loI = i
 			}
 		}
-		word := "mean"
-		if g.Lead == "medians" {
-			word = "median"
-		}
-		if g.Centre.Differ {
-			b.WriteString(fmt.Sprintf("The %d groups differ in centre (%s %s): %s has the highest %s (%s), %s the lowest (%s)",
-				k, name, grpP(rep, p), ws[hiI].title, word, grpUnit(rep, grpNum(rep, c(hiI), 1)), ws[loI].title, grpUnit(rep, grpNum(rep, c(loI), 1))))
-			if g.Pairwise != nil {
-				set := g.Pairwise.Means
-				if g.Pairwise.LettersFrom == "medians" {
-					set = g.Pairwise.Medians
-				}
-				nd := 0
-				for _, pr := range set.Pairs {
-					if pr.Differ {
-						nd++
-					}
-				}
-				b.WriteString(fmt.Sprintf("; %d of %d pairs differ clearly (groups sharing a letter do not)", nd, len(set.Pairs)))
+		nd, np := 0, -1
+		if g.Pairwise != nil {
+			set := g.Pairwise.Means
+			if g.Pairwise.LettersFrom == "medians" {
+				set = g.Pairwise.Medians
 			}
-		} else {
-			b.WriteString(fmt.Sprintf("The %d groups show no clear difference in centre (%s %s; %s from %s to %s)",
-				k, name, grpP(rep, p), word+"s", grpNum(rep, c(loI), 1), grpUnit(rep, grpNum(rep, c(hiI), 1))))
+			np = len(set.Pairs)
+			for _, pr := range set.Pairs {
+				if pr.Differ {
+					nd++
+				}
+			}
 		}
-	} else {
-		b.WriteString("The tests of a difference in centre could not be computed for these data (see the notes)")
+		b.WriteString(w.grpMany(k, g.Centre.Lead, medians, g.Centre.Differ, grpLeadP(g), ws[hiI].title, c(hiI), ws[loI].title, c(loI), dec, unit, nd, np))
+	default:
+		b.WriteString(w.grpCentreFailed())
 	}
 	if k >= 2 && g.Spread != nil {
 		sp := g.Spread
@@ -1186,26 +974,31 @@ func grpStatement(g *Groups, ws []*grpWork, opts Options, rep *Report, skipped i
 				lead = t
 			}
 		}
-		both := "their spreads"
-		if k > 2 {
-			both = "the spreads"
-		}
-		if sp.Differ {
-			b.WriteString(fmt.Sprintf("; %s differ (%s %s; the largest SD is %s times the smallest)", both, strings.SplitN(lead.Name, " (", 2)[0], grpP(rep, lead.P), strconv.FormatFloat(sp.Ratio, 'f', 2, 64)))
-		} else {
-			b.WriteString(fmt.Sprintf("; %s are alike (%s %s)", both, strings.SplitN(lead.Name, " (", 2)[0], grpP(rep, lead.P)))
-		}
+		b.WriteString(w.grpSpreadPart(k, sp.Differ, lead.Code, lead.P, sp.Ratio))
 	}
 	if k >= 2 {
 		b.WriteString(".")
 	}
 	if tol := grpTolerance(g); tol >= 0 {
-		b.WriteString(fmt.Sprintf(" The difference is %s %% of the tolerance.", strconv.FormatFloat(100*tol, 'f', 0, 64)))
+		b.WriteString(w.grpOfTolerance(tol))
 	}
 	if skipped > 0 {
-		b.WriteString(fmt.Sprintf(" %d %s fewer than %d readings %s listed but left out of the tests.", skipped, plural(skipped, "group with", "groups with"), method.MinGroupReadings, plural(skipped, "is", "are")))
+		b.WriteString(w.grpSkipped(skipped, method.MinGroupReadings))
 	}
 	return b.String()
+}
+
+// grpMethodError is the note of a method that could not run on the groups.
+func grpMethodError(w words, err error, ws []*grpWork) string {
+	var ge *method.GroupsError
+	if errors.As(err, &ge) {
+		who := ""
+		if ge.Group >= 0 && ge.Group < len(ws) {
+			who = ws[ge.Group].title
+		}
+		return w.grpMethodFailed(ge.Code, who)
+	}
+	return w.grpMethodFailed(method.GroupsCode(-1), "")
 }
 
 // grpLeadP is the p-value of the leading centre test.

@@ -17,8 +17,9 @@ import (
 // aov, oneway.test, kruskal.test, bartlett.test, t.test, wilcox.test,
 // TukeyHSD; Brown-Forsythe, Games-Howell and Dunn by their formulas) and
 // testdata/rref/groupsec.tsv (R 4.2.2, written by groupsec.R: the figures
-// of each group, the limits, the counts outside with binom.test, Cpk with
-// Bissell's interval by its formula), both on the data sets of
+// of each group, the limits, the counts outside with binom.test, Ppk from
+// the overall SD and Cpk from the average moving range with Bissell's
+// interval by its formula), both on the data sets of
 // testdata/rref/groups-data.tsv (invented, plus R's PlantGrowth and the
 // Hollander-Wolfe permeability data).
 
@@ -184,6 +185,14 @@ func TestGroupsAgainstR(t *testing.T) {
 			}
 			grpNear(t, w+" outside lo", sp.OutsideCI.Lo, q[p+"outside.lo"], 1e-9)
 			grpNear(t, w+" outside hi", sp.OutsideCI.Hi, q[p+"outside.hi"], 1e-9)
+			if sp.Ppk == nil || sp.Cpk == nil || sp.SigmaWithin == nil || sp.Sigma != WithinMovingRange {
+				t.Errorf("%s: spec %+v, want Ppk and Cpk from the moving range", w, sp)
+				continue
+			}
+			grpNear(t, w+" ppk", *sp.Ppk, q[p+"ppk"], 1e-12)
+			grpNear(t, w+" ppk lo", sp.PpkCI.Lo, q[p+"ppk.lo"], 1e-9)
+			grpNear(t, w+" ppk hi", sp.PpkCI.Hi, q[p+"ppk.hi"], 1e-9)
+			grpNear(t, w+" sigma within", *sp.SigmaWithin, q[p+"sigma.within"], 1e-12)
 			grpNear(t, w+" cpk", *sp.Cpk, q[p+"cpk"], 1e-12)
 			grpNear(t, w+" cpk lo", sp.CpkCI.Lo, q[p+"cpk.lo"], 1e-9)
 			grpNear(t, w+" cpk hi", sp.CpkCI.Hi, q[p+"cpk.hi"], 1e-9)

@@ -17,6 +17,8 @@ func TestParseRequestStrict(t *testing.T) {
 		{`{"text":"1\n2","options":{"lls":4.9}}`, CodeBadRequest, "lls", "check the spelling"},
 		{`{"text":"1\n2","colour":"red"}`, CodeBadRequest, "colour", "unknown key"},
 		{`{"text":"1\n2","options":{"confidence":0}}`, CodeBadOption, "options.confidence", "confidence 0"},
+		{`{"text":"1\n2","options":{"coverage":0}}`, CodeBadOption, "options.coverage", "coverage 0"},
+		{`{"text":"1\n2","options":{"coverage":99}}`, CodeBadOption, "options.coverage", "between 0.5 and 1"},
 		{`{"text":"1\n2","options":{"confidence":"95%"}}`, CodeBadRequest, "options.confidence", "must be a number"},
 		{`{"text":"1\n2","options":{"exclude":3}}`, CodeBadRequest, "options.exclude", "list of row numbers"},
 		{`{"text":"1\n2","options":{"target":"12 Nm"}}`, CodeBadRequest, "options.target", "must be a number"},
@@ -113,7 +115,6 @@ func TestColumnsAligned(t *testing.T) {
 		req  Request
 		code string
 	}{
-		{Request{Text: text, Value: "Weight", Subgroup: "Lot"}, CodeUnused},
 		{Request{Text: text, Value: "Weight", Order: "Weight"}, CodeColumn},
 		{Request{Text: text, Value: "Weight", Order: "Shift"}, CodeColumn},
 		{Request{Text: text, Value: "Weight", Order: "Nope"}, CodeColumn},
@@ -123,6 +124,24 @@ func TestColumnsAligned(t *testing.T) {
 		if CodeOf(err) != c.code {
 			t.Errorf("%+v: got %v (%s), want code %s", c.req, err, CodeOf(err), c.code)
 		}
+	}
+}
+
+// TestUnreadColumnRefused: a column role that no section reads is refused
+// with CodeUnused, never ignored. Every role has a reader today, so the
+// test takes the group column's reader away for its duration.
+func TestUnreadColumnRefused(t *testing.T) {
+	text := "Shift\tWeight\nA\t5.12\nA\t5.08\nB\t5.10\nB\t5.11\n"
+	saved := columnReaders["group"]
+	defer func() { columnReaders["group"] = saved }()
+	columnReaders["group"] = nil
+	_, err := Analyze(Request{Text: text, Value: "Weight", Group: "Shift"})
+	if CodeOf(err) != CodeUnused {
+		t.Errorf("group column without a reader: %v (code %s), want code %s", err, CodeOf(err), CodeUnused)
+	}
+	columnReaders["group"] = saved
+	if _, err := Analyze(Request{Text: text, Value: "Weight", Group: "Shift"}); err != nil {
+		t.Errorf("group column with its reader: %v", err)
 	}
 }
 

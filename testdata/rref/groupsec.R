@@ -8,8 +8,10 @@
 # beyond Tukey's fences (1.5 and 3 IQR beyond the type 7 quartiles), and,
 # against limits set here from the data (LSL = the 10th percentile of all
 # readings, type 1, USL = the 90th), the count outside with the
-# Clopper-Pearson interval (binom.test) and Cpk from the group's overall SD
-# with the interval of Bissell (1990) written out by its formula. For sets
+# Clopper-Pearson interval (binom.test), Ppk from the group's overall SD
+# and Cpk from its within-process sigma (average moving range / d2 of the
+# group's readings in file order), each with the interval of Bissell (1990)
+# written out by its formula. For sets
 # of two groups the Welch difference and the Hodges-Lehmann shift are
 # given as group 1 minus group 0 (the section's direction).
 
@@ -44,8 +46,21 @@ for (s in unique(d$set)) {
     out(s, paste0(p, "outside"), k)
     bt <- binom.test(k, n, conf.level = 0.95)
     out(s, paste0(p, "outside.lo"), bt$conf.int[1]); out(s, paste0(p, "outside.hi"), bt$conf.int[2])
-    cpk <- min(mean(v) - lsl, usl - mean(v)) / (3 * sdv)
-    h <- qnorm(0.975) * sqrt(1 / (9 * n) + cpk^2 / (2 * (n - 1)))
+    ppk <- min(mean(v) - lsl, usl - mean(v)) / (3 * sdv)
+    h <- qnorm(0.975) * sqrt(1 / (9 * n) + ppk^2 / (2 * (n - 1)))
+    out(s, paste0(p, "ppk"), ppk); out(s, paste0(p, "ppk.lo"), ppk - h); out(s, paste0(p, "ppk.hi"), ppk + h)
+    # within: average moving range of span 2 (readings in file order) / d2(2),
+    # d2(2) = 2/sqrt(pi); effective degrees of freedom by Patnaik (1950) from
+    # the exact variance of the average of m = n-1 moving ranges (adjacent
+    # ranges correlated with covariance c1, sigma = 1)
+    m <- n - 1
+    d2 <- 2 / sqrt(pi)
+    sw <- mean(abs(diff(v))) / d2
+    v0 <- 2 * (1 - 2 / pi); c1 <- 2 * sqrt(3) / pi + 1 / 3 - 4 / pi
+    df <- 1 / (2 * (m * v0 + 2 * (m - 1) * c1) / (m^2 * d2^2))
+    cpk <- min(mean(v) - lsl, usl - mean(v)) / (3 * sw)
+    h <- qnorm(0.975) * sqrt(1 / (9 * n) + cpk^2 / (2 * df))
+    out(s, paste0(p, "sigma.within"), sw)
     out(s, paste0(p, "cpk"), cpk); out(s, paste0(p, "cpk.lo"), cpk - h); out(s, paste0(p, "cpk.hi"), cpk + h)
   }
   if (length(gl) == 2) {

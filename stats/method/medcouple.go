@@ -1,6 +1,9 @@
-package stats
+package method
 
 import (
+	"math/bits"
+
+	"lotlens/stats/decimal"
 	"math"
 	"math/rand/v2"
 	"slices"
@@ -113,7 +116,7 @@ func imSelectHint(m *imMatrix, k int64, next bool, hint *imHint) (vk, vk1 float6
 			return math.NaN(), math.NaN()
 		}
 		kk := int(min(max(k-below, 0), int64(len(buf)-1)))
-		a := floatSelect(buf, kk)
+		a := mcFloatSelect(buf, kk)
 		b := a
 		if next {
 			if kk+1 < len(buf) {
@@ -199,7 +202,7 @@ func imSelectHint(m *imMatrix, k int64, next bool, hint *imHint) (vk, vk1 float6
 			if !sampOK {
 				samp = sampleActive(sampleN)
 			}
-			sortSample(samp)
+			imSortSample(samp)
 			s := len(samp)
 			kk := k - below
 			centre := int(float64(kk) / float64(W) * float64(s))
@@ -313,18 +316,18 @@ func imSelectHint(m *imMatrix, k int64, next bool, hint *imHint) (vk, vk1 float6
 	}
 }
 
-// sortSample sorts a pivot sample in place: by the radix sort of sortFloats
+// imSortSample sorts a pivot sample in place: by the radix sort of decimal.SortFloats
 // (several times faster than a comparison sort at the sample sizes used),
 // unless the sample holds a NaN (the kernel of values near the float64
 // limit can give one), which only a comparison sort orders.
-func sortSample(samp []float64) {
+func imSortSample(samp []float64) {
 	for _, v := range samp {
 		if v != v {
 			slices.Sort(samp)
 			return
 		}
 	}
-	sortFloats(samp)
+	decimal.SortFloats(samp)
 }
 
 // imChunk is the number of rows a walk hands to its visitor at once.
@@ -376,12 +379,12 @@ func mcStair(x []float64, m float64, q, r0, r1, c int, t float64, strict bool, o
 	return c, cnt
 }
 
-// floatSelect returns the k-th smallest (0-based) of a, reordering a so
+// mcFloatSelect returns the k-th smallest (0-based) of a, reordering a so
 // that a[:k] <= a[k] <= a[k+1:] (quickselect, Hoare 1961, with
 // median-of-three pivots and a sort as the worst-case fallback).
-func floatSelect(a []float64, k int) float64 {
+func mcFloatSelect(a []float64, k int) float64 {
 	lo, hi := 0, len(a)-1
-	budget := 2 * (64 - countLeadingZeros(uint64(len(a))))
+	budget := 2 * bits.Len64(uint64(len(a)))
 	for hi > lo {
 		if budget == 0 {
 			slices.Sort(a[lo : hi+1])
@@ -425,16 +428,7 @@ func floatSelect(a []float64, k int) float64 {
 	return a[k]
 }
 
-func countLeadingZeros(x uint64) int {
-	n := 0
-	for x != 0 {
-		x >>= 1
-		n++
-	}
-	return 64 - n
-}
-
-// medcouple is the medcouple of Brys, Hubert and Struyf (2004), "A robust
+// Medcouple is the medcouple of Brys, Hubert and Struyf (2004), "A robust
 // measure of skewness", J. Comput. Graph. Stat. 13, 996-1017: the median of
 // the kernel h(xi, xj) = ((xj-m) - (m-xi)) / (xj - xi) over all pairs
 // xi <= m <= xj, m the median, with the kernel's special case for pairs
@@ -443,7 +437,7 @@ func countLeadingZeros(x uint64) int {
 // O(n log n) expected time by imSelect, without forming the n²/4 pairs;
 // for an even number of pairs it is the mean of the two middle ones.
 // sorted is ascending; ok is false for fewer than 3 values.
-func medcouple(sorted []float64) (mc float64, ok bool) {
+func Medcouple(sorted []float64) (mc float64, ok bool) {
 	a, b, ok := medcoupleMiddle(sorted)
 	if !ok {
 		return 0, false
@@ -454,7 +448,7 @@ func medcouple(sorted []float64) (mc float64, ok bool) {
 	if math.Abs(mc) < mcZero {
 		mc = 0
 	}
-	return mc, finite(mc)
+	return mc, normalFinite(mc)
 }
 
 // mcZero is the magnitude below which the medcouple is reported as 0.
@@ -505,10 +499,10 @@ func medcoupleMiddle(sorted []float64) (lo, hi float64, ok bool) {
 	}
 	if N%2 == 1 {
 		v, _ := imSelectHint(mx, kk, false, hint)
-		return v, v, finite(v)
+		return v, v, normalFinite(v)
 	}
 	a, b := imSelectHint(mx, kk, true, hint)
-	return a, b, finite(a) && finite(b)
+	return a, b, normalFinite(a) && normalFinite(b)
 }
 
 // Skeleton of the medcouple for large samples (see medcoupleMiddle);

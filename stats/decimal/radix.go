@@ -1,16 +1,15 @@
-package stats
+package decimal
 
 import (
-	"math"
 	"math/bits"
 	"slices"
 	"unsafe"
 )
 
-// radixMin is the size below which a comparison sort is used.
-const radixMin = 256
+// radixMinN is the size below which a comparison sort is used.
+const radixMinN = 256
 
-// sortFloats sorts xs ascending in place (no NaN allowed) and returns it.
+// SortFloats sorts xs ascending in place (no NaN allowed) and returns it.
 // Large inputs use an in-place most-significant-digit radix sort (the
 // "American flag sort" of McIlroy, Bostic and McIlroy 1993, Computing
 // Systems 6) on the IEEE 754 bit patterns, mapped so that unsigned order is
@@ -19,9 +18,9 @@ const radixMin = 256
 // that bucket differ, so data that share their leading bits (every value near
 // 500.0) cost no wasted passes. No scratch memory: the engine's peak stays at
 // one float64 per value.
-func sortFloats(xs []float64) []float64 {
+func SortFloats(xs []float64) []float64 {
 	n := len(xs)
-	if n < radixMin {
+	if n < radixMinN {
 		slices.Sort(xs)
 		return xs
 	}
@@ -29,17 +28,17 @@ func sortFloats(xs []float64) []float64 {
 	for i, k := range keys {
 		keys[i] = k ^ (uint64(int64(k)>>63) | 1<<63)
 	}
-	flagSort(keys)
+	radixFlagSort(keys)
 	for i, k := range keys {
 		keys[i] = k ^ (uint64(int64(^k)>>63) | 1<<63)
 	}
 	return xs
 }
 
-// flagSort sorts keys in place by their highest differing bits.
-func flagSort(keys []uint64) {
+// radixFlagSort sorts keys in place by their highest differing bits.
+func radixFlagSort(keys []uint64) {
 	if len(keys) < 64 {
-		insertionSort(keys)
+		radixInsertionSort(keys)
 		return
 	}
 	k0 := keys[0]
@@ -100,13 +99,13 @@ func flagSort(keys []uint64) {
 	for b := 0; b < nb; b++ {
 		c := count[b]
 		if c > 1 {
-			flagSort(keys[start : start+c])
+			radixFlagSort(keys[start : start+c])
 		}
 		start += c
 	}
 }
 
-func insertionSort(a []uint64) {
+func radixInsertionSort(a []uint64) {
 	for i := 1; i < len(a); i++ {
 		k := a[i]
 		j := i
@@ -116,53 +115,4 @@ func insertionSort(a []uint64) {
 		}
 		a[j] = k
 	}
-}
-
-// countSortFixed sorts xs ascending by counting (a counting sort, Seward
-// 1954) when every value is a fixed-point decimal with at most D decimals
-// whose mantissas m = x·10^D span a range of at most len(xs)/8 steps: the
-// usual case of measurements typed to a fixed resolution (1,000,000 fill
-// weights to 0.01 g span a few thousand steps). It writes each value back
-// as m/10^D, which is exactly the value read (checked for every value, as
-// in mantissa), so the result equals sortFloats'. It reports false, with
-// xs unchanged, when the data do not qualify (-0, a value off the grid, a
-// wide range). Memory: one uint32 per step of the range.
-func countSortFixed(xs []float64, D int) bool {
-	n := len(xs)
-	if n < radixMin || D < 0 || D > maxDec {
-		return false
-	}
-	p := pow10tab[D]
-	lo, hi := int64(math.MaxInt64), int64(math.MinInt64)
-	for _, x := range xs {
-		f := x * p
-		if !(math.Abs(f) < 1<<51) {
-			return false
-		}
-		m := int64(math.RoundToEven(f))
-		if float64(m)/p != x || (x == 0 && math.Signbit(x)) {
-			return false
-		}
-		lo, hi = min(lo, m), max(hi, m)
-	}
-	span := hi - lo + 1
-	if span > int64(n/8) {
-		return false
-	}
-	count := make([]uint32, span)
-	for _, x := range xs {
-		count[int64(math.RoundToEven(x*p))-lo]++
-	}
-	i := 0
-	for j, c := range count {
-		if c == 0 {
-			continue
-		}
-		v := float64(lo+int64(j)) / p
-		for range c {
-			xs[i] = v
-			i++
-		}
-	}
-	return true
 }

@@ -1,4 +1,4 @@
-package stats
+package method
 
 import (
 	"math"
@@ -82,7 +82,7 @@ func TestMedcoupleMatchesNaive(t *testing.T) {
 				want := naiveMedcouple(x)
 				s := slices.Clone(x)
 				slices.Sort(s)
-				got, ok := medcouple(s)
+				got, ok := Medcouple(s)
 				if !ok || math.Abs(got-want) > 1e-13 {
 					t.Fatalf("kind %d n %d: medcouple = %v (ok %v), naive %v", kind, n, got, ok, want)
 				}
@@ -103,7 +103,7 @@ func TestMedcoupleSelectionRounds(t *testing.T) {
 		want := naiveMedcouple(x)
 		s := slices.Clone(x)
 		slices.Sort(s)
-		got, _ := medcouple(s)
+		got, _ := Medcouple(s)
 		if math.Abs(got-want) > 1e-13 {
 			t.Fatalf("kind %d: medcouple = %v, naive %v", kind, got, want)
 		}
@@ -113,14 +113,14 @@ func TestMedcoupleSelectionRounds(t *testing.T) {
 func TestMedcoupleEdge(t *testing.T) {
 	// All equal: every pair is tied with the median; the block is
 	// antisymmetric so the median kernel is 0 (definition).
-	if mc, ok := medcouple([]float64{2, 2, 2, 2, 2}); !ok || mc != 0 {
+	if mc, ok := Medcouple([]float64{2, 2, 2, 2, 2}); !ok || mc != 0 {
 		t.Errorf("constant data: %v %v", mc, ok)
 	}
-	if _, ok := medcouple([]float64{1, 2}); ok {
+	if _, ok := Medcouple([]float64{1, 2}); ok {
 		t.Error("n = 2 should not give a medcouple")
 	}
 	// Symmetric data: the medcouple is 0 (definition).
-	if mc, _ := medcouple([]float64{-3, -2, -1, 0, 1, 2, 3}); math.Abs(mc) > 1e-15 {
+	if mc, _ := Medcouple([]float64{-3, -2, -1, 0, 1, 2, 3}); math.Abs(mc) > 1e-15 {
 		t.Errorf("symmetric data: %v", mc)
 	}
 }
@@ -136,7 +136,7 @@ func TestFloatSelect(t *testing.T) {
 			s := slices.Clone(a)
 			slices.Sort(s)
 			k := rng.IntN(n)
-			if got := floatSelect(a, k); got != s[k] {
+			if got := mcFloatSelect(a, k); got != s[k] {
 				t.Fatalf("floatSelect k=%d: %v want %v", k, got, s[k])
 			}
 		}
@@ -152,7 +152,7 @@ func benchMedcouple(b *testing.B, n int) {
 	slices.Sort(x)
 	b.ResetTimer()
 	for b.Loop() {
-		medcouple(x)
+		Medcouple(x)
 	}
 }
 
@@ -182,7 +182,7 @@ func TestMedcoupleR(t *testing.T) {
 	ref := methodsRef(t)
 	for set, r := range ref {
 		x, _, _ := methodsSet(t, set)
-		mc, ok := medcouple(x)
+		mc, ok := Medcouple(x)
 		lo, _, _ := medcoupleMiddle(x)
 		if !ok {
 			t.Errorf("%s: no medcouple", set)
@@ -210,7 +210,7 @@ func TestMedcoupleSkeleton(t *testing.T) {
 			want := naiveMedcouple(x)
 			s := slices.Clone(x)
 			slices.Sort(s)
-			got, _ := medcouple(s)
+			got, _ := Medcouple(s)
 			if math.Abs(got-want) > 1e-13 {
 				t.Fatalf("kind %d n %d: medcouple = %v, naive %v", kind, n, got, want)
 			}
@@ -232,7 +232,7 @@ func TestMedcoupleScales(t *testing.T) {
 				want := naiveMedcouple(x)
 				s := slices.Clone(x)
 				slices.Sort(s)
-				got, ok := medcouple(s)
+				got, ok := Medcouple(s)
 				if math.Abs(want) < mcZero {
 					want = 0
 				}
