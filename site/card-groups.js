@@ -60,7 +60,7 @@ function pairTable(set) {
 function levelTable(g) {
   const specs = g.levels.some((l) => l.spec);
   const head = ["Group", "n", "Quote", "Centre", "Interval", "Spread", "Suspects", "Letters"];
-  if (specs) head.push("Outside spec", "Cpk (interval)");
+  if (specs) head.push("Outside spec", "Cpk, within (interval)", "Ppk, overall (interval)");
   return table(head, g.levels.map((l, i) => {
     const med = l.quote === "median-iqr";
     const row = [l.title, String(l.n), l.n ? (med ? "median, IQR" : "mean, SD") : "\u2013",
@@ -71,8 +71,11 @@ function levelTable(g) {
       l.inTests ? (l.letters || "\u2013") : "left out: " + (l.leftOut || "")];
     if (specs) {
       const s = l.spec;
+      const index = (v, ci) => v !== undefined && v !== null
+        ? [el("span", { text: (Math.round(v * 100) / 100).toFixed(2) + " " }), ci ? "(" + ci.lo.toFixed(2) + " to " + ci.hi.toFixed(2) + ")" : ""]
+        : "\u2013";
       row.push(s ? (Math.round(s.outside * 1000) / 10) + " % (" + (s.below + s.above) + ")" : "\u2013",
-        s && s.cpk !== undefined && s.cpk !== null ? [el("span", { text: (Math.round(s.cpk * 100) / 100).toFixed(2) + " " }), s.cpkCI ? "(" + s.cpkCI.lo.toFixed(2) + " to " + s.cpkCI.hi.toFixed(2) + ")" : ""] : "\u2013");
+        s ? index(s.cpk, s.cpkCI) : "\u2013", s ? index(s.ppk, s.ppkCI) : "\u2013");
     }
     return row;
   }), "figs groups-levels");
