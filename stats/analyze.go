@@ -108,6 +108,7 @@ func AnalyzeTable(tab *ingest.Table, fingerprint string, req Request) (*Report, 
 	}
 	cv.seq, cv.outOfOrder = cols.orderSequence()
 	cv.subgroup = cols.subgroup
+	cv.group, cv.wide = cols.group, cols.wide
 	if cols.order != nil {
 		rep.Input.Order = cols.order.Name
 	}
@@ -136,6 +137,11 @@ type colView struct {
 	// subgroup is the request's subgroup column (nil when none), aligned
 	// with vals.
 	subgroup *ingest.Column
+	// group is the request's group column (cells aligned with vals), wide
+	// the side-by-side value columns compared as groups; both nil without
+	// a groups section.
+	group *ingest.Column
+	wide  []*ingest.Column
 }
 
 // maxIncompleteListed bounds the incomplete rows listed per optional column.
