@@ -25,17 +25,24 @@ function excludedItem(r) {
     input, printed);
 }
 
+// The box plot comes right after the card's opening sentence, so that on
+// paper it floats beside the list of flagged readings.
+function boxPlot() {
+  return chartFigure("box", "Box plot: box from Q1 to Q3 with the median; whiskers to the last values inside the inner fences; flagged readings labelled by row.");
+}
+
 function suspectsCard(rep) {
   const links = helpLinks([["tukey-fences", "Tukey's fences"], ["adjusted-boxplot", "adjusted box plot"], ["modified-z", "modified z-score"], ["gesd", "generalized ESD"], ["box-plot", "box plot"]]);
   const s = rep.suspects;
   const excl = (rep.settings.excluded || []);
   const kids = [];
   if (!s) {
-    kids.push(missing("suspects", "The suspect-reading rules"));
+    kids.push(missing("suspects", "The suspect-reading rules"), boxPlot());
   } else {
     const n = s.readings.length;
     kids.push(el("p", { class: "quote" }, el("span", { class: "quote-label", text: "Flagged readings " }), el("span", { class: "num big", "data-field": "suspects", "data-value": String(n), text: String(n) })));
     kids.push(el("p", { class: "why", text: "Each reading is checked by several standard rules; one flagged by more than one rule deserves a look at the part or the gauge. Nothing is removed unless you choose to leave it out, and every exclusion is listed in the report." }));
+    kids.push(boxPlot());
     if (n) {
       const shown = state.allSuspects || n <= 50 ? s.readings : s.readings.slice(0, 50);
       kids.push(table(["Row", "As typed", "Rules that flag it", "In the analysis"], shown.map((r) => {
@@ -48,7 +55,8 @@ function suspectsCard(rep) {
               onclick: () => actions.toggleExclude(r.row) })]];
       }), "figs suspects-t"));
       if (shown.length < n) kids.push(el("button", { type: "button", class: "small", text: "Show all " + n + " flagged readings",
-        onclick: () => { state.allSuspects = true; actions.render(); } }));
+        onclick: () => { state.allSuspects = true; actions.render(); } }),
+        el("p", { class: "print-only", text: "The first " + shown.length + " of " + n + " flagged readings are listed; all " + n + " are in the suspect-readings CSV and the report JSON." }));
     } else kids.push(el("p", { text: "No reading is flagged by any of the rules." }));
     if (s.rules && s.rules.length) kids.push(el("details", null, el("summary", { text: "The rules as applied" }),
       table(["Rule", "Lower limit", "Upper limit", "Flags", "Note"], s.rules.map((r) => [r.name || r.code,
@@ -56,7 +64,6 @@ function suspectsCard(rep) {
   }
   if (excl.length) kids.push(el("div", { class: "excluded" }, el("h4", { text: "Left out by you" }),
     el("ul", { class: "excluded-list" }, ...excl.map(excludedItem))));
-  kids.push(chartFigure("box", "Box plot: box from Q1 to Q3 with the median; whiskers to the last values inside the inner fences; flagged readings labelled by row."));
   kids.push(links);
   return card("suspects", "Suspect readings", ...kids);
 }
