@@ -33,7 +33,7 @@ type Lead struct {
 type Rule struct {
 	Code  string   `json:"code"` // "tukey-inner", "tukey-outer", "adjusted-box", "modified-z", "gesd"
 	Name  string   `json:"name"`
-	Plain string   `json:"plain"` // what the rule checks, in plain words ("also flagged by ...")
+	Plain string   `json:"plain"`        // what the rule checks, in plain words ("also flagged by ...")
 	Lo    *float64 `json:"lo,omitempty"` // lower limit, where the rule has one
 	Hi    *float64 `json:"hi,omitempty"`
 	Count int      `json:"count"`
