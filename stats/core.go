@@ -210,7 +210,7 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	rep.Charts = ch
 
 	inner, outer := fenceCounts(s)
-	verdict(rep, w, opts, n, s.constant, maxRun, distinct, step, inner, outer)
+	verdict(rep, w, opts, n, s.constant, maxRun, distinct, step, inner, outer, restSkewOf(s))
 	guardFinite(rep)
 }
 

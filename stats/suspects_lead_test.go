@@ -165,3 +165,39 @@ func readSetFile(t *testing.T, path string) []float64 {
 	sortStd(x)
 	return x
 }
+
+// The verdict's shape reason is not driven by far-out readings: the torque
+// readings with row 21 moved to 23.90 (20 SD below; row 42 at 24.74, 8 SD
+// above) have G1 = -4.85 over all readings but -0.103 inside Tukey's outer
+// fences (R 4.2.2, testdata/rref/suspects.R): not "left-skewed", and the
+// verdict says that the far-out readings are the reason.
+func TestVerdictShapeNotFromFarOut(t *testing.T) {
+	ref := rref.Load(t, "suspects.tsv", 3)["t01-far"]
+	lines := strings.Fields(mustRead(t, "../testdata/suspects/torque-tied-n60.txt"))
+	lines[20] = "23.90"
+	rep, err := Analyze(Request{Text: strings.Join(lines, "\n")})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if g := rep.Shape.Skewness.Value; math.Abs(g-ref["G1all"]) > 1e-9 {
+		t.Fatalf("G1 %v, R 4.2.2 %v", g, ref["G1all"])
+	}
+	var found bool
+	for _, r := range rep.Verdict.Reasons {
+		if strings.HasSuffix(r.Code, "-skewed") {
+			t.Errorf("shape reason %s: %s", r.Code, r.Text)
+		}
+		if r.Code == "far-out-not-shape" {
+			found = true
+			if math.Abs(r.Vals["g1"]-ref["G1rest"]) > 1e-9 || r.Vals["below"] != ref["farBelow"] || r.Vals["above"] != ref["farAbove"] {
+				t.Errorf("vals %v, R 4.2.2 G1 rest %v, below %v, above %v", r.Vals, ref["G1rest"], ref["farBelow"], ref["farAbove"])
+			}
+			if !strings.Contains(r.Text, "two readings far out on opposite sides") || !strings.Contains(r.Text, "roughly symmetric") {
+				t.Errorf("text %q", r.Text)
+			}
+		}
+	}
+	if !found || rep.Verdict.Quote != "median-iqr" {
+		t.Errorf("verdict %s %+v: want median-iqr with far-out-not-shape", rep.Verdict.Quote, rep.Verdict.Reasons)
+	}
+}

@@ -293,6 +293,40 @@ func (w words) reasonSkew(side string, g1, p float64) string {
 	return s + ")"
 }
 
+// reasonSkewRest: the readings inside the outer fences are side-skewed
+// (G1 g1, p < 0 without a test), far readings left out of that measure.
+func (w words) reasonSkewRest(side string, g1, p float64, far int) string {
+	s := fmt.Sprintf("the data are %s-skewed (G1 = %s without the %d far-out reading%s", side, w.g3(g1), far, plural(far, "", "s"))
+	if p >= 0 {
+		s += ", " + w.p(p)
+	}
+	return s + ")"
+}
+
+// reasonFarOutNotShape: below and above readings beyond the outer fences
+// alone make G1 (g1All) look skewed; the rest has G1 g1Rest.
+func (w words) reasonFarOutNotShape(below, above int, g1All, g1Rest float64) string {
+	k := below + above
+	where := "on opposite sides"
+	switch {
+	case above == 0:
+		where = "below the rest"
+	case below == 0:
+		where = "above the rest"
+	}
+	return fmt.Sprintf("the skewness of all readings (G1 = %s) comes from %s far out %s; the rest is roughly symmetric (G1 = %s without %s)",
+		w.g3(g1All), countWords(k, "reading", "readings"), where, w.g3(g1Rest), plural(k, "it", "them"))
+}
+
+// countWords writes small counts in words ("two readings").
+func countWords(k int, one, many string) string {
+	names := []string{"no", "one", "two", "three", "four", "five", "six", "seven", "eight", "nine", "ten"}
+	if k >= 0 && k < len(names) {
+		return names[k] + " " + plural(k, one, many)
+	}
+	return strconv.Itoa(k) + " " + many
+}
+
 func (w words) reasonBeyondOuter(k int) string {
 	return fmt.Sprintf("%d reading%s beyond the outer fence (3 IQR beyond the quartiles)", k, plural(k, " lies", "s lie"))
 }

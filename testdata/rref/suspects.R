@@ -67,3 +67,19 @@ out("t01-out", "mc", mc_naive(y))
 q <- quantile(y, c(0.25, 0.75), type = 7, names = FALSE)
 iqr <- q[2] - q[1]
 out("t01-out", "tukeyInner", sum(y < q[1] - 1.5 * iqr - 1e-9 | y > q[2] + 1.5 * iqr + 1e-9))
+# the as-typed set with row 21 moved to 23.90 (20 SD below, row 42 stays at
+# 24.74): G1 (Joanes and Gill 1998) of all readings and of those inside
+# Tukey's outer fences (type-7 quartiles)
+G1 <- function(x) {
+  n <- length(x); d <- x - mean(x)
+  g1 <- mean(d^3) / mean(d^2)^1.5
+  g1 * sqrt(n * (n - 1)) / (n - 2)
+}
+y <- x; y[21] <- 23.90
+q <- quantile(y, c(0.25, 0.75), type = 7, names = FALSE)
+iqr <- q[2] - q[1]
+far <- y < q[1] - 3 * iqr - 1e-9 | y > q[2] + 3 * iqr + 1e-9
+out("t01-far", "G1all", G1(y))
+out("t01-far", "farBelow", sum(y < q[1] - 3 * iqr - 1e-9))
+out("t01-far", "farAbove", sum(y > q[2] + 3 * iqr + 1e-9))
+out("t01-far", "G1rest", G1(y[!far]))
