@@ -32,7 +32,9 @@ const (
 
 // verdict decides which pair of figures to quote, by these rules, in order:
 //
-//  1. one value, or all values equal: mean and SD (there is nothing else).
+//  1. one value: the value itself (quote "value": no SD, interval or
+//     shape can come from one reading); all values equal: mean and SD
+//     (the SD is 0).
 //  2. skewed (8 values or more): |G1| >= 1, or |G1| >= 0.5 with
 //     D'Agostino's skewness test (D'Agostino 1970) significant at 5% ->
 //     median and IQR. When readings lie beyond the outer fences, G1 and
@@ -44,8 +46,12 @@ const (
 //     Tukey 1977) -> median and IQR.
 //  4. more than 2% of readings (and at least 3) beyond the inner fences
 //     (1.5 IQR) -> median and IQR.
-//  5. otherwise mean and SD; below 8 values the shape cannot be tested and
-//     the report says that the choice rests on the fences alone.
+//  5. otherwise mean and SD; with two or three readings the reason
+//     "few-readings" says what they can and cannot show (two: a range, no
+//     shape, no suspect rule; three: a rough SD, no shape test, an odd
+//     reading cannot be told from spread); below 8 values the shape
+//     cannot be tested and the report says that the choice rests on the
+//     fences alone.
 //
 // When the IQR is 0 (half the readings or more share one value) rules 3
 // and 4 are not applied: such fences would flag every other reading, and an
@@ -61,7 +67,8 @@ func verdict(rep *Report, w words, opts Options, n int, constant bool, maxRun, d
 	s := rep.Spread
 	switch {
 	case n == 1:
-		v.Quote = "mean-sd"
+		// nothing but the value: no SD is quoted
+		v.Quote = "value"
 		v.Reasons = append(v.Reasons, Reason{Code: "single-value", Text: w.reasonSingle()})
 	case constant:
 		v.Quote = "mean-sd"
@@ -126,12 +133,14 @@ func verdict(rep *Report, w words, opts Options, n int, constant bool, maxRun, d
 				vals["p"] = p
 			}
 			v.Reasons = append(v.Reasons, Reason{Code: "symmetric", Text: w.reasonSkew("", sh.Skewness.Value, p), Vals: vals})
+		} else if n <= 3 {
+			v.Reasons = append(v.Reasons, Reason{Code: "few-readings", Text: w.reasonFewReadings(n), Vals: map[string]float64{"n": float64(n)}})
 		} else if n < tinyN {
 			v.Reasons = append(v.Reasons, Reason{Code: "small-sample", Text: w.reasonSmallSample(n), Vals: map[string]float64{"n": float64(n)}})
 		} else {
 			v.Reasons = append(v.Reasons, Reason{Code: "shape-unknown", Text: w.reasonShapeUnknown()})
 		}
-		if !iqrZero {
+		if !iqrZero && n > 3 {
 			v.Reasons = append(v.Reasons, Reason{Code: "no-far-out", Text: w.reasonNoFarOut()})
 		}
 	}

@@ -273,7 +273,15 @@ func (w words) caution() string {
 }
 
 func (w words) reasonSingle() string {
-	return "Only one value: it is the mean and the median; no spread can be estimated."
+	return "One reading: it is its own mean and median, and that is all it can say. No spread (SD, range, IQR), no interval, no shape and no suspect reading can be told from one reading: measure more parts."
+}
+
+// reasonFewReadings: what two or three readings can and cannot show.
+func (w words) reasonFewReadings(n int) string {
+	if n == 2 {
+		return "Two readings: they give a mean and the range between them (the SD is that range divided by √2, a very rough figure). They say nothing about the shape, and no suspect-reading rule can be applied: with two readings neither can be called the odd one."
+	}
+	return "Three readings: they give a mean, a median and a rough SD, but no test of the shape can run, and one reading far from the other two cannot be told apart from real spread (the suspect-reading rules seldom flag anything with so few)."
 }
 
 func (w words) reasonConstant(n int, value float64) string {
@@ -356,6 +364,9 @@ func (w words) reasonOutOfRange() string {
 }
 
 func (w words) warnSmallSample(n, want int) string {
+	if n == 1 {
+		return fmt.Sprintf("Only one value: collect %d or more where you can.", want)
+	}
 	return fmt.Sprintf("Only %d values: intervals are wide and the shape is hard to judge; collect %d or more where you can.", n, want)
 }
 
