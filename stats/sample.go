@@ -201,3 +201,16 @@ func (s *sample) partNormalP(lo, hi int) (p float64, large, ok bool) {
 	}
 	return math.Exp(-(zs*zs + zk*zk) / 2), true, true
 }
+
+// adjustedFences are the adjusted box plot's fences (Hubert and
+// Vandervieren 2008, method.AdjustedBoxFences) on quartiles q1 and q3 with
+// medcouple mc. With mc = 0 they are Tukey's inner fences exactly, and are
+// computed as those (on the decimals as typed), so that a reading on a
+// fence is within it, not beyond by binary rounding.
+func (s *sample) adjustedFences(q1, q3 fig, mc float64) (lo, hi fig) {
+	if mc == 0 {
+		return s.fences(q1, q3, 3, 2)
+	}
+	l, h := method.AdjustedBoxFences(q1.f, q3.f, mc)
+	return fig{f: l}, fig{f: h}
+}

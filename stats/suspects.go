@@ -123,8 +123,9 @@ func outlierRules(w words, s *sample, alpha float64, distinct int) (rules []Rule
 	// Adjusted box plot.
 	mc, mcOK := s.medcouple()
 	if mcOK {
-		lo, hi := method.AdjustedBoxFences(q1, q3, mc)
-		nb, na := lowerBound(sorted, lo), n-upperBound(sorted, hi)
+		lof, hif := s.adjustedFences(s.q1, s.q3, mc)
+		lo, hi := lof.f, hif.f
+		nb, na := s.countBelow(lof), s.countAbove(hif)
 		cnt := fenceFlags(sorted, nb, na, lo, hi, "adjusted-box", fs, func(x float64) string {
 			if x < lo {
 				return w.adjustedBoxFlag(true, lo-x)

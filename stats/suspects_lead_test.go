@@ -201,3 +201,42 @@ func TestVerdictShapeNotFromFarOut(t *testing.T) {
 		t.Errorf("verdict %s %+v: want median-iqr with far-out-not-shape", rep.Verdict.Quote, rep.Verdict.Reasons)
 	}
 }
+
+// The quartile-definition warning covers every quartile-based rule: for
+// each definition hf1..hf9, a rule is listed in quantiles.differ exactly
+// when its counts beyond the fences (below, above) differ from hf7's, the
+// counts by R 4.2.2's quantile types (testdata/rref/suspects.R; the
+// medcouple by its definition).
+func TestQuartileSensitivityAllRules(t *testing.T) {
+	ref := rref.Load(t, "suspects.tsv", 3)
+	for _, set := range []string{"15-small-n8.txt", "26-coarse-tenths-n50.txt", "02-fill-normal-n250.txt"} {
+		rep := analyzeFile(t, "../testdata/sets/"+set, Options{})
+		listed := map[string]bool{}
+		for _, d := range rep.Quantile.Differ {
+			for _, m := range d.Methods {
+				listed[d.Rule+"/"+m] = true
+			}
+		}
+		base := ref[set+"@hf7"]
+		want := 0
+		for k := 1; k <= 9; k++ {
+			if k == 7 {
+				continue
+			}
+			m := "hf" + strconv.Itoa(k)
+			r := ref[set+"@"+m]
+			for _, rule := range []struct{ code, key string }{{"tukey-inner", "inner"}, {"tukey-outer", "outer"}, {"adjusted-box", "adj"}} {
+				differs := r[rule.key+"Lo"] != base[rule.key+"Lo"] || r[rule.key+"Hi"] != base[rule.key+"Hi"]
+				if differs {
+					want++
+				}
+				if differs != listed[rule.code+"/"+m] {
+					t.Errorf("%s: %s under %s: differs by R 4.2.2 %v, listed %v", set, rule.code, m, differs, listed[rule.code+"/"+m])
+				}
+			}
+		}
+		if (want > 0) != rep.Quantile.Sensitive || (want > 0 && !strings.Contains(rep.Quantile.Note, "adjusted box plot") && listed["adjusted-box/hf1"]) {
+			t.Errorf("%s: sensitive %v, note %q", set, rep.Quantile.Sensitive, rep.Quantile.Note)
+		}
+	}
+}

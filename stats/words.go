@@ -457,11 +457,18 @@ func (w words) quantileMedian(code string, n int, qmed, median float64) string {
 		code, n, w.shortest(qmed), w.shortest(median), code)
 }
 
-// fenceSensitive: the definitions differ flag other readings than code;
-// rows is rowsWithText's list.
-func (w words) fenceSensitive(differ []string, code, rows string) string {
-	return fmt.Sprintf("Which readings lie beyond Tukey's fences depends on the quantile definition here: %s flag(s) a different set than %s. Readings affected: %s.",
-		strings.Join(differ, ", "), code, rows)
+// differRule: rule (a quartile-based rule code) flags another set under
+// the definitions methods.
+func (w words) differRule(rule string, methods []string) string {
+	name := map[string]string{"tukey-inner": "Tukey's inner fences", "tukey-outer": "Tukey's outer fences", "adjusted-box": "the adjusted box plot"}[rule]
+	return "by " + name + " under " + strings.Join(methods, ", ")
+}
+
+// fenceSensitive: rules (differRule phrases) flag other readings than under
+// code; rows is rowsWithText's list.
+func (w words) fenceSensitive(rules []string, code, rows string) string {
+	return fmt.Sprintf("Which readings are flagged depends on the quartile definition here: compared with %s, another set of readings is flagged %s. Readings affected: %s.",
+		code, strings.Join(rules, " and "), rows)
 }
 
 // ---- Shape ----------------------------------------------------------------

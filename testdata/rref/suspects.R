@@ -83,3 +83,22 @@ out("t01-far", "G1all", G1(y))
 out("t01-far", "farBelow", sum(y < q[1] - 3 * iqr - 1e-9))
 out("t01-far", "farAbove", sum(y > q[2] + 3 * iqr + 1e-9))
 out("t01-far", "G1rest", G1(y[!far]))
+# Readings beyond each quartile-based rule's fences, below and above, under
+# quantile types 1 to 9 (Hyndman and Fan 1996), on two invented sets
+for (f in c("15-small-n8.txt", "26-coarse-tenths-n50.txt", "02-fill-normal-n250.txt")) {
+  y <- scan(file.path("testdata/sets", f), quiet = TRUE)
+  M <- mc_naive(y); e <- 1e-9
+  for (t in 1:9) {
+    q <- quantile(y, c(0.25, 0.75), type = t, names = FALSE)
+    iqr <- q[2] - q[1]
+    if (M >= 0) {
+      lo <- q[1] - 1.5 * exp(-4 * M) * iqr; hi <- q[2] + 1.5 * exp(3 * M) * iqr
+    } else {
+      lo <- q[1] - 1.5 * exp(-3 * M) * iqr; hi <- q[2] + 1.5 * exp(4 * M) * iqr
+    }
+    s <- paste0(f, "@hf", t)
+    out(s, "innerLo", sum(y < q[1] - 1.5 * iqr - e)); out(s, "innerHi", sum(y > q[2] + 1.5 * iqr + e))
+    out(s, "outerLo", sum(y < q[1] - 3 * iqr - e)); out(s, "outerHi", sum(y > q[2] + 3 * iqr + e))
+    out(s, "adjLo", sum(y < lo - e)); out(s, "adjHi", sum(y > hi + e))
+  }
+}
