@@ -22,7 +22,10 @@ export function readSettings() {
   if ($("decimal-mark").value) o.decimalMark = $("decimal-mark").value;
   const errs = [];
   let field = "";
-  const bad = (id) => { $(id).setAttribute("aria-invalid", "true"); if (!field) field = id; };
+  const bad = (id) => {
+    $(id).setAttribute("aria-invalid", "true"); if (!field) field = id;
+    const d = $(id).closest("details"); if (d) d.open = true; // the field to fix must be in view
+  };
   for (const [id, key, label] of [["target", "target", "Target"], ["lsl", "lsl", "LSL"], ["usl", "usl", "USL"]]) {
     const v = parseNum($(id).value);
     $(id).removeAttribute("aria-invalid");
