@@ -160,8 +160,11 @@ function apply(sh, rep, svg, how) {
   state.reasons = new Map(Object.entries(sh.reasons || {}).map(([k, v]) => [Number(k), v]));
   // settings the page has no field for travel on with the data
   state.carried = {};
-  for (const k of ["populationSD", "withinSigma", "coverage", "cpkGoal"]) if (o[k] !== undefined) state.carried[k] = o[k];
+  if (o.populationSD !== undefined) state.carried.populationSD = o.populationSD;
   $("unit").value = o.unit || "";
+  $("coverage").value = o.coverage ? String(Number((o.coverage * 100).toPrecision(12))) : "99";
+  $("cpk-goal").value = o.cpkGoal ? String(o.cpkGoal) : "1.33";
+  $("within-sigma").value = o.withinSigma || "";
   for (const k of ["target", "lsl", "usl"]) $(k).value = o[k] !== undefined && o[k] !== null ? String(o[k]) : "";
   setSelect("confidence", o.confidence);
   setSelect("quantile", o.quantile);

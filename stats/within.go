@@ -72,8 +72,8 @@ func checkWithin(o Options, hasSubgroup bool) error {
 // estimateWithin computes the within-process sigma for the used readings of
 // cv (excluded readings and empty cells left out), in time order.
 func estimateWithin(cv *colView, sub *ingest.Column, choice string) *withinSigma {
-	var series []float64
-	var cells []int32
+	series := make([]float64, 0, len(cv.vals))
+	cells := make([]int32, 0, len(cv.vals))
 	for i := range cv.inOrder() {
 		if x := cv.vals[i]; x == x && !math.IsInf(x, 0) && !cv.excludedByUser[cv.rows[i]] {
 			series = append(series, x)
