@@ -209,6 +209,11 @@ func TestDailyFlow(t *testing.T) {
 		if !strings.Contains(head, "row 5 (6.40; reason: "+why+")") || !strings.Contains(list, why) {
 			t.Errorf("print header %q / list %q lack the reason", head, list)
 		}
+		var sent string
+		s.run(t, chromedp.Evaluate(`lotlens.shownReport() || ""`, &sent))
+		if !strings.Contains(sent, `"reason":"`+why+`"`) {
+			t.Errorf("the report shown does not echo the reason in settings.excluded: %.400s", sent)
+		}
 		// the summary and the CSV carry it too
 		var copied string
 		s.run(t, chromedp.Evaluate(`navigator.clipboard.writeText = (t) => { window.__copied = t; return Promise.resolve() }; true`, nil),
@@ -229,6 +234,13 @@ func TestDailyFlow(t *testing.T) {
 			chromedp.Evaluate(`document.getElementById("print-head").textContent`, &head))
 		if value != why || !strings.Contains(head, why) {
 			t.Errorf("opened from the link: reason field %q, print header %q; want %q in both", value, head, why)
+		}
+		// the reason came back in the report (settings.excluded[].reason),
+		// the very report the sender showed
+		var got string
+		s.run(t, chromedp.Evaluate(`lotlens.shownReport() || ""`, &got))
+		if got != sent {
+			t.Errorf("the report opened from the link differs from the sender's:\n%.400s\n%.400s", got, sent)
 		}
 	})
 

@@ -12,7 +12,9 @@ import (
 	"math"
 	"reflect"
 	"slices"
+	"strconv"
 	"strings"
+	"unicode/utf8"
 
 	"lotlens/stats/ingest"
 )
@@ -189,6 +191,10 @@ func pickColumn(tab *ingest.Table, name string) (*ingest.Column, error) {
 	return nil, errorf(CodeNoData, "value", "no column holds numbers: paste or drop a column of measurements (one value a line, or a table with a header row)")
 }
 
+// MaxReasonChars is the longest reason for a left-out row
+// (Options.ExcludeReasons), in characters.
+const MaxReasonChars = 2000
+
 // checkOptions fills defaults and rejects impossible settings with a clear
 // message.
 func checkOptions(o Options) (Options, error) {
@@ -234,6 +240,26 @@ func checkOptions(o Options) (Options, error) {
 	}{{"target", o.Target}, {"lsl", o.LSL}, {"usl", o.USL}} {
 		if p.v != nil && (math.IsNaN(*p.v) || math.IsInf(*p.v, 0)) {
 			return o, errorf(CodeBadOption, "options."+p.name, "%s is not a finite number: give a value such as 12.5", p.name)
+		}
+	}
+	if len(o.ExcludeReasons) > 0 {
+		in := make(map[int]bool, len(o.Exclude))
+		for _, r := range o.Exclude {
+			in[r] = true
+		}
+		rows := make([]int, 0, len(o.ExcludeReasons))
+		for r := range o.ExcludeReasons {
+			rows = append(rows, r)
+		}
+		slices.Sort(rows) // the first offending row, the same on every run
+		for _, r := range rows {
+			field := "options.excludeReasons." + strconv.Itoa(r)
+			if !in[r] {
+				return o, errorf(CodeBadOption, field, "row %d has a reason but is not left out: add it to options.exclude or drop its reason", r)
+			}
+			if c := utf8.RuneCountInString(o.ExcludeReasons[r]); c > MaxReasonChars {
+				return o, errorf(CodeBadOption, field, "the reason for row %d has %d characters: shorten it to at most %d", r, c, MaxReasonChars)
+			}
 		}
 	}
 	if o.LSL != nil && o.USL != nil && *o.LSL >= *o.USL {

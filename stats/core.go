@@ -47,7 +47,7 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 		}
 		if excl != nil && excl[rows[i]] {
 			found[rows[i]] = true
-			rep.Settings.Excluded = append(rep.Settings.Excluded, Reading{Row: int(rows[i]), Column: cv.name, Text: cv.text(i), Value: x})
+			rep.Settings.Excluded = append(rep.Settings.Excluded, Reading{Row: int(rows[i]), Column: cv.name, Text: cv.text(i), Value: x, Reason: opts.ExcludeReasons[int(rows[i])]})
 			continue
 		}
 		xs = append(xs, x)

@@ -64,6 +64,10 @@ type Options struct {
 	// Exclude lists rows (as in Cell.Row) the user chose to leave out. They
 	// are listed in the report; nothing is ever deleted.
 	Exclude []int `json:"exclude,omitempty"`
+	// ExcludeReasons holds the user's reason for leaving a row out (row ->
+	// text, at most MaxReasonChars characters); every row must also be in
+	// Exclude. Echoed in Settings.Excluded[].Reason.
+	ExcludeReasons map[int]string `json:"excludeReasons,omitempty"`
 	// DecimalComma forces the decimal mark for ambiguous columns: "" (auto),
 	// "comma" or "point".
 	DecimalMark string `json:"decimalMark,omitempty"`
@@ -161,6 +165,9 @@ type Reading struct {
 	Column string  `json:"column"`
 	Text   string  `json:"text"`
 	Value  float64 `json:"value"`
+	// Reason is the user's reason for leaving the reading out
+	// (Options.ExcludeReasons); only in Settings.Excluded.
+	Reason string `json:"reason,omitempty"`
 }
 
 // Interval is a two-sided confidence interval.
