@@ -180,6 +180,7 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 
 	inner, outer := fenceCounts(s)
 	verdict(rep, w, opts, n, s.constant, maxRun, distinct, step, inner, outer, restSkewOf(s))
+	decimalMarkWarnings(rep, w, cv, n)
 	guardFinite(rep)
 }
 

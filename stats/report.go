@@ -118,7 +118,11 @@ type Input struct {
 	Unit  string `json:"unit,omitempty"`
 	// Columns are all columns the reader found, for the page's pickers.
 	Columns []ingest.ColumnInfo `json:"columns,omitempty"`
-	// Summary is one line, e.g. "498 values read; 2 cells not numbers (rows 17, 203); 1 empty".
+	// Summary is one line about the value column, e.g. "498 values read; 2
+	// cells not numbers (rows 17, 203); 1 empty": its counts are Counts'
+	// (values read = used + excluded; not numbers = rejected; empty +
+	// marked missing = missing); cells of other columns are only counted
+	// at the end ("; other columns: 3 cells empty or not readable").
 	Summary  string           `json:"summary"`
 	Problems []ingest.Problem `json:"problems,omitempty"`
 	// DecimalComma is true when the value column used a decimal comma: the
