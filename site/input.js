@@ -75,6 +75,14 @@ export function readSettings() {
   const u = $("unit").value.trim();
   if (u) o.unit = u;
   if (state.exclude.size) o.exclude = Array.from(state.exclude).sort((a, b) => a - b);
+  // the reasons typed for rows left out travel with the request: the
+  // report echoes them (settings.excluded[].reason) and a link carries them
+  const why = {};
+  for (const r of o.exclude || []) {
+    const t = ((state.reasons && state.reasons.get(r)) || "").trim();
+    if (t) why[String(r)] = t;
+  }
+  if (Object.keys(why).length) o.excludeReasons = why;
   const box = $("settings-error");
   box.hidden = !errs.length;
   box.textContent = errs.join(" ");
@@ -358,7 +366,14 @@ function toggleExclude(row) {
   $("leave-out").value = state.leaveOutText;
   analyseNow(undefined, { focus });
 }
-function reasonChanged() {
+function reasonChanged(row) {
+  // the report shown echoes the reason as the engine will on the next run
+  // (settings.excluded[].reason), so its JSON, a link and the print agree
+  const why = ((state.reasons && state.reasons.get(row)) || "").trim();
+  for (const r of (state.report && state.report.settings && state.report.settings.excluded) || []) {
+    if (r.row !== row) continue;
+    if (why) r.reason = why; else delete r.reason;
+  }
   refreshPrintHead();
   renderExclusions();
 }

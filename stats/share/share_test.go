@@ -128,8 +128,8 @@ func samplePayload() Payload {
 		Text:    b.String(),
 		Value:   "Torque (N·m)", Order: "Time", Group: "Line",
 		Options: Options{Unit: "N·m", Target: ptr(12.35), LSL: ptr(12), USL: ptr(12.7), Confidence: 0.99,
-			Quantile: "hf6", PopulationSD: true, Exclude: []int{3}, DecimalMark: "comma", WithinSigma: "moving-range", Coverage: 0.999, CpkGoal: 1.67},
-		Reasons: map[int]string{3: "gauge dropped"},
+			Quantile: "hf6", PopulationSD: true, Exclude: []int{3}, DecimalMark: "comma", WithinSigma: "moving-range", Coverage: 0.999, CpkGoal: 1.67,
+			ExcludeReasons: map[int]string{3: "gauge dropped"}},
 	}
 }
 
