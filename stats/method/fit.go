@@ -866,21 +866,7 @@ func fitAD(m fitModel, fd *fitData) float64 {
 // D'Agostino and Stephens (1986, Table 4.9) on A* = A²(1+0.75/n+2.25/n²).
 func FitADNormalPValue(a2 float64, n int) float64 {
 	nf := float64(n)
-	a := a2 * (1 + 0.75/nf + 2.25/(nf*nf))
-	var p float64
-	switch {
-	case a < 0.2:
-		p = 1 - math.Exp(-13.436+101.14*a-223.73*a*a)
-	case a < 0.34:
-		p = 1 - math.Exp(-8.318+42.796*a-59.938*a*a)
-	case a < 0.6:
-		p = math.Exp(0.9177 - 4.279*a - 1.38*a*a)
-	case a < 153.467:
-		p = math.Exp(1.2937 - 5.709*a + 0.0186*a*a)
-	default:
-		p = 0
-	}
-	return math.Max(0, math.Min(1, p))
+	return ADNormalP(a2 * (1 + 0.75/nf + 2.25/(nf*nf)))
 }
 
 func fitAdequacy(c *FitCandidate, n float64) {
