@@ -86,6 +86,7 @@ func AnalyzeTable(tab *ingest.Table, fingerprint string, req Request) (*Report, 
 		name: col.Name, unit: col.Unit, rows: col.Rows, vals: col.Values, dec: col.Dec,
 		text: col.Text, decimalComma: col.DecimalComma,
 		missing: col.Missing, bad: col.Bad,
+		order: cols.order, subgroup: cols.subgroup,
 	}
 	infos := make([]ingest.ColumnInfo, len(tab.Columns))
 	for i, c := range tab.Columns {
@@ -132,6 +133,8 @@ type colView struct {
 	// into vals), from the request's order column; nil means row order.
 	seq        []int32
 	outOfOrder int // rows out of order in the file, by the order column
+	// order and subgroup are the request's columns (nil when not chosen)
+	order, subgroup *ingest.Column
 }
 
 // maxIncompleteListed bounds the incomplete rows listed per optional column.
@@ -213,6 +216,9 @@ func checkOptions(o Options) (Options, error) {
 		if p.v != nil && (math.IsNaN(*p.v) || math.IsInf(*p.v, 0)) {
 			return o, errorf(CodeBadOption, "options."+p.name, "%s is not a finite number: give a value such as 12.5", p.name)
 		}
+	}
+	if err := checkStabilityOptions(o); err != nil {
+		return o, err
 	}
 	if o.LSL != nil && o.USL != nil && *o.LSL >= *o.USL {
 		return o, errorf(CodeBadOption, "options.lsl", "the lower specification limit %g is not below the upper limit %g: swap them or correct one", *o.LSL, *o.USL)
@@ -309,6 +315,10 @@ func requestError(err error) error {
 	var te *json.UnmarshalTypeError
 	var se *json.SyntaxError
 	msg := err.Error()
+	var own *Error
+	if errors.As(err, &own) {
+		return own
+	}
 	switch {
 	case errors.As(err, &te):
 		field := te.Field

@@ -257,6 +257,9 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	}
 	ch.Series, ch.Thinned = series(cv, excl, n)
 	rep.Charts = ch
+	var stNotes []Note
+	rep.Stability, stNotes = buildStability(cv, estimateWithin(cv, cv.subgroup, opts.WithinSigma), cv.subgroup, opts)
+	rep.Notes = append(rep.Notes, stNotes...)
 
 	inner, outer := fenceCounts(sorted, ch.Box)
 	verdict(rep, opts, n, constant, maxRun, distinct, step, inner, outer)

@@ -1,0 +1,1719 @@
+package stats
+
+import (
+	"encoding/json"
+	"errors"
+	"fmt"
+	"math"
+	"math/big"
+	"slices"
+	"sort"
+	"strconv"
+	"strings"
+
+	"lotlens/stats/ingest"
+	"lotlens/stats/method"
+)
+
+// The "Over time" section: is the process stable, and since when has it
+// changed. The numbers come from stats/method (control.go, runs.go,
+// ewma.go, cusum.go, trend.go, changepoint.go); this file chooses the
+// chart, applies the user's baseline and switches, maps every point to its
+// spreadsheet row and writes the verdict.
+//
+// Choices, in order:
+//
+//   - Order: the request's order (or time) column when given, else the
+//     rows. With a time column the steps between readings are checked:
+//     a step more than gapFactor times the median step is a gap.
+//   - Chart: no subgroup column, individuals and moving range; with one,
+//     mean and range when the largest subgroup has fewer than 10 readings,
+//     else mean and SD (Options.ChartSpread overrides). If every subgroup
+//     holds one reading the readings are charted as individuals.
+//   - Sigma: the within-process sigma shared with the spec section
+//     (within.go). With a baseline the same estimator is applied to the
+//     baseline only; the centre is the mean of the baseline readings,
+//     summed on the decimals as typed.
+//   - Readings the user left out (Options.Exclude) stay on the chart,
+//     marked, and are listed; they set no limit and are not judged.
+//   - Checks: the switched-on special-cause checks on the values or means;
+//     the spread chart is judged by its limits only (its points are
+//     correlated, so run checks do not apply); EWMA and CUSUM on the same
+//     points; drift tests and the change point on the readings in order.
+//   - Stable: no signal on either chart, no EWMA or CUSUM alarm, no trend
+//     (Mann-Kendall p < driftAlpha) and no change point (Pettitt p <
+//     driftAlpha). A strong lag-1 autocorrelation is a warning.
+
+// Stability is the report's "Over time" section.
+type Stability struct {
+	// Verdict is the plain-language lead, e.g. "Stable over the 120
+	// readings: no signal".
+	Verdict string `json:"verdict"`
+	// Stable is true when the process was judged and nothing signalled.
+	Stable bool `json:"stable"`
+	// Judged is false when there were too few readings or no spread.
+	Judged bool `json:"judged"`
+	// Reasons are the machine-readable grounds of the verdict (codes in
+	// stabilityCodes); Warnings do not change Stable.
+	Reasons  []Reason `json:"reasons"`
+	Warnings []Reason `json:"warnings,omitempty"`
+
+	Order    StabilityOrder `json:"order"`
+	Baseline *BaselineInfo  `json:"baseline,omitempty"`
+	// LeftOut lists the readings the user left out: they stay on the
+	// chart, marked, and set no limits.
+	LeftOut []Reading `json:"leftOut,omitempty"`
+
+	Chart   *ControlChart `json:"chart,omitempty"`
+	Checks  []CheckInfo   `json:"checks"`
+	Signals []SignalInfo  `json:"signals"`
+	// SignalsListed is false when more signals were found than listed
+	// (maxSignalsListed); Checks hold the full counts.
+	SignalsCut bool `json:"signalsCut,omitempty"`
+
+	EWMA   *EWMAInfo   `json:"ewma,omitempty"`
+	CUSUM  *CUSUMInfo  `json:"cusum,omitempty"`
+	Drift  *DriftInfo  `json:"drift,omitempty"`
+	Change *ChangeInfo `json:"changePoint,omitempty"`
+}
+
+// StabilityOrder says which order the readings were taken in.
+type StabilityOrder struct {
+	// Source is "column" (the request's order column) or "rows".
+	Source string `json:"source"`
+	Column string `json:"column,omitempty"`
+	// Kind is "number" or "time" (seconds) for an order column.
+	Kind       string `json:"kind,omitempty"`
+	OutOfOrder int    `json:"outOfOrder"` // rows not in the column's order in the file
+	Duplicates int    `json:"duplicates"` // readings sharing their order key with the one before
+	// MedianStep is the median step between consecutive keys (seconds
+	// for a time column); Gaps are steps more than gapFactor times it.
+	MedianStep float64   `json:"medianStep,omitempty"`
+	Gaps       []GapInfo `json:"gaps,omitempty"`
+	GapCount   int       `json:"gapCount,omitempty"`
+	Text       string    `json:"text"`
+}
+
+// GapInfo is one large step in the order column.
+type GapInfo struct {
+	AfterRow  int     `json:"afterRow"`
+	BeforeRow int     `json:"beforeRow"`
+	Step      float64 `json:"step"`
+}
+
+// BaselineInfo describes the readings that set the limits.
+type BaselineInfo struct {
+	Rows   string `json:"rows"`   // as given, e.g. "2-61"
+	Points int    `json:"points"` // readings (or subgroups) in the baseline
+	First  int    `json:"first"`  // first and last position in time order (1-based)
+	Last   int    `json:"last"`
+	Text   string `json:"text"`
+}
+
+// ControlChart is the chart of the values (or subgroup means) with its
+// spread chart.
+type ControlChart struct {
+	// Kind is "individuals", "mean-range" or "mean-sd"; KindRule says why.
+	Kind     string `json:"kind"`
+	KindRule string `json:"kindRule"`
+	// Spread names the lower chart: "moving-range", "range" or "sd".
+	Spread string  `json:"spread"`
+	Centre float64 `json:"centre"`
+	// Sigma is the within-process sigma the limits use, by SigmaMethod
+	// (within.go's names) with SigmaDF effective degrees of freedom;
+	// SigmaShared is true when it is the one the spec section uses (no
+	// baseline).
+	Sigma       float64 `json:"sigma"`
+	SigmaMethod string  `json:"sigmaMethod"`
+	SigmaDF     float64 `json:"sigmaDF"`
+	SigmaShared bool    `json:"sigmaShared"`
+	Width       float64 `json:"width"` // limits at centre ± width·sigma of a point
+	// Count is the number of points (readings or subgroups) on the chart;
+	// Points holds all of them, or a thinned selection (Thinned) that
+	// keeps every point with a signal and every reading left out.
+	Count   int         `json:"count"`
+	Points  []CtlPoint  `json:"points"`
+	Limits  []CtlLimits `json:"limits"`
+	Thinned bool        `json:"thinned,omitempty"`
+	// TimeAxis is set when Points carry times (seconds) from a time column.
+	TimeAxis bool `json:"timeAxis,omitempty"`
+}
+
+// CtlPoint is one point of the control chart.
+type CtlPoint struct {
+	I     int      `json:"i"`   // position in time order, 1-based
+	Row   int      `json:"row"` // spreadsheet row (a subgroup's first reading)
+	Label string   `json:"label,omitempty"`
+	N     int      `json:"n,omitempty"` // readings in the subgroup
+	Y     float64  `json:"y"`
+	S     *float64 `json:"s,omitempty"` // moving range, range or SD
+	T     *float64 `json:"t,omitempty"` // order key (seconds with a time column)
+	// LeftOut: the user left this reading out (shown, not judged);
+	// Outside: not in the baseline (judged against its limits).
+	LeftOut bool     `json:"leftOut,omitempty"`
+	Outside bool     `json:"outside,omitempty"`
+	Flags   []string `json:"flags,omitempty"` // codes of the signals it is part of
+}
+
+// CtlLimits holds the limits for positions From..To (1-based, inclusive);
+// they change only where subgroup sizes change.
+type CtlLimits struct {
+	From         int     `json:"from"`
+	To           int     `json:"to"`
+	Lower        float64 `json:"lower"`
+	Upper        float64 `json:"upper"`
+	SpreadCentre float64 `json:"spreadCentre"`
+	SpreadLower  float64 `json:"spreadLower"`
+	SpreadUpper  float64 `json:"spreadUpper"`
+}
+
+// CheckInfo is one special-cause check as applied.
+type CheckInfo struct {
+	Code  string `json:"code"`
+	Name  string `json:"name"`
+	On    bool   `json:"on"`
+	Count int    `json:"count"` // signals it gave
+	Text  string `json:"text"`  // what it looks for
+}
+
+// SignalInfo is one signal with the rows or subgroups that make it.
+type SignalInfo struct {
+	Code  string `json:"code"`
+	Chart string `json:"chart"` // "values", "spread", "ewma", "cusum"
+	Side  int    `json:"side,omitempty"`
+	First int    `json:"first"` // positions in time order, 1-based
+	Last  int    `json:"last"`
+	// Points counts the points that make it; Rows (spreadsheet rows) or
+	// Subgroups (labels as typed) list them, at most maxSignalRows.
+	Points    int      `json:"points"`
+	Rows      []int    `json:"rows,omitempty"`
+	Subgroups []string `json:"subgroups,omitempty"`
+	Text      string   `json:"text"`
+}
+
+// EWMAInfo is the exponentially weighted moving average chart.
+type EWMAInfo struct {
+	Lambda float64 `json:"lambda"`
+	L      float64 `json:"l"`
+	// Scale is "data" (units of the data) or "standardized" (subgroup
+	// means of unequal sizes, each in units of its own sigma/√n).
+	Scale  string  `json:"scale"`
+	Centre float64 `json:"centre"`
+	Sigma  float64 `json:"sigma"` // of one plotted point
+	// ARL0 and ARL1: average run lengths in control and after a shift of
+	// one sigma of a point (Markov chain, Lucas and Saccucci 1990).
+	ARL0   *float64 `json:"arl0,omitempty"`
+	ARL1   *float64 `json:"arl1,omitempty"`
+	Beyond int      `json:"beyond"`
+	Points []EWMAPt `json:"points"`
+}
+
+// EWMAPt is the average after one point, with its limits.
+type EWMAPt struct {
+	I  int     `json:"i"`
+	Z  float64 `json:"z"`
+	Lo float64 `json:"lo"`
+	Hi float64 `json:"hi"`
+}
+
+// CUSUMInfo is the tabular CUSUM.
+type CUSUMInfo struct {
+	K        float64   `json:"k"`
+	H        float64   `json:"h"`
+	Scale    string    `json:"scale"`
+	Centre   float64   `json:"centre"`
+	Sigma    float64   `json:"sigma"`
+	Decision float64   `json:"decision"` // H·sigma
+	ARL0     *float64  `json:"arl0,omitempty"`
+	ARL1     *float64  `json:"arl1,omitempty"`
+	Beyond   int       `json:"beyond"`
+	Points   []CUSUMPt `json:"points"`
+}
+
+// CUSUMPt holds the upper and lower sums after one point.
+type CUSUMPt struct {
+	I    int     `json:"i"`
+	Up   float64 `json:"up"`
+	Down float64 `json:"down"`
+}
+
+// DriftInfo holds the tests for drift on the readings in time order.
+type DriftInfo struct {
+	Readings int `json:"readings"`
+	// Exact: ties and sides were decided on the decimals as typed.
+	Exact           bool          `json:"exact"`
+	Autocorrelation *AutocorrInfo `json:"autocorrelation,omitempty"`
+	Runs            *RunsInfo     `json:"runs,omitempty"`
+	Trend           *TrendInfo    `json:"trend,omitempty"`
+	Slope           *SlopeInfo    `json:"slope,omitempty"`
+}
+
+// AutocorrInfo is the lag-1 autocorrelation with the Ljung-Box test.
+type AutocorrInfo struct {
+	R1 float64 `json:"r1"`
+	Q  float64 `json:"q"`
+	P  float64 `json:"p"`
+	// Strong: r1 > strongAutocorr with p < driftAlpha; limits from moving
+	// ranges are then too narrow.
+	Strong bool `json:"strong"`
+}
+
+// RunsInfo is the runs test about the median.
+type RunsInfo struct {
+	Median       float64 `json:"median"`
+	Above        int     `json:"above"`
+	Below        int     `json:"below"`
+	OnMedian     int     `json:"onMedian"`
+	Runs         int     `json:"runs"`
+	Expected     float64 `json:"expected"`
+	Z            float64 `json:"z"`
+	P            float64 `json:"p"`
+	Exact        bool    `json:"exact"`
+	Longest      int     `json:"longest"`
+	LongestSide  int     `json:"longestSide"`
+	LongestFirst int     `json:"longestFirstRow"`
+	LongestLast  int     `json:"longestLastRow"`
+}
+
+// TrendInfo is the Mann-Kendall trend test.
+type TrendInfo struct {
+	S         int64   `json:"s"`
+	VarS      float64 `json:"varS"`
+	Z         float64 `json:"z"`
+	P         float64 `json:"p"`
+	Tau       float64 `json:"tau"`
+	TieGroups int     `json:"tieGroups"`
+}
+
+// SlopeInfo is Sen's slope per reading with its interval.
+type SlopeInfo struct {
+	Slope      float64 `json:"slope"`
+	Lower      float64 `json:"lower"`
+	Upper      float64 `json:"upper"`
+	Confidence float64 `json:"confidence"`
+	Intercept  float64 `json:"intercept"`
+	// Every is 1, or k when the slope was computed from every k-th
+	// reading (above senMax readings), Used readings in all.
+	Every int `json:"every"`
+	Used  int `json:"used"`
+}
+
+// ChangeInfo is the most likely single change in level (Pettitt 1979).
+type ChangeInfo struct {
+	Position   int     `json:"position"` // first reading after the change, 1-based in time order
+	Row        int     `json:"row"`
+	Subgroup   string  `json:"subgroup,omitempty"`
+	Statistic  float64 `json:"statistic"`
+	P          float64 `json:"p"`
+	MeanBefore float64 `json:"meanBefore"`
+	MeanAfter  float64 `json:"meanAfter"`
+	Shift      float64 `json:"shift"`
+	Found      bool    `json:"found"` // P < driftAlpha
+}
+
+// Caution returns what the spec section should say when capability
+// figures rest on a process that was not shown stable: ok is false when
+// the process was judged stable.
+func (s *Stability) Caution() (code, text string, ok bool) {
+	if s == nil || s.Stable {
+		return "", "", false
+	}
+	if !s.Judged {
+		return "stability-not-judged", cautionNotJudged(), true
+	}
+	return "not-stable", cautionNotStable(s.Verdict), true
+}
+
+// Section constants.
+const (
+	// driftAlpha: the level at which the trend test, the change point and
+	// the autocorrelation count (common practice, stricter than 5 % since
+	// several tests run on the same readings).
+	driftAlpha = 0.01
+	// strongAutocorr: a lag-1 autocorrelation above this makes limits
+	// from moving ranges noticeably too narrow (common practice).
+	strongAutocorr = 0.3
+	// gapFactor: a step in the order column this many times the median
+	// step is a gap (common practice).
+	gapFactor = 5
+	// senMax: Sen's slope forms every pairwise slope; above this many
+	// readings it is computed from every k-th reading (stats/method
+	// limits it to 2000).
+	senMax = 2000
+	// maxSignalsListed and maxSignalRows bound the listing; the checks
+	// count every signal.
+	maxSignalsListed = 200
+	maxSignalRows    = 50
+	maxGapsListed    = 50
+	maxLeftOutListed = 1000
+	// defaults of the EWMA and CUSUM (common practice: Montgomery 2009,
+	// §9.1-9.2; NIST/SEMATECH e-Handbook 6.3.2.3-6.3.2.4)
+	defaultLambda = 0.2
+	defaultL      = 3
+	defaultK      = 0.5
+	defaultH      = 5
+)
+
+// Codes of the section's own signals (besides method.Signal*).
+const (
+	SignalSpreadBeyond = "spread-beyond" // a moving range, range or SD beyond its limits
+	SignalEWMA         = "ewma"          // the EWMA beyond its limits
+	SignalCUSUM        = "cusum"         // a CUSUM sum beyond the decision interval
+)
+
+// checkOrder is the order the checks are listed in; defaultOn are the
+// checks on when the request switches none (the zone checks of the Western
+// Electric handbook, the trend check, EWMA and CUSUM; the three others
+// point mostly to how the samples were taken and are off by default).
+var (
+	checkOrder = []string{method.SignalBeyondLimits, method.SignalTwoOfThree, method.SignalFourOfFive,
+		method.SignalRunSameSide, method.SignalTrend, method.SignalAlternating, method.SignalHuggingCentre,
+		method.SignalAvoidCentre, SignalEWMA, SignalCUSUM}
+	defaultOn = map[string]bool{method.SignalBeyondLimits: true, method.SignalTwoOfThree: true,
+		method.SignalFourOfFive: true, method.SignalRunSameSide: true, method.SignalTrend: true,
+		SignalEWMA: true, SignalCUSUM: true}
+)
+
+// RowSpec is a set of spreadsheet rows: in JSON a string such as
+// "2-61, 80, 90-99" or a list of row numbers.
+type RowSpec string
+
+// UnmarshalJSON accepts a string or a list of whole numbers.
+func (r *RowSpec) UnmarshalJSON(b []byte) error {
+	var s string
+	if err := json.Unmarshal(b, &s); err == nil {
+		*r = RowSpec(s)
+		return nil
+	}
+	var list []int
+	if err := json.Unmarshal(b, &list); err != nil {
+		return errorf(CodeBadOption, "options.baseline", "baseline must be rows such as \"2-61\" or a list of row numbers such as [2, 3, 4]")
+	}
+	parts := make([]string, len(list))
+	for i, v := range list {
+		parts[i] = strconv.Itoa(v)
+	}
+	*r = RowSpec(strings.Join(parts, ", "))
+	return nil
+}
+
+// rowRanges parses a RowSpec into sorted inclusive ranges.
+func (r RowSpec) rowRanges() ([][2]int, error) {
+	var out [][2]int
+	for _, part := range strings.FieldsFunc(string(r), func(c rune) bool { return c == ',' || c == ';' || c == ' ' }) {
+		a, b, isRange := strings.Cut(part, "-")
+		lo, err1 := strconv.Atoi(strings.TrimSpace(a))
+		hi := lo
+		var err2 error
+		if isRange {
+			hi, err2 = strconv.Atoi(strings.TrimSpace(b))
+		}
+		if err1 != nil || err2 != nil || lo < 1 || hi < lo {
+			return nil, fmt.Errorf("%q", part)
+		}
+		out = append(out, [2]int{lo, hi})
+	}
+	sort.Slice(out, func(i, j int) bool { return out[i][0] < out[j][0] })
+	return out, nil
+}
+
+func inRanges(rr [][2]int, row int) bool {
+	i := sort.Search(len(rr), func(i int) bool { return rr[i][0] > row })
+	for j := i - 1; j >= 0; j-- {
+		if rr[j][1] >= row {
+			return true
+		}
+		if j < i-1 {
+			break
+		}
+	}
+	// ranges may overlap: check every range starting at or before row
+	for j := 0; j < i; j++ {
+		if rr[j][1] >= row {
+			return true
+		}
+	}
+	return false
+}
+
+// checkStabilityOptions refuses impossible settings of the section.
+func checkStabilityOptions(o Options) error {
+	if o.Baseline != "" {
+		if _, err := o.Baseline.rowRanges(); err != nil {
+			return errorf(CodeBadOption, "options.baseline", "baseline rows: %v is not a row number or a range such as 2-61; give rows like \"2-61, 80-99\"", err)
+		}
+	}
+	for code := range o.Signals {
+		if !slices.Contains(checkOrder, code) {
+			return errorf(CodeBadOption, "options.signals", "check %q is not known: use %s", code, strings.Join(checkOrder, ", "))
+		}
+	}
+	if o.EWMALambda != 0 && !(o.EWMALambda > 0 && o.EWMALambda <= 1) {
+		return errorf(CodeBadOption, "options.ewmaLambda", "EWMA weight %g: it must be above 0 and at most 1 (0.2 is usual)", o.EWMALambda)
+	}
+	if o.EWMAL != 0 && !(o.EWMAL > 0 && o.EWMAL <= 10) {
+		return errorf(CodeBadOption, "options.ewmaL", "EWMA limit width %g: it must be above 0 and at most 10 (3 is usual)", o.EWMAL)
+	}
+	if o.CUSUMK != 0 && !(o.CUSUMK > 0 && o.CUSUMK <= 10) {
+		return errorf(CodeBadOption, "options.cusumK", "CUSUM reference value %g: it must be above 0 and at most 10 (0.5 is usual)", o.CUSUMK)
+	}
+	if o.CUSUMH != 0 && !(o.CUSUMH > 0 && o.CUSUMH <= 50) {
+		return errorf(CodeBadOption, "options.cusumH", "CUSUM decision interval %g: it must be above 0 and at most 50 (4 or 5 are usual)", o.CUSUMH)
+	}
+	switch o.ChartSpread {
+	case "", "auto", "range", "sd":
+	default:
+		return errorf(CodeBadOption, "options.chartSpread", "chart spread %q is not known: use \"auto\", \"range\" or \"sd\"", o.ChartSpread)
+	}
+	return nil
+}
+
+func orDefault(v, d float64) float64 {
+	if v == 0 {
+		return d
+	}
+	return v
+}
+
+// stabPoint is one plotted reading or subgroup while the section is built.
+type stabPoint struct {
+	row     int32
+	label   string
+	n       int
+	y       float64
+	s       float64
+	hasS    bool
+	t       float64
+	hasT    bool
+	leftOut bool
+	outside bool
+	used    int // index into the judged series, -1 for a reading left out
+	flags   []string
+}
+
+// buildStability fills the "Over time" section from the used readings in
+// time order (w, from estimateWithin) and the subgroup column sub (nil
+// for individual readings).
+func buildStability(cv *colView, w *withinSigma, sub *ingest.Column, opts Options) (*Stability, []Note) {
+	st := &Stability{Reasons: []Reason{}, Checks: []CheckInfo{}, Signals: []SignalInfo{}}
+	var notes []Note
+	st.Order = orderInfo(cv)
+	if sub != nil && len(w.groups) > 0 && allSingles(w.groups) {
+		notes = append(notes, Note{Field: "stability.chart", Text: noteAllSingles()})
+		w = estimateWithin(cv, nil, "")
+		sub = nil
+	}
+	ranges, _ := opts.Baseline.rowRanges()
+	inBase := func(row int32) bool { return opts.Baseline == "" || inRanges(ranges, int(row)) }
+
+	// the readings left out by the user, listed
+	for i := range cv.inOrder() {
+		x := cv.vals[i]
+		if x == x && !math.IsInf(x, 0) && cv.excludedByUser[cv.rows[i]] && len(st.LeftOut) < maxLeftOutListed {
+			st.LeftOut = append(st.LeftOut, Reading{Row: int(cv.rows[i]), Column: cv.name, Text: cv.text(i), Value: x})
+		}
+	}
+
+	n := len(w.series)
+	if n < 3 {
+		st.Verdict = verdictTooFew(n)
+		st.Reasons = append(st.Reasons, Reason{Code: "too-few", Text: st.Verdict, Vals: map[string]float64{"n": float64(n)}})
+		return st, notes
+	}
+	if w.err != nil {
+		st.Verdict = verdictNoSpread(w.err)
+		st.Reasons = append(st.Reasons, Reason{Code: "no-spread", Text: st.Verdict})
+		return st, notes
+	}
+	st.Judged = true
+
+	settings, on := signalSwitches(opts.Signals)
+	// exact centre from the decimals as typed, where every used reading is
+	// plain decimal text
+	mant, scale, exact := mantissas(cv, w)
+
+	b := &stabBuild{st: st, cv: cv, w: w, on: on, opts: opts, inBase: inBase, mant: mant, scale: scale, exact: exact}
+	var err error
+	if sub == nil {
+		err = b.individuals(settings)
+	} else {
+		err = b.subgroups(settings)
+	}
+	if err != nil {
+		st.Judged = false
+		st.Chart = nil
+		st.Verdict = verdictNoSpread(err)
+		st.Reasons = append(st.Reasons, Reason{Code: "no-spread", Text: st.Verdict})
+		return st, append(notes, b.notes...)
+	}
+	b.drift()
+	b.finishChart()
+	b.verdict()
+	return st, append(notes, b.notes...)
+}
+
+type stabBuild struct {
+	st     *Stability
+	cv     *colView
+	w      *withinSigma
+	on     map[string]bool
+	opts   Options
+	inBase func(int32) bool
+	mant   []int64
+	scale  int
+	exact  bool
+	notes  []Note
+
+	pts      []stabPoint
+	judged   []float64 // the judged points (readings or means) in order
+	posOf    []int     // plotted position (0-based) of each judged point
+	subgroup bool
+	signals  []method.Signal
+	spreadSg []int // judged indices with a spread beyond its limits
+	ewma     *method.EWMAChart
+	cusum    *method.CUSUMChart
+}
+
+func allSingles(groups [][]float64) bool {
+	for _, g := range groups {
+		if len(g) > 1 {
+			return false
+		}
+	}
+	return true
+}
+
+// signalSwitches turns the request's switches into the method's settings.
+func signalSwitches(sw map[string]bool) (method.SignalSettings, map[string]bool) {
+	on := map[string]bool{}
+	for _, c := range checkOrder {
+		v, given := sw[c]
+		on[c] = defaultOn[c]
+		if given {
+			on[c] = v
+		}
+	}
+	s := method.DefaultSignalSettings()
+	s.BeyondLimits = on[method.SignalBeyondLimits]
+	s.TwoOfThree = on[method.SignalTwoOfThree]
+	s.FourOfFive = on[method.SignalFourOfFive]
+	s.RunSameSide = on[method.SignalRunSameSide]
+	s.Trend = on[method.SignalTrend]
+	s.Alternating = on[method.SignalAlternating]
+	s.HuggingCentre = on[method.SignalHuggingCentre]
+	s.AvoidCentre = on[method.SignalAvoidCentre]
+	return s, on
+}
+
+// mantissas returns the used readings as integers at the largest number of
+// decimals typed, or exact = false when some reading was not plain decimal
+// text (exponent form) or does not fit.
+func mantissas(cv *colView, w *withinSigma) ([]int64, int, bool) {
+	d := int8(0)
+	for _, c := range w.cells {
+		dc := cv.dec[c]
+		if dc < 0 {
+			return nil, 0, false
+		}
+		d = max(d, dc)
+	}
+	out := make([]int64, len(w.cells))
+	for k, c := range w.cells {
+		m, ok := mantissa(cv.vals[c], d)
+		if !ok {
+			return nil, 0, false
+		}
+		out[k] = m
+	}
+	return out, int(d), true
+}
+
+// exactMean is the mean of the judged readings selected by keep (nil:
+// all): on the decimals as typed when exact (integer sum, one rounding),
+// else a float sum.
+func (b *stabBuild) exactMean(keep func(k int) bool) float64 {
+	if b.exact {
+		var a acc128
+		cnt := int64(0)
+		for k, m := range b.mant {
+			if keep == nil || keep(k) {
+				a.add(m)
+				cnt++
+			}
+		}
+		if cnt > 0 {
+			den := new(big.Int).Exp(big.NewInt(10), big.NewInt(int64(b.scale)), nil)
+			den.Mul(den, big.NewInt(cnt))
+			f, _ := new(big.Rat).SetFrac(a.sum(), den).Float64()
+			return f
+		}
+	}
+	sum, cnt := 0.0, 0
+	for k, x := range b.w.series {
+		if keep == nil || keep(k) {
+			sum += x
+			cnt++
+		}
+	}
+	return sum / float64(cnt)
+}
+
+// diff is |reading j − reading k|, on the decimals as typed when exact.
+func (b *stabBuild) diff(j, k int) float64 {
+	if b.exact {
+		d := b.mant[j] - b.mant[k]
+		if d < 0 {
+			d = -d
+		}
+		return float64(d) / pow10tab[b.scale]
+	}
+	return math.Abs(b.w.series[j] - b.w.series[k])
+}
+
+// individuals builds the individuals and moving range chart.
+func (b *stabBuild) individuals(settings method.SignalSettings) error {
+	cv, w, st := b.cv, b.w, b.st
+	// plotted points: every finite reading in time order, left-out ones too
+	k := 0
+	for i := range cv.inOrder() {
+		x := cv.vals[i]
+		if x != x || math.IsInf(x, 0) {
+			continue
+		}
+		p := stabPoint{row: cv.rows[i], y: x, used: -1}
+		if t, ok := orderKey(cv, i); ok {
+			p.t, p.hasT = t, true
+		}
+		if cv.excludedByUser[cv.rows[i]] {
+			p.leftOut = true
+		} else {
+			p.used = k
+			p.outside = !b.inBase(p.row)
+			b.posOf = append(b.posOf, len(b.pts))
+			k++
+		}
+		b.pts = append(b.pts, p)
+	}
+	b.judged = w.series
+	var base []int
+	if b.opts.Baseline != "" {
+		for j, pos := range b.posOf {
+			if !b.pts[pos].outside {
+				base = append(base, j)
+			}
+		}
+		if len(base) < 2 {
+			return fmt.Errorf("the baseline rows %q hold %d of the readings used: the limits need at least 2 in a row", string(b.opts.Baseline), len(base))
+		}
+	}
+	ch, err := method.Individuals(w.series, method.IndividualsOptions{Median: w.method == WithinMedianMovingRange, Baseline: base})
+	if err != nil {
+		return err
+	}
+	centre := ch.Centre
+	if base == nil {
+		centre = b.exactMean(nil)
+	} else {
+		keep := make([]bool, len(w.series))
+		for _, j := range base {
+			keep[j] = true
+		}
+		centre = b.exactMean(func(k int) bool { return keep[k] })
+	}
+	sigma := ch.Sigma.Sigma
+	if base == nil {
+		sigma = w.est.Sigma // the shared estimate (the same computation)
+	}
+	if !(sigma > 0) {
+		return errors.New("the baseline readings do not vary: no limits can be set from them")
+	}
+	c2, _ := method.Constants(2)
+	st.Chart = &ControlChart{Kind: "individuals", KindRule: ruleIndividuals(), Spread: "moving-range",
+		Centre: centre, Sigma: sigma, SigmaMethod: w.method, SigmaDF: ch.Sigma.DF, SigmaShared: base == nil, Width: 3}
+	if base == nil {
+		st.Chart.SigmaDF = w.est.DF
+	}
+	lim := CtlLimits{From: 1, To: len(b.pts), Lower: centre - 3*sigma, Upper: centre + 3*sigma,
+		SpreadCentre: c2.SmallD2 * sigma, SpreadLower: math.Max(0, c2.SmallD2-3*c2.SmallD3) * sigma, SpreadUpper: (c2.SmallD2 + 3*c2.SmallD3) * sigma}
+	st.Chart.Limits = []CtlLimits{lim}
+	// moving ranges between consecutive used readings, at the second
+	for j := 1; j < len(w.series); j++ {
+		p := &b.pts[b.posOf[j]]
+		p.s, p.hasS = b.diff(j, j-1), true
+		if b.on[method.SignalBeyondLimits] && p.s > lim.SpreadUpper {
+			b.spreadSg = append(b.spreadSg, j)
+		}
+	}
+	b.signals, err = method.Signals(w.series, centre, []float64{sigma}, settings)
+	if err != nil {
+		return err
+	}
+	b.baselineInfo(base, len(w.series))
+	b.ewmaCusum(w.series, centre, sigma, "data")
+	return nil
+}
+
+// subgroups builds the mean chart with its range or SD chart.
+func (b *stabBuild) subgroups(settings method.SignalSettings) error {
+	cv, w, st := b.cv, b.w, b.st
+	b.subgroup = true
+	k := len(w.groups)
+	maxn := 0
+	for _, g := range w.groups {
+		maxn = max(maxn, len(g))
+	}
+	spread := b.opts.ChartSpread
+	rule := ruleSubgroupsChosen(spread)
+	if spread == "" || spread == "auto" {
+		spread = "range"
+		if maxn >= 10 {
+			spread = "sd"
+		}
+		rule = ruleSubgroupsAuto(maxn)
+	}
+	// the subgroup of each used reading, for the baseline and left-out marks
+	var base []int
+	for g := range k {
+		p := stabPoint{row: cv.rows[w.gcells[g][0]], label: w.labels[g], n: len(w.groups[g]), used: g}
+		if t, ok := orderKey(cv, int(w.gcells[g][0])); ok {
+			p.t, p.hasT = t, true
+		}
+		inAll := true
+		for _, c := range w.gcells[g] {
+			if !b.inBase(cv.rows[c]) {
+				inAll = false
+			}
+		}
+		p.outside = !inAll
+		if inAll {
+			base = append(base, g)
+		}
+		b.posOf = append(b.posOf, g)
+		b.pts = append(b.pts, p)
+	}
+	// readings left out by the user: mark their subgroup
+	if len(cv.excludedByUser) > 0 && b.cv.subgroup != nil {
+		idx := map[string]int{}
+		for g, l := range w.labels {
+			idx[l] = g
+		}
+		for i := range cv.inOrder() {
+			if cv.excludedByUser[cv.rows[i]] && !partnerMissing(b.cv.subgroup, i) {
+				if g, ok := idx[b.cv.subgroup.Text(i)]; ok {
+					b.pts[g].leftOut = true
+				}
+			}
+		}
+	}
+	if b.opts.Baseline == "" {
+		base = nil
+	} else if len(base) == 0 {
+		return fmt.Errorf("no subgroup lies wholly in the baseline rows %q: the limits need at least one", string(b.opts.Baseline))
+	}
+	sigma, df := w.est.Sigma, w.est.DF
+	if base != nil {
+		sel := make([][]float64, len(base))
+		for i, g := range base {
+			sel[i] = w.groups[g]
+		}
+		est, err := sigmaOf(w.method, sel)
+		if err != nil {
+			return err
+		}
+		sigma, df = est.Sigma, est.DF
+	}
+	if !(sigma > 0) {
+		return errors.New("the readings do not vary within the baseline subgroups: no limits can be set from them")
+	}
+	// centre: the grand mean of the baseline readings, exact when typed as decimals
+	var centre float64
+	{
+		member := make([]bool, len(w.series))
+		pos := map[int32]int{}
+		for kk, c := range w.cells {
+			pos[c] = kk
+		}
+		for _, g := range baseOrAll(base, k) {
+			for _, c := range w.gcells[g] {
+				member[pos[c]] = true
+			}
+		}
+		centre = b.exactMean(func(kk int) bool { return member[kk] })
+	}
+	st.Chart = &ControlChart{Kind: "mean-" + spread, KindRule: rule, Spread: spread, Centre: centre,
+		Sigma: sigma, SigmaMethod: w.method, SigmaDF: df, SigmaShared: base == nil, Width: 3}
+	means := make([]float64, k)
+	sig := make([]float64, k)
+	z := make([]float64, k)
+	equal := true
+	for g, grp := range w.groups {
+		n := len(grp)
+		if n != len(w.groups[0]) {
+			equal = false
+		}
+		mean, r, sd := groupStats(grp)
+		means[g] = mean
+		sig[g] = sigma / math.Sqrt(float64(n))
+		z[g] = (mean - centre) / sig[g]
+		b.pts[g].y = mean
+		lim := subgroupLimits(n, centre, sigma, spread)
+		if n >= 2 {
+			v := r
+			if spread == "sd" {
+				v = sd
+			}
+			b.pts[g].s, b.pts[g].hasS = v, true
+			if b.on[method.SignalBeyondLimits] && (v > lim.SpreadUpper || v < lim.SpreadLower) {
+				b.spreadSg = append(b.spreadSg, g)
+			}
+		}
+		if last := len(st.Chart.Limits) - 1; last >= 0 && sameLimits(st.Chart.Limits[last], lim) {
+			st.Chart.Limits[last].To = g + 1
+		} else {
+			lim.From, lim.To = g+1, g+1
+			st.Chart.Limits = append(st.Chart.Limits, lim)
+		}
+	}
+	b.judged = means
+	var err error
+	b.signals, err = method.Signals(means, centre, sig, settings)
+	if err != nil {
+		return err
+	}
+	b.baselineInfo(base, k)
+	if equal {
+		b.ewmaCusum(means, centre, sig[0], "data")
+	} else {
+		b.ewmaCusum(z, 0, 1, "standardized")
+	}
+	return nil
+}
+
+func baseOrAll(base []int, k int) []int {
+	if base != nil {
+		return base
+	}
+	out := make([]int, k)
+	for i := range out {
+		out[i] = i
+	}
+	return out
+}
+
+func sameLimits(a, b CtlLimits) bool {
+	return a.Lower == b.Lower && a.Upper == b.Upper && a.SpreadCentre == b.SpreadCentre && a.SpreadLower == b.SpreadLower && a.SpreadUpper == b.SpreadUpper
+}
+
+// sigmaOf applies the shared estimator to the baseline subgroups.
+func sigmaOf(m string, groups [][]float64) (method.SigmaEstimate, error) {
+	switch m {
+	case WithinMeanRange:
+		return method.SigmaRangeBar(groups)
+	case WithinMeanSD:
+		return method.SigmaSBar(groups)
+	}
+	return method.SigmaPooled(groups)
+}
+
+// subgroupLimits are the limits of a subgroup of n readings: the mean at
+// centre ± 3σ/√n; the range at (d2 ∓ 3d3)σ, the SD at (c4 ∓ 3c5)σ, lower
+// limits not below 0 (ASTM E2587; the constants from method.Constants).
+func subgroupLimits(n int, centre, sigma float64, spread string) CtlLimits {
+	hw := 3 * sigma / math.Sqrt(float64(n))
+	l := CtlLimits{Lower: centre - hw, Upper: centre + hw}
+	c, err := method.Constants(n)
+	if err != nil { // a subgroup of one reading has no spread point
+		return l
+	}
+	if spread == "sd" {
+		l.SpreadCentre, l.SpreadLower, l.SpreadUpper = c.C4*sigma, math.Max(0, c.C4-3*c.C5)*sigma, (c.C4+3*c.C5)*sigma
+	} else {
+		l.SpreadCentre, l.SpreadLower, l.SpreadUpper = c.SmallD2*sigma, math.Max(0, c.SmallD2-3*c.SmallD3)*sigma, (c.SmallD2+3*c.SmallD3)*sigma
+	}
+	return l
+}
+
+// groupStats returns the mean, range and SD (n − 1) of one subgroup.
+func groupStats(g []float64) (mean, r, sd float64) {
+	lo, hi, sum := g[0], g[0], 0.0
+	for _, v := range g {
+		sum += v
+		lo, hi = math.Min(lo, v), math.Max(hi, v)
+	}
+	mean = sum / float64(len(g))
+	if len(g) > 1 {
+		ss := 0.0
+		for _, v := range g {
+			ss += (v - mean) * (v - mean)
+		}
+		sd = math.Sqrt(ss / float64(len(g)-1))
+	}
+	return mean, hi - lo, sd
+}
+
+func (b *stabBuild) baselineInfo(base []int, total int) {
+	if b.opts.Baseline == "" {
+		return
+	}
+	first, last := b.posOf[base[0]]+1, b.posOf[base[len(base)-1]]+1
+	b.st.Baseline = &BaselineInfo{Rows: string(b.opts.Baseline), Points: len(base), First: first, Last: last,
+		Text: baselineText(len(base), total, first, last, b.subgroup)}
+}
+
+// ewmaCusum adds the EWMA and CUSUM charts of the judged points.
+func (b *stabBuild) ewmaCusum(x []float64, centre, sigma float64, scale string) {
+	lam, L := orDefault(b.opts.EWMALambda, defaultLambda), orDefault(b.opts.EWMAL, defaultL)
+	k, h := orDefault(b.opts.CUSUMK, defaultK), orDefault(b.opts.CUSUMH, defaultH)
+	if e, err := method.EWMA(x, centre, sigma, lam, L); err == nil {
+		info := &EWMAInfo{Lambda: lam, L: L, Scale: scale, Centre: centre, Sigma: sigma, Beyond: len(e.Beyond), Points: []EWMAPt{}}
+		if a, err := method.EWMAARL(lam, L, 0); err == nil {
+			info.ARL0 = &a
+		}
+		if a, err := method.EWMAARL(lam, L, 1); err == nil {
+			info.ARL1 = &a
+		}
+		b.st.EWMA = info
+		b.ewma = &e
+	}
+	if c, err := method.CUSUM(x, centre, sigma, k, h); err == nil {
+		info := &CUSUMInfo{K: k, H: h, Scale: scale, Centre: centre, Sigma: sigma, Decision: c.Decision, Beyond: len(c.Beyond), Points: []CUSUMPt{}}
+		if a, err := method.CUSUMARL(k, h, 0); err == nil {
+			info.ARL0 = &a.TwoSided
+		}
+		if a, err := method.CUSUMARL(k, h, 1); err == nil {
+			info.ARL1 = &a.TwoSided
+		}
+		b.st.CUSUM = info
+		b.cusum = &c
+	}
+}
+
+// orderKey returns the order column's key of cell i.
+func orderKey(cv *colView, i int) (float64, bool) {
+	if cv.order == nil || partnerMissing(cv.order, i) {
+		return 0, false
+	}
+	return cv.order.Values[i], true
+}
+
+// orderInfo says which order was used, and checks the order column's
+// steps: duplicates, gaps, rows out of order.
+func orderInfo(cv *colView) StabilityOrder {
+	o := StabilityOrder{Source: "rows"}
+	if cv.order == nil {
+		o.Text = orderRowsText()
+		return o
+	}
+	o.Source, o.Column, o.Kind, o.OutOfOrder = "column", cv.order.Name, cv.order.Kind, cv.outOfOrder
+	var keys []float64
+	var rows []int32
+	for i := range cv.inOrder() {
+		x := cv.vals[i]
+		if x != x || math.IsInf(x, 0) {
+			continue
+		}
+		if t, ok := orderKey(cv, i); ok {
+			keys = append(keys, t)
+			rows = append(rows, cv.rows[i])
+		}
+	}
+	var steps []float64
+	for i := 1; i < len(keys); i++ {
+		d := keys[i] - keys[i-1]
+		if d == 0 {
+			o.Duplicates++
+		} else {
+			steps = append(steps, d)
+		}
+	}
+	if len(steps) >= 2 {
+		s := slices.Clone(steps)
+		med := quickMedian(s)
+		o.MedianStep = med
+		for i := 1; i < len(keys); i++ {
+			if d := keys[i] - keys[i-1]; d > gapFactor*med {
+				o.GapCount++
+				if len(o.Gaps) < maxGapsListed {
+					o.Gaps = append(o.Gaps, GapInfo{AfterRow: int(rows[i-1]), BeforeRow: int(rows[i]), Step: d})
+				}
+			}
+		}
+	}
+	o.Text = orderColumnText(o)
+	return o
+}
+
+// quickMedian returns the median of s (reordered), by selection.
+func quickMedian(s []float64) float64 {
+	n := len(s)
+	sortFloats(s)
+	if n%2 == 1 {
+		return s[n/2]
+	}
+	return (s[n/2-1] + s[n/2]) / 2
+}
+
+// drift runs the drift tests and the change point on the readings in
+// time order.
+func (b *stabBuild) drift() {
+	w := b.w
+	n := len(w.series)
+	d := &DriftInfo{Readings: n, Exact: b.exact}
+	unit := 1.0
+	if b.exact {
+		unit = 1 / pow10tab[b.scale]
+	} else {
+		b.notes = append(b.notes, Note{Field: "stability.drift", Text: noteNotExact()})
+	}
+	if a, err := method.Lag1Autocorrelation(w.series); err == nil {
+		d.Autocorrelation = &AutocorrInfo{R1: a.R1, Q: a.Q, P: a.P, Strong: a.R1 > strongAutocorr && a.P < driftAlpha}
+	} else {
+		b.notes = append(b.notes, Note{Field: "stability.drift.autocorrelation", Text: err.Error()})
+	}
+	var rt method.RunsTest
+	var mk method.MannKendall
+	var cp method.ChangePoint
+	var errR, errM, errC error
+	if b.exact {
+		rt, errR = method.RunsAboutMedian(b.mant)
+		mk, errM = method.MannKendallTest(b.mant)
+		cp, errC = method.PettittChange(b.mant)
+	} else {
+		rt, errR = method.RunsAboutMedian(w.series)
+		mk, errM = method.MannKendallTest(w.series)
+		cp, errC = method.PettittChange(w.series)
+	}
+	if errR == nil {
+		med := rt.Median * unit
+		if b.exact {
+			// the middle of two mantissas, correctly rounded
+			med, _ = new(big.Rat).SetFrac(big.NewInt(int64(rt.Median*2)), new(big.Int).Mul(big.NewInt(2), new(big.Int).Exp(big.NewInt(10), big.NewInt(int64(b.scale)), nil))).Float64()
+		}
+		d.Runs = &RunsInfo{Median: med, Above: rt.Above, Below: rt.Below, OnMedian: rt.OnMedian, Runs: rt.Runs,
+			Expected: rt.Expected, Z: rt.Z, P: rt.P, Exact: rt.Exact, Longest: rt.Longest, LongestSide: rt.LongestSide,
+			LongestFirst: int(b.cv.rows[w.cells[rt.LongestFirst]]), LongestLast: int(b.cv.rows[w.cells[rt.LongestLast]])}
+	} else {
+		b.notes = append(b.notes, Note{Field: "stability.drift.runs", Text: errR.Error()})
+	}
+	if errM == nil {
+		d.Trend = &TrendInfo{S: mk.S, VarS: mk.VarS, Z: mk.Z, P: mk.P, Tau: mk.Tau, TieGroups: mk.TieGroups}
+	} else {
+		b.notes = append(b.notes, Note{Field: "stability.drift.trend", Text: errM.Error()})
+	}
+	every := 1
+	if n > senMax {
+		every = (n + senMax - 1) / senMax
+	}
+	var sen method.SenSlope
+	var errS error
+	if b.exact {
+		sen, errS = method.SenSlopeEstimate(everyKth(b.mant, every), b.opts.Confidence)
+	} else {
+		sen, errS = method.SenSlopeEstimate(everyKth(w.series, every), b.opts.Confidence)
+	}
+	if errS == nil {
+		f := unit / float64(every)
+		d.Slope = &SlopeInfo{Slope: sen.Slope * f, Lower: sen.Lower * f, Upper: sen.Upper * f, Confidence: sen.Confidence,
+			Intercept: sen.Intercept * unit, Every: every, Used: sen.N}
+		if every > 1 {
+			b.notes = append(b.notes, Note{Field: "stability.drift.slope", Text: noteSenThinned(n, every, sen.N)})
+		}
+	} else {
+		b.notes = append(b.notes, Note{Field: "stability.drift.slope", Text: errS.Error()})
+	}
+	b.st.Drift = d
+	if errC == nil {
+		c := &ChangeInfo{Statistic: cp.Statistic, P: cp.P, MeanBefore: cp.MeanBefore * unit, MeanAfter: cp.MeanAfter * unit, Found: cp.P < driftAlpha}
+		c.Shift = c.MeanAfter - c.MeanBefore
+		cell := w.cells[cp.Index]
+		c.Row = int(b.cv.rows[cell])
+		if b.subgroup {
+			for g, cs := range w.gcells {
+				if slices.Contains(cs, cell) {
+					c.Position, c.Subgroup = g+1, w.labels[g]
+					break
+				}
+			}
+		} else {
+			c.Position = b.posOf[cp.Index] + 1
+		}
+		if c.Position > 0 {
+			b.st.Change = c
+		}
+	} else {
+		b.notes = append(b.notes, Note{Field: "stability.changePoint", Text: errC.Error()})
+	}
+}
+
+func everyKth[T int64 | float64](x []T, k int) []T {
+	if k <= 1 {
+		return x
+	}
+	out := make([]T, 0, len(x)/k+1)
+	for i := 0; i < len(x); i += k {
+		out = append(out, x[i])
+	}
+	return out
+}
+
+// finishChart lists the signals with their rows, marks the points and
+// thins long charts.
+func (b *stabBuild) finishChart() {
+	st := b.st
+	counts := map[string]int{}
+	total := 0
+	add := func(si SignalInfo, judgedIdx []int) {
+		counts[si.Code]++
+		total++
+		for _, j := range judgedIdx {
+			p := &b.pts[b.posOf[j]]
+			if !slices.Contains(p.flags, si.Code) {
+				p.flags = append(p.flags, si.Code)
+			}
+		}
+		if len(st.Signals) >= maxSignalsListed {
+			st.SignalsCut = true
+			return
+		}
+		si.Points = len(judgedIdx)
+		for _, j := range judgedIdx[:min(len(judgedIdx), maxSignalRows)] {
+			p := b.pts[b.posOf[j]]
+			if b.subgroup {
+				si.Subgroups = append(si.Subgroups, p.label)
+			} else {
+				si.Rows = append(si.Rows, int(p.row))
+			}
+		}
+		si.Text = signalText(si, b.subgroup)
+		st.Signals = append(st.Signals, si)
+	}
+	span := func(code, chart string, side int, idx []int) SignalInfo {
+		return SignalInfo{Code: code, Chart: chart, Side: side, First: b.posOf[idx[0]] + 1, Last: b.posOf[idx[len(idx)-1]] + 1}
+	}
+	for _, s := range b.signals {
+		idx := s.Indices()
+		add(span(s.Rule, "values", s.Side, idx), idx)
+	}
+	for _, j := range b.spreadSg {
+		idx := []int{j}
+		if !b.subgroup {
+			idx = []int{j - 1, j} // a moving range is made by two readings
+		}
+		si := span(SignalSpreadBeyond, "spread", 0, idx)
+		add(si, idx)
+	}
+	if b.ewma != nil && b.on[SignalEWMA] {
+		for _, run := range runsOf(b.ewma.Beyond) {
+			side := 1
+			if b.ewma.Z[run[0]] < b.ewma.Centre {
+				side = -1
+			}
+			add(span(SignalEWMA, "ewma", side, run), run)
+		}
+	}
+	if b.cusum != nil && b.on[SignalCUSUM] {
+		for _, run := range runsOf(b.cusum.Beyond) {
+			side, cnt := 1, int(b.cusum.UpperCount[run[0]])
+			if b.cusum.Upper[run[0]] <= b.cusum.Decision {
+				side, cnt = -1, int(b.cusum.LowerCount[run[0]])
+			}
+			// the shift began about the point after the sum was last zero
+			start := max(0, run[0]-cnt+1)
+			idx := run
+			if start < run[0] {
+				idx = append([]int{start}, run...)
+			}
+			add(span(SignalCUSUM, "cusum", side, idx), idx)
+		}
+	}
+	for _, c := range checkOrder {
+		cnt := counts[c]
+		if c == method.SignalBeyondLimits {
+			cnt += counts[SignalSpreadBeyond]
+		}
+		st.Checks = append(st.Checks, CheckInfo{Code: c, Name: checkName(c), On: b.on[c], Count: cnt, Text: checkText(c)})
+	}
+	if st.SignalsCut {
+		b.notes = append(b.notes, Note{Field: "stability.signals", Text: noteSignalsCut(total, maxSignalsListed)})
+	}
+	// points, thinned when long
+	ch := st.Chart
+	ch.Count = len(b.pts)
+	ch.TimeAxis = b.cv.order != nil && b.cv.order.Kind == "time"
+	keep := thinPoints(b.pts, maxChartPoints)
+	ch.Thinned = keep != nil
+	ch.Points = make([]CtlPoint, 0, min(len(b.pts), 2*maxChartPoints))
+	for i, p := range b.pts {
+		if keep != nil && !keep[i] {
+			continue
+		}
+		cp := CtlPoint{I: i + 1, Row: int(p.row), Label: p.label, N: p.n, Y: p.y, LeftOut: p.leftOut, Outside: p.outside, Flags: p.flags}
+		if p.hasS {
+			v := p.s
+			cp.S = &v
+		}
+		if p.hasT {
+			v := p.t
+			cp.T = &v
+		}
+		ch.Points = append(ch.Points, cp)
+	}
+	for j := range b.judged {
+		pos := b.posOf[j]
+		if keep != nil && !keep[pos] {
+			continue
+		}
+		if b.ewma != nil {
+			lo, hi := b.ewma.Limits(j)
+			st.EWMA.Points = append(st.EWMA.Points, EWMAPt{I: pos + 1, Z: b.ewma.Z[j], Lo: lo, Hi: hi})
+		}
+		if b.cusum != nil {
+			st.CUSUM.Points = append(st.CUSUM.Points, CUSUMPt{I: pos + 1, Up: b.cusum.Upper[j], Down: b.cusum.Lower[j]})
+		}
+	}
+}
+
+// runsOf splits ascending indices into runs of consecutive ones.
+func runsOf(idx []int) [][]int {
+	var out [][]int
+	for i := 0; i < len(idx); {
+		j := i + 1
+		for j < len(idx) && idx[j] == idx[j-1]+1 {
+			j++
+		}
+		out = append(out, idx[i:j])
+		i = j
+	}
+	return out
+}
+
+// thinPoints selects at most about 2·limit points for drawing: the lowest
+// and highest of each of limit/2 blocks, every point with a signal and
+// every reading left out (each up to limit more). nil keeps all.
+func thinPoints(pts []stabPoint, limit int) []bool {
+	n := len(pts)
+	if n <= limit {
+		return nil
+	}
+	keep := make([]bool, n)
+	blocks := limit / 2
+	for k := 0; k < blocks; k++ {
+		a, bnd := k*n/blocks, (k+1)*n/blocks
+		lo, hi := a, a
+		for i := a; i < bnd; i++ {
+			if pts[i].y < pts[lo].y {
+				lo = i
+			}
+			if pts[i].y > pts[hi].y {
+				hi = i
+			}
+		}
+		keep[lo], keep[hi] = true, true
+	}
+	flagged, left := 0, 0
+	for i, p := range pts {
+		if len(p.flags) > 0 && flagged < limit {
+			keep[i] = true
+			flagged++
+		}
+		if p.leftOut && left < limit {
+			keep[i] = true
+			left++
+		}
+	}
+	return keep
+}
+
+// verdict decides Stable and writes the lead sentence.
+func (b *stabBuild) verdict() {
+	st := b.st
+	nSig := len(st.Signals)
+	if st.SignalsCut {
+		nSig = 0
+		for _, c := range st.Checks {
+			nSig += c.Count
+		}
+	}
+	var chartN, ewmaN, cusumN int
+	for _, c := range st.Checks {
+		switch c.Code {
+		case SignalEWMA:
+			ewmaN = c.Count
+		case SignalCUSUM:
+			cusumN = c.Count
+		default:
+			chartN += c.Count
+		}
+	}
+	trend := st.Drift != nil && st.Drift.Trend != nil && st.Drift.Trend.P < driftAlpha
+	change := st.Change != nil && st.Change.Found
+	st.Stable = chartN == 0 && ewmaN == 0 && cusumN == 0 && !trend && !change
+	f := b.numFmt()
+	what := b.countWords()
+	if chartN > 0 {
+		first := firstSignal(st.Signals, "values", "spread")
+		st.Reasons = append(st.Reasons, Reason{Code: "signals", Text: reasonSignals(chartN, first, b.subgroup), Vals: map[string]float64{"count": float64(chartN)}})
+	}
+	if ewmaN > 0 {
+		st.Reasons = append(st.Reasons, Reason{Code: "ewma", Text: reasonEWMA(ewmaN, firstSignal(st.Signals, "ewma"), b.subgroup), Vals: map[string]float64{"count": float64(ewmaN)}})
+	}
+	if cusumN > 0 {
+		st.Reasons = append(st.Reasons, Reason{Code: "cusum", Text: reasonCUSUM(cusumN, firstSignal(st.Signals, "cusum"), b.subgroup), Vals: map[string]float64{"count": float64(cusumN)}})
+	}
+	if trend {
+		t := st.Drift.Trend
+		st.Reasons = append(st.Reasons, Reason{Code: "trend", Text: reasonTrend(t, st.Drift.Slope, f), Vals: map[string]float64{"p": t.P, "tau": t.Tau}})
+	}
+	if change {
+		c := st.Change
+		st.Reasons = append(st.Reasons, Reason{Code: "change-point", Text: reasonChange(c, b.subgroup, f), Vals: map[string]float64{"p": c.P, "shift": c.Shift}})
+	}
+	if st.Stable {
+		st.Reasons = append(st.Reasons, Reason{Code: "no-signal", Text: reasonNoSignal(), Vals: map[string]float64{"points": float64(st.Chart.Count)}})
+	}
+	if a := st.Drift.Autocorrelation; a != nil && a.Strong {
+		st.Warnings = append(st.Warnings, Reason{Code: "autocorrelation", Text: warnAutocorr(a.R1, a.P), Vals: map[string]float64{"r1": a.R1, "p": a.P}})
+	}
+	if st.Order.GapCount > 0 {
+		st.Warnings = append(st.Warnings, Reason{Code: "gaps", Text: warnGaps(st.Order), Vals: map[string]float64{"count": float64(st.Order.GapCount)}})
+	}
+	if st.Order.OutOfOrder > 0 {
+		st.Warnings = append(st.Warnings, Reason{Code: "out-of-order", Text: warnOutOfOrder(st.Order), Vals: map[string]float64{"count": float64(st.Order.OutOfOrder)}})
+	}
+	var lead string
+	switch {
+	case st.Stable:
+		lead = leadStable(what)
+	case change && (chartN > 0 || ewmaN > 0 || cusumN > 0 || !trend):
+		lead = leadShift(st.Change, b.subgroup, f)
+	case trend && st.Drift.Slope != nil:
+		lead = leadDrift(st.Drift.Slope, f)
+	default:
+		lead = leadSignals(nSig, firstSignal(st.Signals, "values", "spread", "ewma", "cusum"), b.subgroup)
+	}
+	if st.Baseline != nil {
+		lead += "; " + st.Baseline.Text
+	}
+	st.Verdict = lead
+}
+
+func firstSignal(list []SignalInfo, charts ...string) *SignalInfo {
+	var best *SignalInfo
+	for i := range list {
+		if slices.Contains(charts, list[i].Chart) && (best == nil || list[i].First < best.First) {
+			best = &list[i]
+		}
+	}
+	return best
+}
+
+// wordFmt writes data values in sentences: to the data's decimals (plus
+// extra), with the column's decimal mark and unit.
+type wordFmt struct {
+	dec   int
+	comma bool
+	unit  string
+}
+
+func (b *stabBuild) numFmt() wordFmt {
+	d := b.scale
+	if !b.exact {
+		d = 3
+	}
+	return wordFmt{dec: d, comma: b.cv.decimalComma, unit: b.cv.unit}
+}
+
+func (f wordFmt) num(x float64, extra int) string {
+	s := fmtFixed(x, min(15, f.dec+extra))
+	if f.comma {
+		s = strings.Replace(s, ".", ",", 1)
+	}
+	return s
+}
+
+func (f wordFmt) signed(x float64, extra int) string {
+	s := f.num(x, extra)
+	if x > 0 {
+		s = "+" + s
+	}
+	if f.unit != "" {
+		s += " " + f.unit
+	}
+	return s
+}
+
+func (b *stabBuild) countWords() string {
+	if b.subgroup {
+		return fmt.Sprintf("%d subgroups (%d readings)", len(b.w.groups), len(b.w.series))
+	}
+	return fmt.Sprintf("%d readings", len(b.w.series))
+}
+
+// ---------- words (to move into words.go) ----------
+
+func ruleIndividuals() string {
+	return "Individual readings (no subgroup column): an individuals chart with the moving range of consecutive readings."
+}
+
+func ruleSubgroupsAuto(maxn int) string {
+	if maxn >= 10 {
+		return fmt.Sprintf("Subgroups of up to %d readings: mean and standard deviation chart (from 10 readings a subgroup the SD is the more efficient measure of spread).", maxn)
+	}
+	return fmt.Sprintf("Subgroups of up to %d readings: mean and range chart (below 10 readings a subgroup the range loses little against the SD).", maxn)
+}
+
+func ruleSubgroupsChosen(spread string) string {
+	if spread == "sd" {
+		return "Mean and standard deviation chart, as chosen in the settings."
+	}
+	return "Mean and range chart, as chosen in the settings."
+}
+
+func noteAllSingles() string {
+	return "every subgroup holds one reading: the readings are charted as individuals with moving ranges"
+}
+
+func noteNotExact() string {
+	return "some readings are not plain decimals (exponent form): ties and sides of the median in the drift tests were decided on binary values"
+}
+
+func noteSenThinned(n, every, used int) string {
+	return fmt.Sprintf("Sen's slope forms every pair of readings, which is too many for %d readings: it was computed from every %d-th reading (%d readings) and scaled to a slope per reading", n, every, used)
+}
+
+func noteSignalsCut(total, listed int) string {
+	return fmt.Sprintf("%d signals were found; the first %d are listed (the checks give the full counts)", total, listed)
+}
+
+func verdictTooFew(n int) string {
+	return fmt.Sprintf("Stability not judged: %d readings in time order, and control limits need at least 3", n)
+}
+
+func verdictNoSpread(err error) string {
+	return "Stability not judged: " + err.Error()
+}
+
+func cautionNotJudged() string {
+	return "Stability over time could not be judged, so capability describes this batch, not the process."
+}
+
+func cautionNotStable(verdict string) string {
+	return "The process was not stable over time (" + verdict + "): capability describes this batch, not the process."
+}
+
+func baselineText(points, total, first, last int, subgroup bool) string {
+	what := "readings"
+	if subgroup {
+		what = "subgroups"
+	}
+	if points == last-first+1 {
+		return fmt.Sprintf("limits set from %s %d-%d", what, first, last)
+	}
+	return fmt.Sprintf("limits set from %d of the %d %s (%d to %d)", points, total, what, first, last)
+}
+
+func orderRowsText() string {
+	return "In the order of the rows (no order or time column chosen)."
+}
+
+func orderColumnText(o StabilityOrder) string {
+	s := fmt.Sprintf("In the order of column %q", o.Column)
+	if o.Kind == "time" {
+		s += " (times)"
+	}
+	s += "."
+	if o.OutOfOrder > 0 {
+		s += fmt.Sprintf(" %d rows are not in that order in the file; the readings were put in order.", o.OutOfOrder)
+	}
+	if o.Duplicates > 0 {
+		s += fmt.Sprintf(" %d readings share their %s with the one before (kept in row order).", o.Duplicates, map[bool]string{true: "time", false: "order value"}[o.Kind == "time"])
+	}
+	if o.GapCount > 0 {
+		s += fmt.Sprintf(" %d gaps: steps more than %d times the usual step of %s.", o.GapCount, gapFactor, stepText(o.MedianStep, o.Kind))
+	}
+	return s
+}
+
+func stepText(s float64, kind string) string {
+	if kind != "time" {
+		return g3(s)
+	}
+	switch {
+	case s >= 86400:
+		return g3(s/86400) + " days"
+	case s >= 3600:
+		return g3(s/3600) + " h"
+	case s >= 60:
+		return g3(s/60) + " min"
+	}
+	return g3(s) + " s"
+}
+
+// checkName and checkText are the checks in our own words.
+func checkName(code string) string {
+	return map[string]string{
+		method.SignalBeyondLimits:  "Beyond a limit",
+		method.SignalTwoOfThree:    "Two of three far out",
+		method.SignalFourOfFive:    "Four of five out on one side",
+		method.SignalRunSameSide:   "Long run on one side",
+		method.SignalTrend:         "Steady climb or fall",
+		method.SignalAlternating:   "Saw-tooth",
+		method.SignalHuggingCentre: "Crowding the centre",
+		method.SignalAvoidCentre:   "Avoiding the centre",
+		SignalEWMA:                 "EWMA beyond its limits",
+		SignalCUSUM:                "CUSUM beyond its decision interval",
+		SignalSpreadBeyond:         "Spread beyond its limits",
+	}[code]
+}
+
+func checkText(code string) string {
+	return map[string]string{
+		method.SignalBeyondLimits:  "a point outside the control limits (3 sigma); on the spread chart, a spread outside its limits",
+		method.SignalTwoOfThree:    "two of three points in a row more than 2 sigma from the centre, on the same side",
+		method.SignalFourOfFive:    "four of five points in a row more than 1 sigma from the centre, on the same side",
+		method.SignalRunSameSide:   "nine or more points in a row on the same side of the centre line",
+		method.SignalTrend:         "six or more points in a row, each higher (or each lower) than the one before",
+		method.SignalAlternating:   "fourteen or more points in a row going up and down in turn",
+		method.SignalHuggingCentre: "fifteen or more points in a row within 1 sigma of the centre (limits too wide, or mixed streams)",
+		method.SignalAvoidCentre:   "eight or more points in a row more than 1 sigma from the centre, on both sides (two streams mixed)",
+		SignalEWMA:                 "the exponentially weighted average outside its limits: a small sustained shift",
+		SignalCUSUM:                "a cumulative sum of deviations beyond its decision interval: a small sustained shift",
+	}[code]
+}
+
+func sideWord(side int) string {
+	switch side {
+	case 1:
+		return " (upward)"
+	case -1:
+		return " (downward)"
+	}
+	return ""
+}
+
+func signalText(s SignalInfo, subgroup bool) string {
+	what, where := "reading", ""
+	if subgroup {
+		what = "subgroup"
+	}
+	if s.First == s.Last {
+		where = fmt.Sprintf("%s %d", what, s.First)
+	} else {
+		where = fmt.Sprintf("%ss %d-%d", what, s.First, s.Last)
+	}
+	by := ""
+	if len(s.Rows) > 0 {
+		by = " (" + plural(s.Points, "row ", "rows ") + joinInts(s.Rows, s.Points) + ")"
+	} else if len(s.Subgroups) > 0 {
+		by = " (" + plural(s.Points, "subgroup ", "subgroups ") + joinStrings(s.Subgroups, s.Points) + ")"
+	}
+	return checkName(s.Code) + sideWord(s.Side) + ": " + where + by
+}
+
+func joinInts(v []int, total int) string {
+	parts := make([]string, len(v))
+	for i, x := range v {
+		parts[i] = strconv.Itoa(x)
+	}
+	return joinStrings(parts, total)
+}
+
+func joinStrings(v []string, total int) string {
+	s := strings.Join(v, ", ")
+	if total > len(v) {
+		s += fmt.Sprintf(" and %d more", total-len(v))
+	}
+	return s
+}
+
+func reasonSignals(n int, first *SignalInfo, subgroup bool) string {
+	s := fmt.Sprintf("%d %s on the control chart", n, plural(n, "signal", "signals"))
+	if first != nil {
+		s += "; the first: " + first.Text
+	}
+	return s
+}
+
+func reasonEWMA(n int, first *SignalInfo, subgroup bool) string {
+	s := fmt.Sprintf("the EWMA left its limits %d %s", n, plural(n, "time", "times"))
+	if first != nil {
+		s += ", first " + first.Text
+	}
+	return s
+}
+
+func reasonCUSUM(n int, first *SignalInfo, subgroup bool) string {
+	s := fmt.Sprintf("the CUSUM crossed its decision interval %d %s", n, plural(n, "time", "times"))
+	if first != nil {
+		s += ", first " + first.Text
+	}
+	return s
+}
+
+func reasonTrend(t *TrendInfo, sl *SlopeInfo, f wordFmt) string {
+	dir := "upward"
+	if t.S < 0 {
+		dir = "downward"
+	}
+	s := fmt.Sprintf("a %s trend (Mann-Kendall %s)", dir, pText(t.P))
+	if sl != nil {
+		s += ", about " + f.signed(sl.Slope, 2) + " per reading (Sen's slope)"
+	}
+	return s
+}
+
+func reasonChange(c *ChangeInfo, subgroup bool, f wordFmt) string {
+	at := fmt.Sprintf("reading %d (row %d)", c.Position, c.Row)
+	if subgroup {
+		at = fmt.Sprintf("subgroup %d (%s)", c.Position, c.Subgroup)
+	}
+	return fmt.Sprintf("the level changed at %s: mean %s before, %s after (Pettitt %s)", at, f.num(c.MeanBefore, 1), f.num(c.MeanAfter, 1), pText(c.P))
+}
+
+func reasonNoSignal() string {
+	return "no point beyond the limits, no run or pattern among the checks switched on, no EWMA or CUSUM alarm, no trend and no change point"
+}
+
+func warnAutocorr(r1, p float64) string {
+	return fmt.Sprintf("Consecutive readings are correlated (lag-1 autocorrelation %s, %s): limits from moving ranges are then too narrow and signal too often; sample less often or model the drift.", g3(r1), pText(p))
+}
+
+func warnGaps(o StabilityOrder) string {
+	return fmt.Sprintf("%d %s in the order column (steps more than %d times the usual %s): the process may have been stopped or changed there.", o.GapCount, plural(o.GapCount, "gap", "gaps"), gapFactor, stepText(o.MedianStep, o.Kind))
+}
+
+func warnOutOfOrder(o StabilityOrder) string {
+	return fmt.Sprintf("%d rows are out of order in the file; the chart follows column %q.", o.OutOfOrder, o.Column)
+}
+
+func leadStable(what string) string {
+	return "Stable over the " + what + ": no signal"
+}
+
+func leadShift(c *ChangeInfo, subgroup bool, f wordFmt) string {
+	dir := "upward"
+	if c.Shift < 0 {
+		dir = "downward"
+	}
+	at := fmt.Sprintf("reading %d", c.Position)
+	if subgroup {
+		at = fmt.Sprintf("subgroup %d (%s)", c.Position, c.Subgroup)
+	}
+	return fmt.Sprintf("Shift %s from %s (about %s)", dir, at, f.signed(c.Shift, 1))
+}
+
+func leadDrift(sl *SlopeInfo, f wordFmt) string {
+	dir := "upward"
+	if sl.Slope < 0 {
+		dir = "downward"
+	}
+	return fmt.Sprintf("Drifting %s: about %s per reading", dir, f.signed(sl.Slope, 2))
+}
+
+func leadSignals(n int, first *SignalInfo, subgroup bool) string {
+	s := fmt.Sprintf("Not stable: %d %s", n, plural(n, "signal", "signals"))
+	if first != nil {
+		s += "; the first: " + first.Text
+	}
+	return s
+}
