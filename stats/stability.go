@@ -10,6 +10,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"sync"
 
 	"lotlens/stats/ingest"
 	"lotlens/stats/method"
@@ -966,23 +967,15 @@ func (b *stabBuild) ewmaCusum(x []float64, centre, sigma float64, scale string) 
 	k, h := orDefault(b.opts.CUSUMK, defaultK), orDefault(b.opts.CUSUMH, defaultH)
 	if e, err := method.EWMA(x, centre, sigma, lam, L); err == nil {
 		info := &EWMAInfo{Lambda: lam, L: L, Scale: scale, Centre: centre, Sigma: sigma, Beyond: len(e.Beyond), Points: []EWMAPt{}}
-		if a, err := method.EWMAARL(lam, L, 0); err == nil {
-			info.ARL0 = &a
-		}
-		if a, err := method.EWMAARL(lam, L, 1); err == nil {
-			info.ARL1 = &a
-		}
+		info.ARL0 = cachedARL("ewma", lam, L, 0)
+		info.ARL1 = cachedARL("ewma", lam, L, 1)
 		b.st.EWMA = info
 		b.ewma = &e
 	}
 	if c, err := method.CUSUM(x, centre, sigma, k, h); err == nil {
 		info := &CUSUMInfo{K: k, H: h, Scale: scale, Centre: centre, Sigma: sigma, Decision: c.Decision, Beyond: len(c.Beyond), Points: []CUSUMPt{}}
-		if a, err := method.CUSUMARL(k, h, 0); err == nil {
-			info.ARL0 = &a.TwoSided
-		}
-		if a, err := method.CUSUMARL(k, h, 1); err == nil {
-			info.ARL1 = &a.TwoSided
-		}
+		info.ARL0 = cachedARL("cusum", k, h, 0)
+		info.ARL1 = cachedARL("cusum", k, h, 1)
 		b.st.CUSUM = info
 		b.cusum = &c
 	}
@@ -1447,6 +1440,49 @@ func (b *stabBuild) countWords() string {
 		return fmt.Sprintf("%d subgroups (%d readings)", len(b.w.groups), len(b.w.series))
 	}
 	return fmt.Sprintf("%d readings", len(b.w.series))
+}
+
+// arlCache keeps the run lengths by chart and settings: each is a linear
+// solve of 301 states (tens of milliseconds), and the page re-runs the
+// analysis on every change of a setting.
+var (
+	arlMu    sync.Mutex
+	arlCache = map[[4]float64]*float64{}
+)
+
+func cachedARL(chart string, a, b, shift float64) *float64 {
+	key := [4]float64{a, b, shift, 0}
+	if chart == "cusum" {
+		key[3] = 1
+	}
+	arlMu.Lock()
+	v, ok := arlCache[key]
+	arlMu.Unlock()
+	if ok {
+		return v
+	}
+	var r float64
+	var err error
+	if chart == "cusum" {
+		var c method.CUSUMRunLength
+		c, err = method.CUSUMARL(a, b, shift)
+		r = c.TwoSided
+	} else {
+		r, err = method.EWMAARL(a, b, shift)
+	}
+	if err != nil || math.IsInf(r, 0) || r != r {
+		v = nil
+	} else {
+		v = &r
+	}
+	arlMu.Lock()
+	arlCache[key] = v
+	arlMu.Unlock()
+	if v == nil {
+		return nil
+	}
+	c := *v
+	return &c
 }
 
 // ---------- words (to move into words.go) ----------
