@@ -103,7 +103,7 @@ func Control(r *stats.Report) string {
 			}
 		}
 		if float64(b.Last)+0.5 < x1 {
-			c.text(xs.at(float64(b.Last)+0.5)-4, top0+12, "end", "baseline-label", "← limits set here")
+			c.text(xs.at(float64(b.Last)+0.5)-4, top1+18, "end", "baseline-label", "← limits set here")
 		}
 	}
 	// the trace and points
