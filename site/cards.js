@@ -4,6 +4,7 @@
 import { $, state, actions } from "./state.js";
 import { fmt, fmtP, pct, unit, comma, el, num, withUnit, helpLinks, table, intervalText, missing, quoteIsMedian, settingsLines, sourceText } from "./dom.js";
 import { download, fileBase, downloadProblems } from "./export.js";
+import { overTimeCard } from "./card-overtime.js";
 
 // ---------- charts ----------
 // The engine's SVG text is parsed by the HTML parser of an inert
@@ -367,15 +368,7 @@ function specCard(rep) {
   return card(empty ? "spec placeholder" : "spec", "Against the spec", ...kids);
 }
 
-function timeCard(rep) {
-  const kids = [chartFigure("run", "Run chart: values in data order with the median; flagged readings marked.")];
-  kids.push(el("p", { class: "why", text: "Values in the order they were recorded show drifts, steps and cycles that the histogram hides. Long runs on one side of the median suggest the process moved." }));
-  kids.push(el("p", { class: "needs", text: state.cols.order
-    ? "Stability checks over the chosen order column (control limits, run rules) are not computed in this version; the run chart uses data order."
-    : "For control limits and run rules over time, choose an order or time column under Columns (the chart above uses the order of the rows)." }));
-  kids.push(helpLinks([["run-chart", "run chart"]]));
-  return card("time", "Over time", ...kids);
-}
+function timeCard(rep) { return overTimeCard(rep, card, chartFigure); }
 
 function groupsCard(rep) {
   return card("groups placeholder", "Groups",

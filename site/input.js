@@ -5,6 +5,7 @@ import { parseNum } from "./dom.js";
 import { call, whenReady, restartEngine, cancelRead } from "./engine-client.js";
 import { render } from "./cards.js";
 import { readShareLink } from "./share.js";
+import { fillOverTimeSettings, readOverTimeSettings, restoreOverTimeSettings } from "./card-overtime.js";
 
 const data = $("data");
 function resetForNewData() {
@@ -42,6 +43,7 @@ export function readSettings() {
       $("leave-out").setAttribute("aria-invalid", "true");
     }
   }
+  readOverTimeSettings(o, errs);
   const u = $("unit").value.trim();
   if (u) o.unit = u;
   if (state.exclude.size) o.exclude = Array.from(state.exclude).sort((a, b) => a - b);
@@ -234,6 +236,7 @@ export async function restoreFromHash() {
   if (o.confidence) $("confidence").value = String(o.confidence);
   if (o.quantile) $("quantile").value = o.quantile;
   $("decimal-mark").value = o.decimalMark || "";
+  restoreOverTimeSettings(o);
   state.source = "text"; state.text = p.text; state.file = null;
   state.exclude = new Set(o.exclude || []);
   state.leaveOutRows = []; state.leaveOutText = ""; $("leave-out").value = "";
@@ -322,6 +325,7 @@ for (const id of ["unit", "target", "lsl", "usl", "leave-out"]) $(id).addEventLi
   settingsTimer = setTimeout(() => { if (state.source) analyseNow(); }, 400);
 });
 for (const id of ["confidence", "quantile", "decimal-mark"]) $(id).addEventListener("change", () => { if (state.source) analyseNow(); });
+fillOverTimeSettings(() => { clearTimeout(settingsTimer); settingsTimer = setTimeout(() => { if (state.source) analyseNow(); }, 400); });
 $("precision").addEventListener("change", (ev) => { state.full = ev.target.checked; if (state.report) render(); });
 
 
