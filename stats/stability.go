@@ -338,9 +338,11 @@ const (
 	// step is a gap (common practice).
 	gapFactor = 5
 	// senMax: Sen's slope forms every pairwise slope; above this many
-	// readings it is computed from every k-th reading (stats/method
-	// limits it to 2000).
+	// readings (stats/method limits it to 2000) it is computed from every
+	// k-th reading, k chosen so that at most senSub readings remain (the
+	// sorting of their half million slopes stays quick).
 	senMax = 2000
+	senSub = 1000
 	// maxSignalsListed and maxSignalRows bound the listing; the checks
 	// count every signal.
 	maxSignalsListed = 200
@@ -477,19 +479,17 @@ func orDefault(v, d float64) float64 {
 }
 
 // stabPoint is one plotted reading or subgroup while the section is built.
+// It is kept small (one per reading on long series): a subgroup's label is
+// w.labels at its index, and the signal codes of a point are in
+// stabBuild.flags.
 type stabPoint struct {
-	row     int32
-	label   string
-	n       int
-	y       float64
-	s       float64
-	hasS    bool
-	t       float64
-	hasT    bool
-	leftOut bool
-	outside bool
-	used    int // index into the judged series, -1 for a reading left out
-	flags   []string
+	y, s, t    float64
+	row        int32
+	n          int32
+	used       int32 // index into the judged series, -1 for a reading left out
+	hasS, hasT bool
+	leftOut    bool
+	outside    bool
 }
 
 // buildStability fills the "Over time" section from the used readings in
@@ -566,8 +566,9 @@ type stabBuild struct {
 	notes  []Note
 
 	pts      []stabPoint
-	judged   []float64 // the judged points (readings or means) in order
-	posOf    []int     // plotted position (0-based) of each judged point
+	flags    map[int][]string // signal codes by plotted position
+	judged   []float64        // the judged points (readings or means) in order
+	posOf    []int            // plotted position (0-based) of each judged point
 	subgroup bool
 	signals  []method.Signal
 	spreadSg []int // judged indices with a spread beyond its limits
@@ -682,13 +683,17 @@ func (b *stabBuild) individuals(settings method.SignalSettings) error {
 			continue
 		}
 		p := stabPoint{row: cv.rows[i], y: x, used: -1}
+		if b.pts == nil {
+			b.pts = make([]stabPoint, 0, len(w.series)+len(cv.excludedByUser))
+			b.posOf = make([]int, 0, len(w.series))
+		}
 		if t, ok := orderKey(cv, i); ok {
 			p.t, p.hasT = t, true
 		}
 		if cv.excludedByUser[cv.rows[i]] {
 			p.leftOut = true
 		} else {
-			p.used = k
+			p.used = int32(k)
 			p.outside = !b.inBase(p.row)
 			b.posOf = append(b.posOf, len(b.pts))
 			k++
@@ -775,7 +780,7 @@ func (b *stabBuild) subgroups(settings method.SignalSettings) error {
 	// the subgroup of each used reading, for the baseline and left-out marks
 	var base []int
 	for g := range k {
-		p := stabPoint{row: cv.rows[w.gcells[g][0]], label: w.labels[g], n: len(w.groups[g]), used: g}
+		p := stabPoint{row: cv.rows[w.gcells[g][0]], n: int32(len(w.groups[g])), used: int32(g)}
 		if t, ok := orderKey(cv, int(w.gcells[g][0])); ok {
 			p.t, p.hasT = t, true
 		}
@@ -1095,7 +1100,7 @@ func (b *stabBuild) drift() {
 	}
 	every := 1
 	if n > senMax {
-		every = (n + senMax - 1) / senMax
+		every = (n + senSub - 1) / senSub
 	}
 	var sen method.SenSlope
 	var errS error
@@ -1155,13 +1160,14 @@ func (b *stabBuild) finishChart() {
 	st := b.st
 	counts := map[string]int{}
 	total := 0
+	b.flags = map[int][]string{}
 	add := func(si SignalInfo, judgedIdx []int) {
 		counts[si.Code]++
 		total++
 		for _, j := range judgedIdx {
-			p := &b.pts[b.posOf[j]]
-			if !slices.Contains(p.flags, si.Code) {
-				p.flags = append(p.flags, si.Code)
+			pos := b.posOf[j]
+			if !slices.Contains(b.flags[pos], si.Code) {
+				b.flags[pos] = append(b.flags[pos], si.Code)
 			}
 		}
 		if len(st.Signals) >= maxSignalsListed {
@@ -1172,7 +1178,7 @@ func (b *stabBuild) finishChart() {
 		for _, j := range judgedIdx[:min(len(judgedIdx), maxSignalRows)] {
 			p := b.pts[b.posOf[j]]
 			if b.subgroup {
-				si.Subgroups = append(si.Subgroups, p.label)
+				si.Subgroups = append(si.Subgroups, b.w.labels[b.posOf[j]])
 			} else {
 				si.Rows = append(si.Rows, int(p.row))
 			}
@@ -1233,14 +1239,17 @@ func (b *stabBuild) finishChart() {
 	ch := st.Chart
 	ch.Count = len(b.pts)
 	ch.TimeAxis = b.cv.order != nil && b.cv.order.Kind == "time"
-	keep := thinPoints(b.pts, maxChartPoints)
+	keep := thinPoints(b.pts, b.flags, maxChartPoints)
 	ch.Thinned = keep != nil
 	ch.Points = make([]CtlPoint, 0, min(len(b.pts), 2*maxChartPoints))
 	for i, p := range b.pts {
 		if keep != nil && !keep[i] {
 			continue
 		}
-		cp := CtlPoint{I: i + 1, Row: int(p.row), Label: p.label, N: p.n, Y: p.y, LeftOut: p.leftOut, Outside: p.outside, Flags: p.flags}
+		cp := CtlPoint{I: i + 1, Row: int(p.row), N: int(p.n), Y: p.y, LeftOut: p.leftOut, Outside: p.outside, Flags: b.flags[i]}
+		if b.subgroup {
+			cp.Label = b.w.labels[i]
+		}
 		if p.hasS {
 			v := p.s
 			cp.S = &v
@@ -1283,7 +1292,7 @@ func runsOf(idx []int) [][]int {
 // thinPoints selects at most about 2·limit points for drawing: the lowest
 // and highest of each of limit/2 blocks, every point with a signal and
 // every reading left out (each up to limit more). nil keeps all.
-func thinPoints(pts []stabPoint, limit int) []bool {
+func thinPoints(pts []stabPoint, flags map[int][]string, limit int) []bool {
 	n := len(pts)
 	if n <= limit {
 		return nil
@@ -1303,13 +1312,16 @@ func thinPoints(pts []stabPoint, limit int) []bool {
 		}
 		keep[lo], keep[hi] = true, true
 	}
-	flagged, left := 0, 0
-	for i, p := range pts {
-		if len(p.flags) > 0 && flagged < limit {
+	flagged := 0
+	for i := range flags {
+		if flagged < limit {
 			keep[i] = true
 			flagged++
 		}
-		if p.leftOut && left < limit {
+	}
+	left := 0
+	for i := range pts {
+		if pts[i].leftOut && left < limit {
 			keep[i] = true
 			left++
 		}
@@ -1459,7 +1471,11 @@ func cachedARL(chart string, a, b, shift float64) *float64 {
 	v, ok := arlCache[key]
 	arlMu.Unlock()
 	if ok {
-		return v
+		if v == nil {
+			return nil
+		}
+		c := *v
+		return &c
 	}
 	var r float64
 	var err error

@@ -1,0 +1,45 @@
+package stats
+
+import (
+	"testing"
+	"time"
+
+	"lotlens/stats/ingest"
+)
+
+// BenchmarkStability1M: the share of the "Over time" section (within
+// sigma, chart, every check, EWMA, CUSUM, drift tests, change point) in
+// the full analysis of 1,000,000 readings, measured in the same run:
+// "stability%" is the section's time over the time of everything else
+// (goal: at most 30 %). Run with
+//
+//	go test -run '^$' -bench Stability1M -benchtime 3x ./stats/
+func BenchmarkStability1M(b *testing.B) {
+	text := benchData(1_000_000)
+	tab, err := ingest.Read(text)
+	if err != nil {
+		b.Fatal(err)
+	}
+	col := tab.Columns[0]
+	cv := &colView{name: col.Name, rows: col.Rows, vals: col.Values, dec: col.Dec, text: col.Text}
+	var full, part time.Duration
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		t0 := time.Now()
+		if _, err := Analyze(Request{Text: text}); err != nil {
+			b.Fatal(err)
+		}
+		t1 := time.Now()
+		st, _ := buildStability(cv, estimateWithin(cv, nil, ""), nil, Options{Confidence: 0.95})
+		t2 := time.Now()
+		if st == nil || st.Chart == nil {
+			b.Fatal("no chart")
+		}
+		full += t1.Sub(t0)
+		part += t2.Sub(t1)
+	}
+	b.StopTimer()
+	b.ReportMetric(float64(full.Milliseconds())/float64(b.N), "fullms/op")
+	b.ReportMetric(float64(part.Milliseconds())/float64(b.N), "stabilityms/op")
+	b.ReportMetric(100*float64(part)/float64(full-part), "stability%")
+}
