@@ -712,11 +712,17 @@ func (b *stabBuild) individuals(settings method.SignalSettings) error {
 			return fmt.Errorf("the baseline rows %q hold %d of the readings used: the limits need at least 2 in a row", string(b.opts.Baseline), len(base))
 		}
 	}
-	ch, err := method.Individuals(w.series, method.IndividualsOptions{Median: w.method == WithinMedianMovingRange, Baseline: base})
-	if err != nil {
-		return err
+	// without a baseline the limits rest on the shared estimate (the same
+	// computation as method.Individuals, which is run only for a baseline)
+	est := w.est
+	if base != nil {
+		ch, err := method.Individuals(w.series, method.IndividualsOptions{Median: w.method == WithinMedianMovingRange, Baseline: base})
+		if err != nil {
+			return err
+		}
+		est = ch.Sigma
 	}
-	centre := ch.Centre
+	var centre float64
 	if base == nil {
 		centre = b.exactMean(nil)
 	} else {
@@ -726,19 +732,13 @@ func (b *stabBuild) individuals(settings method.SignalSettings) error {
 		}
 		centre = b.exactMean(func(k int) bool { return keep[k] })
 	}
-	sigma := ch.Sigma.Sigma
-	if base == nil {
-		sigma = w.est.Sigma // the shared estimate (the same computation)
-	}
+	sigma := est.Sigma
 	if !(sigma > 0) {
 		return errors.New("the baseline readings do not vary: no limits can be set from them")
 	}
 	c2, _ := method.Constants(2)
 	st.Chart = &ControlChart{Kind: "individuals", KindRule: ruleIndividuals(), Spread: "moving-range",
-		Centre: centre, Sigma: sigma, SigmaMethod: w.method, SigmaDF: ch.Sigma.DF, SigmaShared: base == nil, Width: 3}
-	if base == nil {
-		st.Chart.SigmaDF = w.est.DF
-	}
+		Centre: centre, Sigma: sigma, SigmaMethod: w.method, SigmaDF: est.DF, SigmaShared: base == nil, Width: 3}
 	lim := CtlLimits{From: 1, To: len(b.pts), Lower: centre - 3*sigma, Upper: centre + 3*sigma,
 		SpreadCentre: c2.SmallD2 * sigma, SpreadLower: math.Max(0, c2.SmallD2-3*c2.SmallD3) * sigma, SpreadUpper: (c2.SmallD2 + 3*c2.SmallD3) * sigma}
 	st.Chart.Limits = []CtlLimits{lim}
@@ -750,6 +750,7 @@ func (b *stabBuild) individuals(settings method.SignalSettings) error {
 			b.spreadSg = append(b.spreadSg, j)
 		}
 	}
+	var err error
 	b.signals, err = method.Signals(w.series, centre, []float64{sigma}, settings)
 	if err != nil {
 		return err
