@@ -46,7 +46,7 @@ export function overTimeCard(rep, card, chartFigure) {
     s.leftOut.map((r) => "row " + r.row + " (" + r.text + ")").join(", ") + "." }));
   // every signal with its rows
   if (s.signals && s.signals.length) {
-    kids.push(el("details", { open: s.signals.length <= 12 ? "" : null, class: "signals" },
+    kids.push(el("details", { open: s.signals.length <= 5 ? "" : null, class: "signals" },
       el("summary", { text: s.signals.length + (s.signals.length === 1 ? " signal" : " signals") + (s.signalsCut ? " (first ones listed)" : "") }),
       table(["Check", "Chart", "Where", "Rows or subgroups"], s.signals.map((g) => [
         (CHECKS.find((c) => c[0] === g.code) || [g.code, g.code])[1], g.chart, g.text.split(": ").slice(1).join(": ") || g.text,

@@ -736,7 +736,7 @@ func (b *stabBuild) individuals(settings method.SignalSettings) error {
 	if !(sigma > 0) {
 		return errors.New("the baseline readings do not vary: no limits can be set from them")
 	}
-	c2, _ := method.Constants(2)
+	c2 := roundedConstants(2)
 	st.Chart = &ControlChart{Kind: "individuals", KindRule: ruleIndividuals(), Spread: "moving-range",
 		Centre: centre, Sigma: sigma, SigmaMethod: w.method, SigmaDF: est.DF, SigmaShared: base == nil, Width: 3}
 	lim := CtlLimits{From: 1, To: len(b.pts), Lower: centre - 3*sigma, Upper: centre + 3*sigma,
@@ -928,10 +928,10 @@ func sigmaOf(m string, groups [][]float64) (method.SigmaEstimate, error) {
 func subgroupLimits(n int, centre, sigma float64, spread string) CtlLimits {
 	hw := 3 * sigma / math.Sqrt(float64(n))
 	l := CtlLimits{Lower: centre - hw, Upper: centre + hw}
-	c, err := method.Constants(n)
-	if err != nil { // a subgroup of one reading has no spread point
+	if n < 2 { // a subgroup of one reading has no spread point
 		return l
 	}
+	c := roundedConstants(n)
 	if spread == "sd" {
 		l.SpreadCentre, l.SpreadLower, l.SpreadUpper = c.C4*sigma, math.Max(0, c.C4-3*c.C5)*sigma, (c.C4+3*c.C5)*sigma
 	} else {
@@ -1455,6 +1455,33 @@ func (b *stabBuild) countWords() string {
 	return fmt.Sprintf("%d readings", len(b.w.series))
 }
 
+// roundedConstants are the chart constants rounded to 12 significant
+// digits (they are computed to about 1e-14 by integration): the engine's
+// native and WebAssembly builds differ in the last bits of their
+// exponential and logarithm, and the report must be the same in both.
+func roundedConstants(n int) method.ChartConstants {
+	c, err := method.Constants(n)
+	if err != nil {
+		return c
+	}
+	for _, p := range []*float64{&c.SmallD2, &c.SmallD3, &c.C4, &c.C5} {
+		*p = roundSig(*p, 12)
+	}
+	return c
+}
+
+// roundSig rounds x to d significant digits.
+func roundSig(x float64, d int) float64 {
+	if x == 0 || math.IsNaN(x) || math.IsInf(x, 0) {
+		return x
+	}
+	v, err := strconv.ParseFloat(strconv.FormatFloat(x, 'g', d, 64), 64)
+	if err != nil {
+		return x
+	}
+	return v
+}
+
 // arlCache keeps the run lengths by chart and settings: each is a linear
 // solve of 301 states (tens of milliseconds), and the page re-runs the
 // analysis on every change of a setting.
@@ -1490,6 +1517,9 @@ func cachedARL(chart string, a, b, shift float64) *float64 {
 	if err != nil || math.IsInf(r, 0) || r != r {
 		v = nil
 	} else {
+		// 6 significant digits: the Markov chain is good to about that, and
+		// the native and WebAssembly linear algebra differ in the last bits
+		r = roundSig(r, 6)
 		v = &r
 	}
 	arlMu.Lock()
