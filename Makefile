@@ -12,7 +12,7 @@ export CHROMIUM
 # Node tools (wrangler) live in build/node: package.json, its lock file, node_modules.
 WRANGLER := build/node/node_modules/.bin/wrangler
 
-.PHONY: run dist test test-go test-wasm test-browser test-worker test-worker-assets vet deps-browser deps-node bench bench-page fuzz deploy clean
+.PHONY: run dist test test-go test-wasm test-browser test-worker test-worker-assets vet deps-browser deps-node bench bench-page fuzz deploy deploy-stored clean
 
 run: dist ## build dist/ and serve it on http://127.0.0.1:$(PORT)
 	$(GO) run ./build serve -dir dist -port $(PORT)
@@ -32,8 +32,8 @@ vet:
 test-go: ## native unit tests (browser tests run in test-browser)
 	$(GO) test -short ./...
 
-test-wasm: ## the engine's tests again as js/wasm, in Node through go_js_wasm_exec
-	PATH="$(WASMPATH)" GOOS=js GOARCH=wasm $(GO) test ./stats/...
+test-wasm: ## the engine's tests again as js/wasm (-short: the long property runs are native only), in Node through go_js_wasm_exec
+	PATH="$(WASMPATH)" GOOS=js GOARCH=wasm $(GO) test -short ./stats/...
 
 test-browser: deps-browser dist ## the page in headless Chromium
 	$(GO) test -count=1 ./site/
@@ -73,6 +73,10 @@ deps-node: ## Node.js (Debian's packages, as root) and wrangler (pinned by build
 deploy: deps-node dist ## deploy the edge worker to your own Cloudflare account (README: Deployment)
 	$(GO) run ./build worker -dir dist
 	$(WRANGLER) deploy --config build/worker/wrangler.jsonc
+
+deploy-stored: deps-node dist ## the same, with the encrypted stored link on (put your KV namespace id in build/worker/wrangler.stored.jsonc first)
+	$(GO) run ./build worker -dir dist
+	$(WRANGLER) deploy --config build/worker/wrangler.stored.jsonc
 
 bench: ## engine and reader benchmarks
 	$(GO) test -run '^$$' -bench . -benchmem ./stats/...

@@ -4,7 +4,8 @@
 // the engine reports. Modules: state.js (the page's state, in one place),
 // engine-client.js, input.js (paste, file, settings, shared link), cards.js
 // (the report), dom.js (formatting and DOM helpers), export.js (downloads,
-// summary), share.js (the share link).
+// summary), share.js (links, .lotlens files, opening them) and stored.js
+// (the encrypted stored copy, off unless the site keeps copies).
 //
 // Automation (for the help page help/automation.md):
 //   On the page, once it has loaded:
@@ -17,11 +18,13 @@
 //   the engine's error code (e.g. "internal"). It runs in the same
 //   Web Worker as the page, never touches the page's own data or settings, and
 //   sends nothing anywhere. lotlens.ready() resolves once the engine has loaded.
+//   lotlens.shownReport() is the report the page shows, as JSON text.
 import { $, SCHEMA, state, setStatus, errorOf } from "./state.js";
-import { startEngine, whenReady, call } from "./engine-client.js";
-import { readSettings, restoreFromHash } from "./input.js";
+import { startEngine, whenReady, call, onWarmed } from "./engine-client.js";
+import { warmRender } from "./cards.js";
+import { readSettings, buildRequest } from "./input.js";
 import { copyText, summaryText, download, fileBase, suspectsCSV } from "./export.js";
-import { makeShareLink } from "./share.js";
+import { shareLink, takeFromAddress, openIncoming } from "./share.js";
 
 $("copy").addEventListener("click", async () => {
   setStatus(await copyText(summaryText()) ? "Summary copied as text." : "The browser did not allow copying; use Download JSON instead.", false);
@@ -29,21 +32,9 @@ $("copy").addEventListener("click", async () => {
 $("dl-json").addEventListener("click", () => download(fileBase() + "-report.json", JSON.stringify(state.report, null, 2) + "\n", "application/json"));
 $("dl-csv").addEventListener("click", () => download(fileBase() + "-suspect-readings.csv", suspectsCSV(), "text/csv"));
 $("print").addEventListener("click", () => window.print());
-$("share").addEventListener("click", async () => {
-  let url;
-  try { url = await makeShareLink(readSettings() || {}); } catch (e) { setStatus("The link could not be made: " + (e.message || e), true); return; }
-  const box = $("share-box"), input = $("share-url"), note = $("share-note");
-  input.value = url;
-  box.hidden = false;
-  let msg = "The link holds " + url.length.toLocaleString() + " characters. Anyone with it sees the data.";
-  if (url.length > 100000) {
-    msg = "This link is very long (" + url.length.toLocaleString() + " characters): some mail and chat programs cut such links short. Send the file itself instead, with this report's fingerprint so the receiver can check it.";
-    note.classList.add("warn-text");
-  } else note.classList.remove("warn-text");
-  const copied = await copyText(url);
-  note.textContent = (copied ? "Copied. " : "") + msg;
-  history.replaceState(null, "", url);
-  input.select();
+$("share").addEventListener("click", () => {
+  const o = readSettings();
+  shareLink(o ? buildRequest(o) : null);
 });
 
 // ---------- scripts ----------
@@ -61,14 +52,29 @@ window.lotlens = Object.freeze({
   },
   // timing of the page's last analysis (ms), for the speed checks
   timing: () => state.timing && Object.assign({}, state.timing),
+  // the report the page shows, as JSON text (null when none): for checks
+  // that two pages show the very same report
+  shownReport: () => state.report ? JSON.stringify(state.report) : null,
 });
 
 // ---------- start ----------
+// A shared link is read from the address and removed from it (and from the
+// current history entry) before anything else, so it does not linger.
+const incoming = takeFromAddress();
 startEngine();
-whenReady().then(async () => {
-  if (!(await restoreFromHash())) setStatus("Ready. Paste values, open a file or try the demo.");
+// once the engine is warm, warm the page's rendering too, when idle
+onWarmed((json, svg) => {
+  const go = () => warmRender(json, svg);
+  if ("requestIdleCallback" in window) requestIdleCallback(go, { timeout: 2000 }); else setTimeout(go, 50);
 });
-window.addEventListener("hashchange", () => { if (location.hash.startsWith("#d=")) restoreFromHash(); });
+whenReady().then(async () => {
+  if (incoming) await openIncoming(incoming);
+  else if (!document.body.dataset.shareError && !state.report) setStatus("Ready. Paste values, open a file or try the demo.");
+});
+window.addEventListener("hashchange", () => {
+  const found = takeFromAddress();
+  if (found) whenReady().then(() => openIncoming(found));
+});
 if ("serviceWorker" in navigator && location.protocol !== "file:") {
   navigator.serviceWorker.register("sw.js").then(() => { document.body.dataset.sw = "registered"; })
     .catch(() => { /* offline use needs it; the page works without */ });

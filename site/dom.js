@@ -6,16 +6,39 @@ import { state } from "./state.js";
 export function comma() { return !!(state.report && state.report.input && state.report.input.decimalComma); }
 export function decimals() { return (state.report && state.report.counts && state.report.counts.decimals) || 0; }
 // fmt writes v to the data's decimals plus extra, or to full precision.
+// Very large or very small magnitudes (where fixed decimals would print 16
+// digits, or only zeros) are written with 5 significant digits and a power
+// of ten: 1.6733 × 10^200.
 export function fmt(v, extra) {
   if (v === null || v === undefined || !isFinite(v)) return "–";
   let s;
-  if (state.full) s = String(v);
+  const d = Math.max(0, Math.min(12, decimals() + (extra || 0)));
+  const a = Math.abs(v);
+  if (a >= 1e15 || (a !== 0 && a < 0.5 * Math.pow(10, -d) && a < 1e-4)) s = sci(v, state.full ? 16 : 5);
+  else if (state.full) s = String(v);
   else {
-    const d = Math.max(0, Math.min(12, decimals() + (extra || 0)));
     s = v.toFixed(d);
     if (/^-0(\.0*)?$/.test(s)) s = s.slice(1);
   }
   return comma() ? s.replace(".", ",") : s;
+}
+const SUP = { "0": "\u2070", "1": "\u00b9", "2": "\u00b2", "3": "\u00b3", "4": "\u2074", "5": "\u2075", "6": "\u2076", "7": "\u2077", "8": "\u2078", "9": "\u2079", "-": "\u207b" };
+// sci writes v with sig significant digits (trailing zeros dropped) times a
+// power of ten written in superscript digits.
+export function sci(v, sig) {
+  const [m, e] = v.toExponential(Math.max(0, Math.min(20, sig - 1))).split("e");
+  const mant = m.includes(".") ? m.replace(/0+$/, "").replace(/\.$/, "") : m;
+  const exp = String(Number(e));
+  return mant + "\u00a0\u00d7\u00a010" + exp.split("").map((c) => SUP[c] || c).join("");
+}
+// ordinal: 1st, 2nd, 3rd, 4th, 11th, 12th, 13th, 21st; a non-whole number
+// (0.135) takes "th".
+export function ordinal(p) {
+  const s = String(p);
+  if (!Number.isInteger(p)) return s + "th";
+  const t = p % 100, u = p % 10;
+  if (t >= 11 && t <= 13) return s + "th";
+  return s + (u === 1 ? "st" : u === 2 ? "nd" : u === 3 ? "rd" : "th");
 }
 export function fmtP(p) {
   if (p === null || p === undefined || !isFinite(p)) return "–";
@@ -23,6 +46,15 @@ export function fmtP(p) {
   if (p < 0.0001) return "<\u00a00.0001".replace(".", comma() ? "," : ".");
   const s = p.toFixed(p < 0.01 ? 4 : 3);
   return comma() ? s.replace(".", ",") : s;
+}
+// pText is "p = 0.123" or "p < 0.0001" (never "p = < 0.0001").
+export function pText(p) {
+  const s = fmtP(p).replace("\u00a0", " ");
+  return s.startsWith("<") ? "p " + s : "p = " + s;
+}
+// count writes "1 value", "2 values" (many defaults to one + "s").
+export function count(n, one, many) {
+  return (typeof n === "number" ? n.toLocaleString("en-US") : String(n)) + " " + (n === 1 ? one : (many || one + "s"));
 }
 export function pct(level) { return (Math.round(level * 1000) / 10) + " %"; }
 // parseNum reads a setting typed with a decimal point or comma.
@@ -110,5 +142,18 @@ export function settingsLines(rep) {
   if (st.lsl !== undefined && st.lsl !== null) out.push("LSL: " + fmt(st.lsl, 0));
   if (st.usl !== undefined && st.usl !== null) out.push("USL: " + fmt(st.usl, 0));
   return out;
+}
+// reasonText is the reason the user typed for leaving a row out ("" if none).
+export function reasonText(row) { return ((state.reasons && state.reasons.get(row)) || "").trim(); }
+// excludedLine: "row 5 (6.40; reason: gauge dropped)", for the print header
+// and the summary.
+export function excludedLine(r) {
+  const why = reasonText(r.row);
+  return "row " + r.row + " (" + r.text + (why ? "; reason: " + why : "; no reason given") + ")";
+}
+// whenText: the report's date and time with its time zone.
+export function whenText() {
+  const d = state.when || new Date();
+  return d.toLocaleString(undefined, { dateStyle: "medium", timeStyle: "long" });
 }
 export function sourceText() { return state.source === "file" && state.file ? "file " + state.file.name : "pasted text"; }

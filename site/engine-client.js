@@ -5,6 +5,10 @@ import { state, setStatus } from "./state.js";
 let engine = null, engineReady = false, seq = 0;
 const pending = new Map(); // id -> {resolve, reject, onProgress}
 let readyWaiters = [];
+const warmedListeners = [];
+// onWarmed(f): f(json, svg) once the engine has warmed up, with a report of
+// invented data the page may draw off screen to warm its own code.
+export function onWarmed(f) { warmedListeners.push(f); }
 
 export function startEngine() {
   engineReady = false;
@@ -20,6 +24,11 @@ export function startEngine() {
       return;
     }
     if (m.type === "error") { setStatus(m.error, true); return; }
+    if (m.type === "warmed") {
+      document.body.dataset.warmedMs = String(Math.round(performance.now()));
+      if (m.json) for (const f of warmedListeners) f(m.json, m.svg || {});
+      return;
+    }
     const p = pending.get(m.id);
     if (!p) return;
     if (m.type === "progress") { if (p.onProgress) p.onProgress(m.read, m.total); return; }
@@ -44,6 +53,7 @@ export function restartEngine(reason) {
   for (const [, p] of pending) p.reject(new Error(reason));
   pending.clear();
   state.hasTable = false;
+  state.lastKey = "";
   startEngine();
 }
 // cancelRead asks the worker to stop reading a file (it answers the file

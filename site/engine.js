@@ -6,11 +6,16 @@
 //        {type:"progress", id, read, total} and then {type:"file-read", id, json}
 //   {type:"cancel"}                      stop reading; the file call answers
 //                                        {type:"file-read", id, json} with code "cancelled"
-//   {type:"forget"}                      drop the kept file table
-//   {type:"text", id}                    the kept file's text as the engine decoded it
-//                                        (for the share link); reply {type:"text", id, text} or {.., json}
+//   {type:"forget"}                      drop the kept table and the data's bytes
+//   {type:"share", id, share, form}      make a share payload (form "link", "file" or "bytes");
+//                                        reply {type:"shared", id, json, bytes?}
+//   {type:"open", id, data, form}        open a payload: data is the link text, a File
+//                                        (.lotlens) or a Uint8Array (decrypted stored copy);
+//                                        reply {type:"opened", id, json, shared?, svg}
 // Every json is a report or the engine's error object {error, code}.
-// Out, once: {type:"ready"} (posted by the Go side) or {type:"error", error}.
+// Out, once: {type:"ready"} (posted by the Go side) or {type:"error", error};
+// then {type:"warmed", ms, json, svg} when the warm-up has run every stage
+// (json and svg: the last stage's report, for the page to warm its rendering).
 "use strict";
 importScripts("wasm_exec.js");
 
@@ -25,14 +30,50 @@ async function load() {
     return WebAssembly.instantiate(buf, go.importObject);
   }
 }
-// Warm-up: browsers compile WebAssembly functions lazily, so the first
-// analysis pays for compiling the engine's hot paths. Run one small analysis
-// (invented values) as soon as the engine is up, while the user is still
-// reading the page; a real request that arrives meanwhile simply queues.
+// Warm-up: browsers compile WebAssembly functions lazily and optimise the
+// busy ones later, and the Go runtime grows its heap on first use, so the
+// first analysis of a large paste pays for all of that. Right after the
+// engine is up, while the user is still reading the page, this runs the
+// engine on invented data in short stages that together reach every path a
+// report of 10,000 readings uses: more than 5,000 readings (the large-sample
+// shape test), a header and a cell that is not a number, target and limits,
+// and a file read in chunks. Each stage is one call of a few thousand
+// readings at most; between stages the worker answers any request that has
+// arrived, so a user's first action waits at most for one stage, and the
+// warm-up stops for good at the user's first request (it must not touch the
+// user's file or table). A helper worker sharing the compiled module was
+// tried first: the engine's own instance was no faster afterwards (the heap
+// and, in practice, the optimised code are per instance).
+function warmText(n, header) {
+  const a = header ? ["Warm-up (g)"] : [];
+  let x = 7;
+  for (let i = 0; i < n; i++) { x = (x * 16807) % 2147483647; a.push((5 + (x / 2147483647 - 0.5) * 0.4).toFixed(3)); }
+  if (header) a[11] = "n/a";
+  return a.join("\n") + "\n";
+}
+const WARM_OPTS = { target: 5, lsl: 4.7, usl: 5.3 };
+const warmStages = [
+  () => self.lotlensRun(JSON.stringify({ text: warmText(600, false) }), false),
+  () => self.lotlensRun(JSON.stringify({ text: warmText(2500, true), options: WARM_OPTS }), false),
+  () => self.lotlensRun(JSON.stringify({ text: warmText(5200, false) }), false),
+  () => {
+    const bytes = new TextEncoder().encode(warmText(5200, true));
+    self.lotlensBegin("warm-up.csv", bytes.length);
+    self.lotlensChunk(bytes.subarray(0, bytes.length >> 1));
+    self.lotlensChunk(bytes.subarray(bytes.length >> 1));
+    self.lotlensEnd();
+  },
+  () => { warmReport = self.lotlensRun(JSON.stringify({ options: WARM_OPTS }), true); self.lotlensForget(); },
+];
+let warmReport = null; // the last stage's answer: the page warms its rendering with it
+let warmStage = 0, warmT0 = 0, userCame = false;
 function warmUp() {
-  let t = "", x = 1;
-  for (let i = 0; i < 600; i++) { x = (x * 16807) % 2147483647; t += (5 + (x / 2147483647 - 0.5) * 0.4).toFixed(3) + "\n"; }
-  try { self.lotlensRun(JSON.stringify({ text: t }), false); } catch (e) { /* warm-up only */ }
+  if (userCame) return;
+  if (warmStage === 0) warmT0 = performance.now();
+  if (warmStage >= warmStages.length) { postMessage({ type: "warmed", ms: performance.now() - warmT0, json: warmReport && warmReport.json, svg: warmReport && warmReport.svg }); warmReport = null; return; }
+  try { warmStages[warmStage](); } catch (e) { /* warm-up only */ }
+  warmStage++;
+  setTimeout(warmUp, 10);
 }
 load()
   .then((r) => { setTimeout(warmUp, 0); return go.run(r.instance); })
@@ -78,8 +119,19 @@ async function readFile(id, file) {
   }
 }
 
+async function openPayload(id, data, form) {
+  try {
+    if (typeof data !== "string" && !(data instanceof Uint8Array)) data = new Uint8Array(await data.arrayBuffer());
+    const r = self.lotlensOpen(data, form);
+    postMessage({ type: "opened", id, json: r.json, shared: r.shared, svg: r.svg });
+  } catch (e) {
+    postMessage({ type: "opened", id, json: JSON.stringify({ error: "The file could not be read: pick it again.", code: "file-read" }) });
+  }
+}
+
 onmessage = (ev) => {
   const m = ev.data;
+  userCame = true; // the warm-up stops: the user's data and table are not touched
   switch (m.type) {
     case "run":
       {
@@ -102,11 +154,14 @@ onmessage = (ev) => {
     case "forget":
       self.lotlensForget();
       break;
-    case "text":
+    case "share":
       {
-        const r = self.lotlensText();
-        postMessage(Object.assign({ type: "text", id: m.id }, r.text !== undefined ? { text: r.text } : { json: r.json }));
+        const r = self.lotlensShare(JSON.stringify(m.share), m.form);
+        postMessage({ type: "shared", id: m.id, json: r.json, bytes: r.bytes }, r.bytes ? [r.bytes.buffer] : []);
       }
+      break;
+    case "open":
+      openPayload(m.id, m.data, m.form);
       break;
   }
 };

@@ -1,7 +1,7 @@
 // Outputs: downloads (report JSON, suspect readings and unused cells as
 // CSV, chart SVG), the plain-text summary and the clipboard.
 import { state, setStatus } from "./state.js";
-import { fmt, fmtP, pct, unit, el, quoteIsMedian, settingsLines, sourceText } from "./dom.js";
+import { fmt, pText, pct, unit, el, quoteIsMedian, settingsLines, sourceText, reasonText, excludedLine, whenText } from "./dom.js";
 
 export function fileBase() {
   const name = (state.report && state.report.input.column || "data").replace(/[^A-Za-z0-9._-]+/g, "-").replace(/^-+|-+$/g, "").slice(0, 40) || "data";
@@ -16,17 +16,21 @@ export function download(name, content, type) {
   setTimeout(() => URL.revokeObjectURL(url), 10000);
   setStatus("Saved " + name + ".");
 }
-function csvCell(v) {
+// csvCell quotes one cell. A cell that a spreadsheet would run as a formula
+// (starting with =, +, -, @, tab or CR) gets a leading apostrophe, unless it
+// is a plain number such as -5.12 or +1e3, which stays a number.
+const PLAIN_NUMBER = /^[-+]?(\d+([.,]\d*)?|[.,]\d+)([eE][-+]?\d+)?$/;
+export function csvCell(v) {
   let s = String(v === undefined || v === null ? "" : v);
-  if (/^[=+@\t\r]/.test(s)) s = "'" + s; // keep spreadsheets from running it as a formula
+  if (/^[=+\-@\t\r]/.test(s) && !PLAIN_NUMBER.test(s)) s = "'" + s;
   return '"' + s.replace(/"/g, '""') + '"';
 }
 export function suspectsCSV() {
   const rep = state.report;
-  const lines = [["row", "column", "as_typed", "value", "rules", "left_out"].join(",")];
+  const lines = [["row", "column", "as_typed", "value", "rules", "left_out", "reason"].join(",")];
   const rs = (rep.suspects && rep.suspects.readings) || [];
-  for (const r of rs) lines.push([r.row, r.column || rep.input.column, r.text, r.value, (r.flags || []).map((f) => f.rule).join(" "), state.exclude.has(r.row) ? "yes" : "no"].map(csvCell).join(","));
-  for (const r of rep.settings.excluded || []) if (!rs.some((s) => s.row === r.row)) lines.push([r.row, r.column || rep.input.column, r.text, r.value, "", "yes"].map(csvCell).join(","));
+  for (const r of rs) lines.push([r.row, r.column || rep.input.column, r.text, r.value, (r.flags || []).map((f) => f.rule).join(" "), state.exclude.has(r.row) ? "yes" : "no", reasonText(r.row)].map(csvCell).join(","));
+  for (const r of rep.settings.excluded || []) if (!rs.some((s) => s.row === r.row)) lines.push([r.row, r.column || rep.input.column, r.text, r.value, "", "yes", reasonText(r.row)].map(csvCell).join(","));
   return lines.join("\r\n") + "\r\n";
 }
 export function downloadProblems() {
@@ -39,7 +43,7 @@ export function summaryText() {
   const rep = state.report, L = [];
   const u = unit() ? " " + unit() : "";
   L.push("Lotlens report: " + (rep.input.column || "value") + (u ? " (" + unit() + ")" : ""));
-  L.push("Made " + state.when.toLocaleString() + " from " + sourceText());
+  L.push("Made " + whenText() + " from " + sourceText());
   L.push("Data fingerprint (SHA-256): " + rep.input.fingerprint);
   L.push(rep.input.summary);
   L.push("");
@@ -62,11 +66,11 @@ export function summaryText() {
     const rs = rep.suspects.readings;
     L.push("Flagged readings: " + (rs.length ? rs.map((r) => "row " + r.row + " (" + r.text + ")").join(", ") : "none"));
   }
-  if (rep.shape && (rep.shape.shapiroWilk || rep.shape.large)) { const t = rep.shape.shapiroWilk || rep.shape.large; L.push(t.name + ": p = " + fmtP(t.p)); }
+  if (rep.shape && (rep.shape.shapiroWilk || rep.shape.large)) { const t = rep.shape.shapiroWilk || rep.shape.large; L.push(t.name + ": " + pText(t.p)); }
   if (rep.target && rep.target.statement) L.push(rep.target.statement);
   L.push("Settings: " + settingsLines(rep).join("; "));
   const ex = rep.settings.excluded || [];
-  L.push(ex.length ? "Left out by the user: " + ex.map((r) => "row " + r.row + " (" + r.text + ")").join(", ") : "No reading left out by the user.");
+  L.push(ex.length ? "Left out by the user: " + ex.map(excludedLine).join(", ") : "No reading left out by the user.");
   if (rep.verdict && rep.verdict.caution) L.push("Caution: " + rep.verdict.caution);
   return L.join("\n") + "\n";
 }

@@ -1,33 +1,38 @@
 // Input: paste, file, demo, shared link; the settings; running the
 // analysis and showing its answer or its error.
 import { $, SCHEMA, state, actions, setStatus, errorOf, showError } from "./state.js";
-import { parseNum } from "./dom.js";
+import { parseNum, count } from "./dom.js";
 import { call, whenReady, restartEngine, cancelRead } from "./engine-client.js";
-import { render } from "./cards.js";
-import { readShareLink } from "./share.js";
-import { fillOverTimeSettings, readOverTimeSettings, restoreOverTimeSettings } from "./card-overtime.js";
+import { render, captureFocus, renderExclusions, refreshPrintHead } from "./cards.js";
+import { openShared, isSharedFile, clearShared } from "./share.js";
+import { fillOverTimeSettings, readOverTimeSettings } from "./card-time.js";
 
 const data = $("data");
 function resetForNewData() {
   state.exclude.clear();
+  state.reasons.clear();
+  state.dataVersion++;
   state.allSuspects = false;
   state.leaveOutRows = []; state.leaveOutText = ""; $("leave-out").value = "";
   state.cols = { value: "", group: "", order: "", subgroup: "" };
+  clearShared();
 }
 
 export function readSettings() {
   const o = { confidence: Number($("confidence").value), quantile: $("quantile").value };
   if ($("decimal-mark").value) o.decimalMark = $("decimal-mark").value;
   const errs = [];
+  let field = "";
+  const bad = (id) => { $(id).setAttribute("aria-invalid", "true"); if (!field) field = id; };
   for (const [id, key, label] of [["target", "target", "Target"], ["lsl", "lsl", "LSL"], ["usl", "usl", "USL"]]) {
     const v = parseNum($(id).value);
     $(id).removeAttribute("aria-invalid");
     if (v === null) continue;
-    if (isNaN(v)) { errs.push(label + " \u201c" + $(id).value + "\u201d is not a number: type it like 5.0 or 5,0."); $(id).setAttribute("aria-invalid", "true"); continue; }
+    if (isNaN(v)) { errs.push(label + " \u201c" + $(id).value + "\u201d is not a number: type it like 5.0 or 5,0 (no unit)."); bad(id); continue; }
     o[key] = v;
   }
   if (o.lsl !== undefined && o.usl !== undefined && !(o.lsl < o.usl)) {
-    errs.push("LSL must be below USL."); $("lsl").setAttribute("aria-invalid", "true"); $("usl").setAttribute("aria-invalid", "true");
+    errs.push("LSL (" + $("lsl").value.trim() + ") must be below USL (" + $("usl").value.trim() + ")."); bad("lsl"); bad("usl");
   }
   const lo = $("leave-out").value.trim();
   $("leave-out").removeAttribute("aria-invalid");
@@ -40,38 +45,70 @@ export function readSettings() {
       state.leaveOutText = lo;
     } else {
       errs.push("Leave out rows: type row numbers separated by commas, e.g. 12, 40.");
-      $("leave-out").setAttribute("aria-invalid", "true");
+      bad("leave-out");
     }
   }
-  readOverTimeSettings(o, errs);
+  readOverTimeSettings(o, errs, bad);
   const u = $("unit").value.trim();
   if (u) o.unit = u;
   if (state.exclude.size) o.exclude = Array.from(state.exclude).sort((a, b) => a - b);
   const box = $("settings-error");
   box.hidden = !errs.length;
   box.textContent = errs.join(" ");
+  state.settingsError = errs.length ? { message: errs.join(" "), field } : null;
+  if (!errs.length) $("action-error").hidden = true;
   return errs.length ? null : o;
 }
 
-function buildRequest(options) {
-  const req = { schema: SCHEMA, options };
+// showActionError puts a settings error next to the buttons the user just
+// pressed and moves focus to the field to fix (the Settings box may be far
+// below the fold).
+function showActionError(err) {
+  const box = $("action-error");
+  box.replaceChildren(document.createTextNode("Settings need a fix before the analysis: " + err.message + " "));
+  box.hidden = false;
+  setStatus("Not analysed: a setting needs a fix.", true);
+  const f = err.field && $(err.field);
+  if (f) { f.focus(); if (f.select) f.select(); }
+}
+
+export function buildRequest(options) {
+  const req = { schema: SCHEMA, options: Object.assign({}, state.carried, options) };
   for (const k of ["value", "group", "order", "subgroup"]) if (state.cols[k]) req[k] = state.cols[k];
   if (state.source === "text") req.text = state.text;
   return req;
 }
 
-export async function analyseNow(t0) {
+// analyseNow runs the analysis of the current data with the settings.
+// how: fromAction (a button the user pressed: a settings error is shown
+// beside it and focus goes to the field), reveal (bring the verdict into
+// view on narrow screens), focus (where focus was, kept across the
+// re-render), notice (a sentence for the status line). A request equal to
+// the last one sent is not sent again (typing then pressing Analyse runs
+// once).
+export async function analyseNow(t0, how) {
+  how = how || {};
   const options = readSettings();
-  if (!options || !state.source) return;
+  if (!options) { if (how.fromAction && state.settingsError) showActionError(state.settingsError); return; }
+  if (!state.source) return;
+  const req = buildRequest(options);
+  const key = JSON.stringify([state.dataVersion, state.source, req.options, req.value, req.group, req.order, req.subgroup]);
+  if (key === state.lastKey) {
+    // the same request again: nothing new to show (a run in flight will
+    // show it); bring the report into view if the user asked
+    if (how.reveal && state.report && !state.busy) render({ reveal: true });
+    return;
+  }
+  state.lastKey = key;
   const token = ++state.runToken;
   const start = t0 || performance.now();
   setBusy(true, "Analysing…");
   let m;
   try {
     state.sentAt = performance.timeOrigin + performance.now();
-    m = await call({ type: "run", request: buildRequest(options), useTable: state.source === "file" });
+    m = await call({ type: "run", request: req, useTable: state.source === "file" });
   } catch (e) {
-    if (token === state.runToken) { setBusy(false); setStatus(String(e.message || e), true); }
+    if (token === state.runToken) { setBusy(false); setStatus(String(e.message || e), true); state.lastKey = ""; }
     return;
   }
   if (token !== state.runToken) return; // a newer run superseded this one
@@ -81,8 +118,11 @@ export async function analyseNow(t0) {
   const err = errorOf(res);
   if (err) {
     showError(err);
-    $("report").hidden = true;
-    $("preview-box").hidden = true;
+    // the report goes; the column pickers stay, so that a refused column
+    // choice can be changed back
+    $("report").hidden = true; $("preview-box").hidden = true;
+    document.body.classList.remove("has-report");
+    state.lastKey = "";
     document.body.dataset.state = "error";
     return;
   }
@@ -90,7 +130,8 @@ export async function analyseNow(t0) {
   state.report = res;
   state.svg = m.svg || {};
   state.when = new Date();
-  render();
+  $("action-error").hidden = true;
+  render({ focus: how.focus, reveal: how.reveal });
   const t2 = performance.now();
   state.analyses++;
   state.timing = { engineMs: t1 - start, workerMs: m.ms, renderMs: t2 - t1, totalMs: t2 - start };
@@ -100,10 +141,21 @@ export async function analyseNow(t0) {
     state.timing.beforeSendMs = state.sentAt - (performance.timeOrigin + start);
   }
   const rep = state.report;
-  setStatus("Analysed " + rep.counts.used + " values" + (rep.counts.excluded ? " (" + rep.counts.excluded + " left out by you)" : "") +
+  setStatus((how.notice ? how.notice + " " : "") + "Analysed " + count(rep.counts.used, "value") + (rep.counts.excluded ? " (" + rep.counts.excluded + " left out by you)" : "") +
     " in " + Math.round(t2 - start) + " ms. " + rep.input.summary);
+  if (state.bigText && state.source === "text") describeBigText(rep);
   document.body.dataset.state = "report";
   document.body.dataset.analysed = String(state.analyses);
+}
+
+// clearReport takes the last report off the screen (after an error, so
+// that no old figures stand under a new file's name).
+function clearReport() {
+  state.report = null; state.svg = {};
+  $("report").hidden = true; $("preview-box").hidden = true; $("columns").hidden = true;
+  $("cards").replaceChildren();
+  document.body.classList.remove("has-report");
+  renderExclusions();
 }
 
 function setBusy(on, msg) {
@@ -119,9 +171,21 @@ function currentText() { return data.value.trim() === "" && state.bigText ? stat
 function holdBigText(text) {
   state.bigText = text;
   data.value = "";
-  const lines = (text.match(/\n/g) || []).length + 1;
-  data.placeholder = "Pasted " + lines.toLocaleString() + " lines (" + sizeText(text.length) + "); kept out of this box so the page stays quick. Press \u201cEdit the pasted text\u201d to change them, or paste again to replace them.";
+  data.placeholder = "Pasted " + lineCount(text).toLocaleString() + " lines (" + sizeText(text.length) + "); kept out of this box so the page stays quick. Press \u201cEdit the pasted text\u201d to change them, or paste again to replace them.";
   $("edit-big").hidden = false;
+}
+// lineCount counts lines as an editor shows them: a last line break does
+// not start another line.
+function lineCount(text) {
+  const n = (text.match(/\r\n|\n|\r/g) || []).length;
+  return text === "" ? 0 : n + (/(\r\n|\n|\r)$/.test(text) ? 0 : 1);
+}
+// describeBigText says, once analysed, what the held text holds.
+function describeBigText(rep) {
+  const rd = rep.input.reader || {};
+  data.placeholder = "Pasted " + lineCount(state.bigText).toLocaleString() + " lines (" + sizeText(state.bigText.length) + "): " +
+    count(rep.counts.used, "value") + " used" + (rd.headerRow ? ", header in row " + rd.headerRow : "") +
+    ". Kept out of this box so the page stays quick. Press \u201cEdit the pasted text\u201d to change them, or paste again to replace them.";
 }
 function dropBigText() {
   state.bigText = "";
@@ -129,22 +193,70 @@ function dropBigText() {
   data.placeholder = "5.12\n5.08\n5.10\n\u2026";
 }
 
-function analyseText(t0) {
+function analyseText(t0, how) {
+  how = Object.assign({}, how);
   const text = currentText();
   if (!text.trim()) { setStatus("Nothing to analyse: paste values into the box, open a file or try the demo.", true); return; }
   if (state.source !== "text" || text !== state.text) {
     if (state.source === "file") call({ type: "forget" });
+    const edited = state.source === "text" && state.text !== "";
+    const keep = edited ? remapExclusions(state.text, text) : null;
+    const sameHeader = edited && firstLine(state.text) === firstLine(text);
+    const cols = state.cols;
     resetForNewData();
+    if (keep) {
+      for (const [from, to] of keep.rows) {
+        state.exclude.add(to);
+        if (keep.reasons.has(from)) state.reasons.set(to, keep.reasons.get(from));
+      }
+      state.leaveOutRows = keep.typed; state.leaveOutText = keep.typed.join(", "); $("leave-out").value = state.leaveOutText;
+      if (sameHeader) state.cols = cols;
+      how.notice = keep.notice;
+    }
     state.source = "text"; state.file = null; state.text = text; state.hasTable = false;
     state.sourceName = "";
   }
-  return analyseNow(t0);
+  return analyseNow(t0, how);
+}
+
+function linesOf(t) { return t.split(/\r\n|\n|\r/); }
+function firstLine(t) { return linesOf(t)[0]; }
+// remapExclusions keeps each left-out row that still holds the same text
+// after the pasted text was edited: at the same row, or, when its line is
+// unique in both texts, at the row it moved to. The others are put back and
+// named in the notice.
+function remapExclusions(oldText, newText) {
+  const a = linesOf(oldText), b = linesOf(newText);
+  const index = (ls) => { const m = new Map(); ls.forEach((l, i) => { const e = m.get(l); if (e) e.n++; else m.set(l, { i, n: 1 }); }); return m; };
+  const ia = index(a), ib = index(b);
+  const rows = new Map(), reasons = new Map(), dropped = [], moved = [];
+  for (const row of Array.from(state.exclude).sort((x, y) => x - y)) {
+    const line = a[row - 1];
+    if (state.reasons.has(row)) reasons.set(row, state.reasons.get(row));
+    if (line !== undefined && b[row - 1] === line) { rows.set(row, row); continue; }
+    const ea = line !== undefined && ia.get(line), eb = line !== undefined && ib.get(line);
+    if (line !== undefined && line.trim() && ea && ea.n === 1 && eb && eb.n === 1) { rows.set(row, eb.i + 1); moved.push("row " + row + " is now row " + (eb.i + 1)); continue; }
+    dropped.push("row " + row + (line !== undefined && line.trim() ? " (" + line.trim() + ")" : ""));
+  }
+  const typed = (state.leaveOutRows || []).filter((r) => rows.has(r)).map((r) => rows.get(r));
+  let notice = "";
+  if (moved.length) notice += "Left-out readings kept after the edit: " + moved.join(", ") + ". ";
+  if (dropped.length) notice += "Put back after the edit, as the row no longer holds the same text: " + dropped.join(", ") + ".";
+  return { rows, reasons, typed, notice: notice.trim() };
 }
 
 async function analyseFile(file) {
   if (!file) return;
+  if (isSharedFile(file)) {
+    if (state.source === "file") call({ type: "forget" });
+    resetForNewData();
+    state.report = null; $("report").hidden = true;
+    await openShared(file, "file", "file");
+    return;
+  }
   resetForNewData();
   state.source = "file"; state.file = file; state.text = ""; state.hasTable = false; state.sourceName = file.name;
+  clearReport();
   const t0 = performance.now();
   const box = $("reading"), bar = $("progress");
   $("progress-label").textContent = "Reading " + file.name + " (" + sizeText(file.size) + ")…";
@@ -167,6 +279,7 @@ async function analyseFile(file) {
   if (err && err.code === "cancelled") {
     box.hidden = true;
     state.source = null; state.file = null;
+    clearReport();
     setStatus("Reading cancelled. Nothing was analysed.");
     document.body.dataset.state = "cancelled";
     return;
@@ -184,7 +297,7 @@ async function analyseFile(file) {
   dropBigText();
   data.placeholder = "Showing " + file.name + " (read from the file; paste here to analyse other data instead)";
   const readMs = performance.now() - t0;
-  await analyseNow(t0);
+  await analyseNow(t0, { reveal: true });
   box.hidden = true;
   if (state.timing) state.timing.readMs = readMs;
 }
@@ -212,44 +325,21 @@ $("cancel").addEventListener("click", () => {
 
 
 function toggleExclude(row) {
-  if (state.exclude.has(row)) state.exclude.delete(row); else state.exclude.add(row);
+  const focus = captureFocus();
+  if (state.exclude.has(row)) { state.exclude.delete(row); state.reasons.delete(row); } else state.exclude.add(row);
   // keep the typed list in step with the switches
   state.leaveOutRows = (state.leaveOutRows || []).filter((r) => state.exclude.has(r));
   state.leaveOutText = state.leaveOutRows.join(", ");
   $("leave-out").value = state.leaveOutText;
-  analyseNow();
+  analyseNow(undefined, { focus });
 }
-
-// ---------- shared link ----------
-export async function restoreFromHash() {
-  if (!location.hash.startsWith("#d=")) return false;
-  let p;
-  try { p = await readShareLink(location.hash); } catch (e) {
-    setStatus("This link's data could not be read (" + e.message + "). The link may be cut short: ask for the file instead.", true);
-    return false;
-  }
-  const o = p.options || {};
-  state.sourceName = p.name || "";
-  if (p.text.length > BIG_PASTE) holdBigText(p.text); else { dropBigText(); data.value = p.text; }
-  $("unit").value = o.unit || "";
-  for (const k of ["target", "lsl", "usl"]) $(k).value = o[k] !== undefined && o[k] !== null ? String(o[k]) : "";
-  if (o.confidence) $("confidence").value = String(o.confidence);
-  if (o.quantile) $("quantile").value = o.quantile;
-  $("decimal-mark").value = o.decimalMark || "";
-  restoreOverTimeSettings(o);
-  state.source = "text"; state.text = p.text; state.file = null;
-  state.exclude = new Set(o.exclude || []);
-  state.leaveOutRows = []; state.leaveOutText = ""; $("leave-out").value = "";
-  state.cols = Object.assign({ value: "", group: "", order: "", subgroup: "" }, p.cols || {});
-  await whenReady();
-  await analyseNow();
-  setStatus("Opened from a shared link" + (p.name ? " (" + p.name + ")" : "") + ". " + $("status").textContent);
-  return true;
+function reasonChanged() {
+  refreshPrintHead();
+  renderExclusions();
 }
-
 
 // ---------- wiring ----------
-$("analyse").addEventListener("click", () => analyseText());
+$("analyse").addEventListener("click", () => { clearTimeout(typing); analyseText(undefined, { fromAction: true, reveal: true }); });
 data.addEventListener("paste", (ev) => {
   const t0 = performance.now();
   const cd = ev.clipboardData && ev.clipboardData.getData("text/plain");
@@ -257,11 +347,12 @@ data.addEventListener("paste", (ev) => {
   if (cd && cd.length > BIG_PASTE && whole) {
     ev.preventDefault();
     holdBigText(cd);
-    analyseText(t0);
+    analyseText(t0, { reveal: true });
     return;
   }
   if (state.bigText && whole) dropBigText();
-  setTimeout(() => analyseText(t0), 0); // after the pasted text is in the box
+  clearTimeout(typing);
+  setTimeout(() => analyseText(t0, { reveal: true }), 0); // after the pasted text is in the box
 });
 $("edit-big").addEventListener("click", () => {
   const t = state.bigText;
@@ -288,16 +379,16 @@ $("demo").addEventListener("click", async () => {
     dropBigText();
     data.value = await (await fetch("demo/capsule-fill.tsv")).text();
   } catch (e) { setStatus("The demo data could not be loaded: " + e, true); return; }
-  analyseText();
+  analyseText(undefined, { fromAction: true, reveal: true });
   state.sourceName = "demo";
 });
 $("clear").addEventListener("click", () => {
   if (state.source === "file") call({ type: "forget" });
   data.value = ""; dropBigText();
   resetForNewData();
-  state.source = null; state.text = ""; state.file = null; state.report = null; state.sourceName = "";
-  $("report").hidden = true; $("preview-box").hidden = true; $("columns").hidden = true; $("exclusions").hidden = true;
-  if (location.hash) history.replaceState(null, "", location.pathname);
+  state.source = null; state.text = ""; state.file = null; state.sourceName = ""; state.lastKey = "";
+  clearReport(); $("action-error").hidden = true; $("exclusions").hidden = true;
+  if (location.hash || location.search) history.replaceState(null, "", location.pathname);
   setStatus("Cleared.");
   data.focus();
 });
@@ -312,7 +403,7 @@ drop.addEventListener("drop", (ev) => {
   const dt = ev.dataTransfer;
   if (dt && dt.files && dt.files.length) { analyseFile(dt.files[0]); return; }
   const t = dt && dt.getData("text/plain");
-  if (t) { data.value = t; analyseText(); }
+  if (t) { dropBigText(); data.value = t; analyseText(undefined, { reveal: true }); }
 });
 // A file dropped elsewhere must not make the browser navigate away.
 window.addEventListener("dragover", (ev) => ev.preventDefault());
@@ -331,3 +422,4 @@ $("precision").addEventListener("change", (ev) => { state.full = ev.target.check
 
 actions.analyse = analyseNow;
 actions.toggleExclude = toggleExclude;
+actions.reasonChanged = reasonChanged;

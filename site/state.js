@@ -15,6 +15,7 @@ export const state = {
   sourceName: "",   // shown beside the preview: the file's name, "demo", or a shared link's name
   hasTable: false,  // the engine keeps the file's table
   exclude: new Set(),
+  reasons: new Map(), // row -> the reason the user typed for leaving it out
   leaveOutRows: [], // rows typed in "Leave out rows"
   leaveOutText: "",
   allSuspects: false,
@@ -28,15 +29,23 @@ export const state = {
   timing: null,
   sentAt: 0,
   runToken: 0,      // the latest analysis; older answers are dropped
+  lastKey: "",      // the last request sent (data version, settings, columns): not sent twice
+  dataVersion: 0,   // counts changes of the data (new paste, edit, file, link)
+  settingsError: null, // {message, field} while a setting is invalid
   bigText: "",      // a large paste kept out of the text box
   tip: { row: null, fig: null, index: -1 }, // the chart point whose tip is shown
+  shared: null,     // the data came from a shared payload: {how, created, name, fingerprint, bytes} (share.js)
+  reasons: new Map(), // row -> the user's reason for leaving it out (carried in a share payload)
+  carried: {},      // options of a shared payload the page has no field for (kept for re-runs)
 };
 
-// actions are set by input.js: analyse (run the analysis again) and
-// toggleExclude(row).
+// actions are set by input.js: analyse (run the analysis again),
+// toggleExclude(row) and reasonChanged(row); by cards.js: render.
 export const actions = {
   analyse: () => {},
   toggleExclude: () => {},
+  render: () => {},       // draw the report again (set by cards.js)
+  reasonChanged: () => {}, // a reason was typed (set by input.js)
 };
 
 export function setStatus(msg, isError) {

@@ -8,7 +8,6 @@ import (
 	"encoding/hex"
 	"encoding/json"
 	"errors"
-	"fmt"
 	"io"
 	"math"
 	"reflect"
@@ -93,27 +92,29 @@ func AnalyzeTable(tab *ingest.Table, fingerprint string, req Request) (*Report, 
 		infos[i] = c.ColumnInfo
 	}
 	rep := newReport(fingerprint, cv, opts)
+	w := wordsFor(rep)
 	rep.Input.Columns = infos
 	rep.Input.Summary = tab.Summary()
 	rep.Input.Reader = readerDecisions(tab)
 	// clipped: appending to the report's list must never write into the
 	// reader's array (the page analyses one table many times)
 	rep.Input.Problems = slices.Clip(tab.Problems)
-	if probs, counts := cols.incompleteRows(maxIncompleteListed); len(counts) > 0 {
+	if probs, counts := cols.incompleteRows(w, maxIncompleteListed); len(counts) > 0 {
 		rep.Input.Problems = append(rep.Input.Problems, probs...)
 		for _, key := range []string{"order", "subgroup", "group"} {
 			if k := counts[key]; k > maxIncompleteListed {
-				rep.Notes = append(rep.Notes, Note{Field: "input.problems", Text: fmt.Sprintf("%d rows have a value but no usable %s; the first %d are listed", k, key, maxIncompleteListed)})
+				rep.Notes = append(rep.Notes, Note{Field: "input.problems", Text: w.incompleteMore(k, key, maxIncompleteListed)})
 			}
 		}
 	}
 	cv.seq, cv.outOfOrder = cols.orderSequence()
+	cv.subgroup = cols.subgroup
 	if cols.order != nil {
 		rep.Input.Order = cols.order.Name
 	}
 	analyzeColumn(rep, cv, opts)
 	if cv.outOfOrder > 0 {
-		rep.Notes = append(rep.Notes, Note{Field: "charts.series", Text: fmt.Sprintf("%d rows are not in the order of column %q; the series over time follows that column, not the rows", cv.outOfOrder, cols.order.Name)})
+		rep.Notes = append(rep.Notes, Note{Field: "charts.series", Text: w.outOfOrder(cv.outOfOrder, cols.order.Name)})
 	}
 	return rep, nil
 }
@@ -133,7 +134,8 @@ type colView struct {
 	// into vals), from the request's order column; nil means row order.
 	seq        []int32
 	outOfOrder int // rows out of order in the file, by the order column
-	// order and subgroup are the request's columns (nil when not chosen)
+	// order and subgroup are the request's columns (nil when none);
+	// subgroup is aligned with vals.
 	order, subgroup *ingest.Column
 }
 
@@ -190,17 +192,29 @@ func checkOptions(o Options) (Options, error) {
 	}
 	if math.IsNaN(o.Confidence) || o.Confidence <= 0 || o.Confidence >= 1 {
 		if o.Confidence > 1 && o.Confidence < 100 {
-			return o, errorf(CodeBadOption, "options.confidence", "confidence %g is not between 0 and 1: for %g%% use %g", o.Confidence, o.Confidence, o.Confidence/100)
+			return o, errorf(CodeBadOption, "options.confidence", "confidence %s is not between 0 and 1: for %s%% use %s", plainNum(o.Confidence), plainNum(o.Confidence), plainNum(o.Confidence/100))
 		}
-		return o, errorf(CodeBadOption, "options.confidence", "confidence %g is not between 0 and 1: use e.g. 0.95 for 95%%", o.Confidence)
+		return o, errorf(CodeBadOption, "options.confidence", "confidence %s is not between 0 and 1: use e.g. 0.95 for 95%%", plainNum(o.Confidence))
 	}
 	if o.Confidence < 0.5 {
-		return o, errorf(CodeBadOption, "options.confidence", "confidence %g is below 0.5: use a level such as 0.90, 0.95 or 0.99", o.Confidence)
+		return o, errorf(CodeBadOption, "options.confidence", "confidence %s is below 0.5: use a level such as 0.90, 0.95 or 0.99", plainNum(o.Confidence))
 	}
 	switch o.DecimalMark {
 	case "", "comma", "point":
 	default:
 		return o, errorf(CodeBadOption, "options.decimalMark", "decimal mark %q is not known: use \"comma\", \"point\" or leave it empty to decide from the data", o.DecimalMark)
+	}
+	if o.Coverage == 0 {
+		o.Coverage = DefaultCoverage
+	}
+	if !(o.Coverage >= 0.5 && o.Coverage < 1) {
+		return o, errorf(CodeBadOption, "options.coverage", "coverage %s is not between 0.5 and 1: use e.g. 0.99 for 99 %% of parts", plainNum(o.Coverage))
+	}
+	if o.CpkGoal == 0 {
+		o.CpkGoal = DefaultCpkGoal
+	}
+	if !(o.CpkGoal > 0 && o.CpkGoal <= 10) {
+		return o, errorf(CodeBadOption, "options.cpkGoal", "Cpk goal %s is not between 0 and 10: use e.g. 1.33 or 1.67", plainNum(o.CpkGoal))
 	}
 	if o.Quantile == "" {
 		o.Quantile = DefaultQuantile
@@ -221,7 +235,7 @@ func checkOptions(o Options) (Options, error) {
 		return o, err
 	}
 	if o.LSL != nil && o.USL != nil && *o.LSL >= *o.USL {
-		return o, errorf(CodeBadOption, "options.lsl", "the lower specification limit %g is not below the upper limit %g: swap them or correct one", *o.LSL, *o.USL)
+		return o, errorf(CodeBadOption, "options.lsl", "the lower specification limit %s is not below the upper limit %s: swap them or correct one", plainNum(*o.LSL), plainNum(*o.USL))
 	}
 	return o, nil
 }
@@ -231,7 +245,7 @@ func newReport(fingerprint string, cv *colView, opts Options) *Report {
 	if opts.Unit != "" {
 		unit = opts.Unit
 	}
-	return &Report{
+	rep := &Report{
 		Schema: ReportSchema,
 		Input: Input{
 			Fingerprint:  fingerprint,
@@ -246,15 +260,10 @@ func newReport(fingerprint string, cv *colView, opts Options) *Report {
 			LSL:        opts.LSL,
 			USL:        opts.USL,
 		},
-		Verdict: Verdict{Caution: standingCaution},
 	}
+	rep.Verdict.Caution = wordsFor(rep).caution()
+	return rep
 }
-
-// standingCaution is shown with every verdict.
-const standingCaution = "These figures describe the data as entered. Where a decision " +
-	"affects safety-critical parts, legal net quantity or medical products, follow the " +
-	"applicable local regulations, codes and licensed professional practice; this report " +
-	"does not replace them."
 
 // AnalyzeJSON is Analyze on JSON bytes: the form the page and automation use.
 // It always returns a JSON object: the report, or {"error": "..."}.
@@ -281,13 +290,19 @@ func ParseRequest(in []byte) (Request, error) {
 	if dec.More() {
 		return Request{}, errorf(CodeBadRequest, "", "the request has more than one JSON value: send one object")
 	}
-	if req.Options.Confidence == 0 {
+	if req.Options.Confidence == 0 || req.Options.Coverage == 0 || req.Options.CpkGoal == 0 {
 		var raw struct {
 			Options map[string]json.RawMessage `json:"options"`
 		}
 		if json.Unmarshal(in, &raw) == nil {
-			if _, given := raw.Options["confidence"]; given {
-				return Request{}, errorf(CodeBadOption, "options.confidence", "confidence 0 is not a confidence level: use e.g. 0.95 for 95%%, or leave it out for the default 0.95")
+			for _, k := range []struct {
+				key  string
+				zero bool
+				def  string
+			}{{"confidence", req.Options.Confidence == 0, "0.95"}, {"coverage", req.Options.Coverage == 0, "0.99"}, {"cpkGoal", req.Options.CpkGoal == 0, "1.33"}} {
+				if _, given := raw.Options[k.key]; given && k.zero {
+					return Request{}, errorf(CodeBadOption, "options."+k.key, "%s 0 is not a usable setting: leave it out for the default %s", k.key, k.def)
+				}
 			}
 		}
 	}
@@ -315,10 +330,6 @@ func requestError(err error) error {
 	var te *json.UnmarshalTypeError
 	var se *json.SyntaxError
 	msg := err.Error()
-	var own *Error
-	if errors.As(err, &own) {
-		return own
-	}
 	switch {
 	case errors.As(err, &te):
 		field := te.Field

@@ -1,6 +1,7 @@
 package stats
 
 import (
+	"math"
 	"math/rand/v2"
 	"runtime"
 	"runtime/debug"
@@ -13,6 +14,7 @@ import (
 	"testing"
 	"time"
 
+	"lotlens/stats/decimal"
 	"lotlens/stats/ingest"
 )
 
@@ -199,7 +201,7 @@ func BenchmarkSort1M(b *testing.B) {
 	b.Run("radix", func(b *testing.B) {
 		for i := 0; i < b.N; i++ {
 			copy(xs, src)
-			sortFloats(xs)
+			decimal.SortFloats(xs)
 		}
 	})
 	b.Run("slices.Sort", func(b *testing.B) {
@@ -210,21 +212,40 @@ func BenchmarkSort1M(b *testing.B) {
 	})
 }
 
-// BenchmarkCoreNoMethods1M is the engine without the methods' sections
-// (shape, probability plot, suspects, target): the core's own share.
-func BenchmarkCoreNoMethods1M(b *testing.B) {
+// BenchmarkAnalyzeSpec1M is the full analysis with both limits and a
+// target (the spec section on top of Analyze1M); BenchmarkAnalyzeSpecSkewed1M
+// the same on right-skewed readings (lognormal, typed to 0.01), where the
+// normal is rejected and the candidate distributions are fitted.
+func BenchmarkAnalyzeSpec1M(b *testing.B) {
 	text := benchData(1_000_000)
-	tab, err := ingest.Read(text)
-	if err != nil {
-		b.Fatal(err)
-	}
-	s, p, o, t := hookShape, hookProbPlot, hookOutliers, hookTarget
-	hookShape, hookProbPlot, hookOutliers, hookTarget = nil, nil, nil, nil
-	defer func() { hookShape, hookProbPlot, hookOutliers, hookTarget = s, p, o, t }()
+	lsl, usl, target := 495.0, 505.0, 500.0
+	b.SetBytes(int64(len(text)))
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
-		if _, err := AnalyzeTable(tab, "", Request{}); err != nil {
+		if _, err := Analyze(Request{Text: text, Options: Options{LSL: &lsl, USL: &usl, Target: &target}}); err != nil {
 			b.Fatal(err)
+		}
+	}
+}
+
+func BenchmarkAnalyzeSpecSkewed1M(b *testing.B) {
+	r := rand.New(rand.NewPCG(13, 14))
+	var sb strings.Builder
+	for i := 0; i < 1_000_000; i++ {
+		sb.WriteString(strconv.FormatFloat(2+math.Exp(1.9+0.45*r.NormFloat64()), 'f', 2, 64))
+		sb.WriteByte('\n')
+	}
+	text := sb.String()
+	usl := 40.0
+	b.SetBytes(int64(len(text)))
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		rep, err := Analyze(Request{Text: text, Options: Options{USL: &usl}})
+		if err != nil {
+			b.Fatal(err)
+		}
+		if rep.Spec == nil || rep.Spec.Model == nil {
+			b.Fatal("no fitted model")
 		}
 	}
 }

@@ -3,8 +3,72 @@ package stats
 import (
 	"iter"
 	"math"
-	"sort"
+
+	"lotlens/stats/method"
 )
+
+// Charts carries what the chart package draws. Long series are thinned
+// (Thinned says so) so that the report stays small for any n.
+type Charts struct {
+	Histogram Histogram  `json:"histogram"`
+	Box       Box        `json:"box"`
+	ProbPlot  ProbPlot   `json:"probPlot"`
+	Series    []SeriesPt `json:"series"`
+	Thinned   bool       `json:"thinned,omitempty"`
+}
+
+// Histogram bins: Edges has len(Counts)+1 entries.
+type Histogram struct {
+	Rule   string    `json:"rule"` // "freedman-diaconis" or "sturges"
+	Edges  []float64 `json:"edges"`
+	Counts []int     `json:"counts"`
+}
+
+// Box is the box-plot elements under the chosen quantile definition.
+type Box struct {
+	// Quantile is the definition of the quartiles and fences
+	// (settings.quantile).
+	Quantile  string  `json:"quantile"`
+	Q1        float64 `json:"q1"`
+	Median    float64 `json:"median"`
+	Q3        float64 `json:"q3"`
+	LoWhisker float64 `json:"loWhisker"`
+	HiWhisker float64 `json:"hiWhisker"`
+	InnerLo   float64 `json:"innerLo"`
+	InnerHi   float64 `json:"innerHi"`
+	OuterLo   float64 `json:"outerLo"`
+	OuterHi   float64 `json:"outerHi"`
+}
+
+// ProbPlot is a normal probability plot: theoretical quantile Z against the
+// ordered value Y, with a pointwise confidence band around the fitted line.
+type ProbPlot struct {
+	Positions string     `json:"positions"` // plotting positions, e.g. "Blom (i-3/8)/(n+1/4)"
+	Points    []ProbPt   `json:"points"`
+	Band      []BandPt   `json:"band"`
+	Line      [2]float64 `json:"line"` // intercept, slope (mean, SD)
+}
+
+// ProbPt is one point of the probability plot.
+type ProbPt struct {
+	Z   float64 `json:"z"`
+	Y   float64 `json:"y"`
+	Row int     `json:"row"`
+}
+
+// BandPt is the band at one theoretical quantile.
+type BandPt struct {
+	Z  float64 `json:"z"`
+	Lo float64 `json:"lo"`
+	Hi float64 `json:"hi"`
+}
+
+// SeriesPt is one value in data order.
+type SeriesPt struct {
+	I   int     `json:"i"` // position in data order (0-based)
+	Row int     `json:"row"`
+	Y   float64 `json:"y"`
+}
 
 // maxBins bounds the histogram (heavy tails can ask the Freedman-Diaconis
 // rule for thousands of bins).
@@ -31,6 +95,20 @@ func histogram(sorted []float64, iqr, step float64) Histogram {
 		h.Rule = "single-value"
 		h.Edges = []float64{lo - w/2, lo + w/2}
 		h.Counts = []int{n}
+		return h
+	}
+	if !finite(hi - lo) {
+		// values near ±1.8e308: the range overflows; Sturges bins with
+		// edges interpolated between the ends
+		h.Rule = "sturges"
+		k := int(math.Ceil(math.Log2(float64(n)))) + 1
+		h.Edges = make([]float64, k+1)
+		for i := range h.Edges {
+			t := float64(i) / float64(k)
+			h.Edges[i] = lo*(1-t) + hi*t
+		}
+		h.Edges[0], h.Edges[k] = lo, hi
+		h.Counts = binCounts(sorted, h.Edges)
 		return h
 	}
 	width := 2 * iqr / math.Cbrt(float64(n))
@@ -63,16 +141,23 @@ func histogram(sorted []float64, iqr, step float64) Histogram {
 	if h.Edges[k] < hi {
 		h.Edges[k] = hi
 	}
-	h.Counts = make([]int, k)
-	// values are sorted: walk the edges once
+	h.Counts = binCounts(sorted, h.Edges)
+	return h
+}
+
+// binCounts counts the sorted values in the bins of edges (the last bin
+// holds its upper edge): one walk over the edges.
+func binCounts(sorted []float64, edges []float64) []int {
+	k := len(edges) - 1
+	counts := make([]int, k)
 	b := 0
 	for _, x := range sorted {
-		for b < k-1 && x >= h.Edges[b+1] {
+		for b < k-1 && x >= edges[b+1] {
 			b++
 		}
-		h.Counts[b]++
+		counts[b]++
 	}
-	return h
+	return counts
 }
 
 // modalClass is the histogram bin holding the most values (the first when
@@ -92,31 +177,26 @@ func modalClass(h Histogram) [2]float64 {
 
 // boxElements are the box plot of Tukey (1977): box from Q1 to Q3, whiskers
 // to the most extreme values within the inner fences (1.5 IQR beyond the
-// quartiles), outer fences at 3 IQR.
-func boxElements(sorted []float64, q1, med, q3 float64) Box {
-	iqr := q3 - q1
-	b := Box{Q1: q1, Median: med, Q3: q3,
-		InnerLo: q1 - 1.5*iqr, InnerHi: q3 + 1.5*iqr,
-		OuterLo: q1 - 3*iqr, OuterHi: q3 + 3*iqr}
-	i := sort.SearchFloat64s(sorted, b.InnerLo) // first value >= inner fence
-	if i >= len(sorted) {
-		i = len(sorted) - 1
-	}
-	b.LoWhisker = math.Min(sorted[i], q1)
-	j := sort.Search(len(sorted), func(k int) bool { return sorted[k] > b.InnerHi }) - 1
-	if j < 0 {
-		j = 0
-	}
-	b.HiWhisker = math.Max(sorted[j], q3)
+// quartiles), outer fences at 3 IQR. On decimal data the fences are exact
+// and a reading on a fence is within it (the whisker reaches it).
+func boxElements(s *sample) Box {
+	inLo, inHi := s.fences(s.q1, s.q3, 3, 2)
+	outLo, outHi := s.fences(s.q1, s.q3, 3, 1)
+	b := Box{Quantile: s.defCode, Q1: s.q1.f, Median: s.qmed.f, Q3: s.q3.f,
+		InnerLo: inLo.f, InnerHi: inHi.f, OuterLo: outLo.f, OuterHi: outHi.f}
+	n := s.n
+	i := min(s.countBelow(inLo), n-1) // first value >= inner fence
+	b.LoWhisker = math.Min(s.sorted[i], b.Q1)
+	j := max(n-1-s.countAbove(inHi), 0) // last value <= inner fence
+	b.HiWhisker = math.Max(s.sorted[j], b.Q3)
 	return b
 }
 
 // fenceCounts counts values beyond the inner and the outer fences.
-func fenceCounts(sorted []float64, b Box) (inner, outer int) {
-	n := len(sorted)
-	below := func(f float64) int { return sort.SearchFloat64s(sorted, f) }
-	above := func(f float64) int { return n - sort.Search(n, func(i int) bool { return sorted[i] > f }) }
-	return below(b.InnerLo) + above(b.InnerHi), below(b.OuterLo) + above(b.OuterHi)
+func fenceCounts(s *sample) (inner, outer int) {
+	inLo, inHi := s.fences(s.q1, s.q3, 3, 2)
+	outLo, outHi := s.fences(s.q1, s.q3, 3, 1)
+	return s.countBelow(inLo) + s.countAbove(inHi), s.countBelow(outLo) + s.countAbove(outHi)
 }
 
 // series is the data-order series of the used values. Above maxChartPoints
@@ -208,4 +288,36 @@ func (cv *colView) inOrder() iter.Seq[int] {
 			}
 		}
 	}
+}
+
+// probBandMaxPoints bounds the band points of the normal probability plot
+// (both tails dense); its positions are named by probPlotPositions.
+const probBandMaxPoints = 120
+
+// probPlot gives the normal probability plot of the sorted data: the i-th
+// smallest value against Blom's (1958) position (method.BlomPosition), the
+// fitted line y = mean + sd·z, and the pointwise band at level conf around
+// it (method.OrderStatBand; the band ignores the estimation of mean and SD,
+// as is usual for such bands). Points are thinned to at most maxPoints
+// (method.ThinIndices). The caller fills the rows.
+func probPlot(sorted []float64, mean, sd, conf float64, maxPoints int) ProbPlot {
+	n := len(sorted)
+	pp := ProbPlot{Positions: probPlotPositions, Points: []ProbPt{}, Band: []BandPt{}, Line: [2]float64{mean, sd}}
+	if n < 3 || !(sd > 0) || !finite(sd) || !finite(mean) {
+		return pp
+	}
+	if !(conf > 0 && conf < 1) {
+		conf = 0.95
+	}
+	for _, i := range method.ThinIndices(n, maxPoints) {
+		pp.Points = append(pp.Points, ProbPt{Z: method.BlomPosition(i+1, n), Y: sorted[i]})
+	}
+	for _, i := range method.ThinIndices(n, probBandMaxPoints) {
+		zl, zh := method.OrderStatBand(i+1, n, conf)
+		lo, hi := mean+sd*zl, mean+sd*zh
+		if finite(lo) && finite(hi) {
+			pp.Band = append(pp.Band, BandPt{Z: method.BlomPosition(i+1, n), Lo: lo, Hi: hi})
+		}
+	}
+	return pp
 }

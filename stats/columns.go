@@ -21,7 +21,7 @@ import (
 // reads a column: add its name here.
 var columnReaders = map[string][]string{
 	"order":    {"over time (run chart, control charts)"},
-	"subgroup": {"over time (control charts)"},
+	"subgroup": {"over time (control charts)", "against the spec (within-process sigma)"},
 	"group":    nil,
 }
 
@@ -120,7 +120,7 @@ func partnerMissing(c *ingest.Column, i int) bool {
 // readings stay in the whole-column figures and are left out of the
 // sections that read the column. At most limit problems are listed per
 // column; the count is returned whole.
-func (cs *columnSet) incompleteRows(limit int) (probs []ingest.Problem, counts map[string]int) {
+func (cs *columnSet) incompleteRows(w words, limit int) (probs []ingest.Problem, counts map[string]int) {
 	counts = map[string]int{}
 	v := cs.value
 	for _, r := range []struct {
@@ -136,10 +136,10 @@ func (cs *columnSet) incompleteRows(limit int) (probs []ingest.Problem, counts m
 			}
 			counts[r.key]++
 			if counts[r.key] <= limit {
+				why, action := w.incomplete(v.Text(i), r.key, columnReaders[r.key])
 				probs = append(probs, ingest.Problem{
 					Row: int(v.Rows[i]), Col: r.c.Position, Column: r.c.Name, Text: r.c.Text(i), Kind: KindIncomplete,
-					Reason: fmt.Sprintf("the value %s is used, but this row has no usable %s", v.Text(i), r.key),
-					Action: "left out of " + strings.Join(columnReaders[r.key], " and "),
+					Reason: why, Action: action,
 				})
 			}
 		}

@@ -1,25 +1,19 @@
 package stats
 
 import (
-	"fmt"
 	"math"
 	"sort"
 	"strconv"
-	"strings"
 
+	"lotlens/stats/decimal"
 	"lotlens/stats/ingest"
 )
 
-// percentilePoints are the percentiles every report gives (in percent):
-// 0.135 and 99.865 are the ±3σ points of a normal distribution.
-var percentilePoints = []float64{0.135, 1, 5, 95, 99, 99.865}
-
-// percentileProbs are the same points as probabilities, written out so that
-// no rounding of p/100 changes which order statistics are used.
-var percentileProbs = []float64{0.00135, 0.01, 0.05, 0.95, 0.99, 0.99865}
-
-// analyzeColumn fills every section of rep from the value column.
+// analyzeColumn fills every section of rep from the value column: the
+// first pass (exclusions, exact sums), the sort, then one builder per
+// section, in order.
 func analyzeColumn(rep *Report, cv *colView, opts Options) {
+	w := wordsFor(rep)
 	// Exclusions: the user's choice, listed, never deleted.
 	var excl map[int32]bool
 	if len(opts.Exclude) > 0 {
@@ -28,7 +22,7 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 			if r > 0 && r <= math.MaxInt32 {
 				excl[int32(r)] = true
 			} else {
-				rep.Notes = append(rep.Notes, Note{Field: "settings.excluded", Text: fmt.Sprintf("row %d in the exclusion list is not a row of the data; ignored", r)})
+				rep.Notes = append(rep.Notes, Note{Field: "settings.excluded", Text: w.excludeNotARow(r)})
 			}
 		}
 	}
@@ -36,7 +30,7 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 
 	vals, dec, rows := cv.vals, cv.dec, cv.rows
 	xs := make([]float64, 0, len(vals))
-	ea := exactAcc{ok: true}
+	onGrid := true // every value a plain decimal held exactly
 	maxD := int8(0)
 	allFixed := true
 	found := map[int32]bool{}
@@ -47,7 +41,8 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 		if math.IsInf(x, 0) {
 			// the reader should not pass these; never let one into the figures
 			rep.Counts.Rejected++
-			rep.Input.Problems = append(rep.Input.Problems, ingest.Problem{Row: int(rows[i]), Column: cv.name, Text: cv.text(i), Kind: "not-a-number", Reason: "not a finite number", Action: "left out"})
+			why, action := w.notFinite()
+			rep.Input.Problems = append(rep.Input.Problems, ingest.Problem{Row: int(rows[i]), Column: cv.name, Text: cv.text(i), Kind: "not-a-number", Reason: why, Action: action})
 			continue
 		}
 		if excl != nil && excl[rows[i]] {
@@ -62,18 +57,13 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 		} else if d > maxD {
 			maxD = d
 		}
-		if ea.ok {
-			m, ok := mantissa(x, d)
-			if ok {
-				ea.acc[d].add(m)
-			} else {
-				ea.ok = false
-			}
+		if onGrid {
+			_, onGrid = decimal.Mantissa(x, int(d))
 		}
 	}
 	for r := range excl {
 		if !found[r] {
-			rep.Notes = append(rep.Notes, Note{Field: "settings.excluded", Text: fmt.Sprintf("row %d is listed for exclusion but holds no number in column %q; nothing to exclude there", r, cv.name)})
+			rep.Notes = append(rep.Notes, Note{Field: "settings.excluded", Text: w.excludeNoNumber(int(r), cv.name)})
 		}
 	}
 	sort.Slice(rep.Notes, func(i, j int) bool { return rep.Notes[i].Text < rep.Notes[j].Text })
@@ -91,25 +81,42 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	}
 	if n == 0 {
 		rep.Verdict.Quote = ""
-		rep.Verdict.Reasons = []Reason{{Code: "no-data", Text: "No values are left to analyse: every number is excluded. Remove exclusions to see figures."}}
-		rep.Notes = append(rep.Notes, Note{Field: "counts.used", Text: "no values left after the exclusions"})
+		rep.Verdict.Reasons = []Reason{{Code: "no-data", Text: w.noDataReason()}}
+		rep.Notes = append(rep.Notes, Note{Field: "counts.used", Text: w.noDataNote()})
 		return
 	}
 
+	// The decimal grid: every value a plain decimal with at most maxD
+	// decimals (checked value by value in the sums).
+	var grid decimal.Grid
+	if allFixed && onGrid {
+		grid, _ = decimal.NewGrid(int(maxD))
+	}
 	sorted := xs
-	if !allFixed || !countSortFixed(sorted, int(maxD)) {
-		sortFloats(sorted)
+	if !grid.CountSort(sorted) {
+		decimal.SortFloats(sorted)
 	}
 	xs = nil
 	lo, hi := sorted[0], sorted[n-1]
 
-	mo, ok := ea.moments()
-	if !ok {
+	// Moments: exact sums of powers on the grid, else compensated binary.
+	var mo moments
+	var ps *decimal.PowerSums
+	if grid.Valid() && grid.Holds(sorted) {
+		p := grid.PowerSums(sorted)
+		if dm, ok := p.Moments(grid); ok {
+			mo, ps = fromDecimal(dm), &p
+		}
+	}
+	if ps == nil {
 		mo = compensatedMoments(sorted, lo, hi)
 	}
-	constant := lo == hi
-	if constant {
-		mo.mean, mo.sd, mo.popSD, mo.varN1, mo.varN, mo.varInf = lo, 0, 0, 0, 0, false
+	s := newSample(sorted, grid, mo, quantileDef(opts.Quantile), opts.Quantile)
+	if s.constant {
+		s.mo.mean, s.mo.sd, s.mo.popSD, s.mo.varN1, s.mo.varN, s.mo.varInf = lo, 0, 0, 0, 0, false
+	}
+	if !s.exact {
+		rep.Notes = append(rep.Notes, Note{Field: "counts.decimals", Text: w.binaryPath(allFixed)})
 	}
 
 	// Counts: distinct values, the effective step.
@@ -128,203 +135,100 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	}
 	rep.Counts.Distinct = distinct
 	step := 0.0
-	if allFixed {
-		step = effectiveStep(sorted, int(maxD))
+	if s.exact {
+		step = effectiveStep(s, distinct)
 		rep.Counts.Step = step
 	}
 
-	// Quantiles.
-	method := opts.Quantile
-	qs := &Quantiles{Method: method, Name: quantileNames[method], Min: lo, Max: hi}
-	qset := quartiles(sorted, method)
-	qs.Q1, qs.Median, qs.Q3 = qset.Q1, qset.Median, qset.Q3
-	for i, p := range percentilePoints {
-		qs.Percentiles = append(qs.Percentiles, Percentile{P: p, Value: quantile(sorted, percentileProbs[i], method)})
-	}
-	for _, m := range QuantileMethods {
-		qs.All = append(qs.All, quartiles(sorted, m))
-	}
-	fenceSensitivity(rep, qs, sorted, cv)
-	rep.Quantile = qs
-
-	median := quantileHF(sorted, 0.5, 7)
-
-	// Centre.
-	c := &Centre{Mean: mo.mean, Median: median, Trimmed10: trimmedMean(sorted, 0.1)}
-	if !constant {
-		c.MeanCI = meanCI(mo.mean, mo.sd, n, opts.Confidence)
-		if iv, ok := medianCI(sorted, opts.Confidence); iv != nil {
-			c.MedianCI = iv
-			if !ok {
-				rep.Notes = append(rep.Notes, Note{Field: "centre.medianCI", Text: fmt.Sprintf("with %d values no order-statistic interval reaches %s; the widest one (minimum to maximum) reaches %s", n, pct(opts.Confidence), pct(iv.Level))})
-			}
-		}
-	} else {
-		rep.Notes = append(rep.Notes, Note{Field: "centre.meanCI", Text: "all values are equal: no interval for the mean or the median can be computed"})
-	}
-	if n < 2 {
-		rep.Notes = append(rep.Notes, Note{Field: "centre.meanCI", Text: "one value: no interval, SD or shape can be computed"})
-	}
-	modes(c, sorted, maxRun, cv)
+	buildQuantiles(rep, w, s, cv)
+	c := buildCentre(rep, w, s, opts, maxRun, cv)
 	rep.Centre = c
+	rep.Spread = buildSpread(rep, w, s, opts)
 
-	// Spread.
-	rng := hi - lo
-	if mo.exact {
-		// exact on the decimal mantissas: 0.3 - 0.1 is 0.2, not 0.19999999999999998
-		p := pow10tab[mo.decMax]
-		if ml, okl := mantissa(lo, int8(mo.decMax)); okl {
-			if mh, okh := mantissa(hi, int8(mo.decMax)); okh {
-				rng = float64(mh-ml) / p
-			}
-		}
-	}
-	s := &Spread{Range: rng, SD: mo.sd, IQR: qs.Q3 - qs.Q1, MAD: 1.4826 * madRaw(sorted, median)}
-	if mo.varInf {
-		rep.Notes = append(rep.Notes, Note{Field: "spread.variance", Text: "the variance exceeds the largest double-precision number (1.8e308) and is omitted; the SD is given"})
+	// Shape, suspects, target.
+	if n >= 3 && !s.constant {
+		shape, notes := shapeSection(w, sorted, s.mo.mean, s.mo.sd, ps)
+		rep.Shape = shape
+		rep.Notes = append(rep.Notes, notes...)
+	} else if s.constant {
+		rep.Notes = append(rep.Notes, Note{Field: "shape", Text: w.shapeSectionConstant()})
 	} else {
-		v := mo.varN1
-		s.Variance = &v
+		rep.Notes = append(rep.Notes, Note{Field: "shape", Text: w.shapeSectionFew()})
 	}
-	if n >= 2 {
-		s.SEM = mo.sd / math.Sqrt(float64(n))
-		if !constant {
-			s.SDCI = sdCI(mo.sd, n, opts.Confidence)
-		}
-	} else {
-		s.SD = 0
-		rep.Notes = append(rep.Notes, Note{Field: "spread.sd", Text: "one value: the SD needs at least two (shown as 0)"})
-	}
-	if opts.PopulationSD {
-		p := mo.popSD
-		s.PopSD = &p
-	}
-	if mo.mean != 0 && (lo > 0 || hi < 0) && n >= 2 {
-		cvv := mo.sd / math.Abs(mo.mean)
-		s.CV = &cvv
-	} else if n >= 2 {
-		rep.Notes = append(rep.Notes, Note{Field: "spread.cv", Text: "the coefficient of variation is omitted: it needs values all of one sign (a ratio scale), and a mean other than 0"})
-	}
-	rep.Spread = s
-
-	// Methods: shape, probability plot, suspects, target.
-	var shape *Shape
-	if n >= 3 && !constant {
-		if hookShape != nil {
-			var notes []Note
-			shape, notes = hookShape(sorted, mo.mean, mo.sd)
-			rep.Notes = append(rep.Notes, notes...)
-		}
-	} else if constant {
-		rep.Notes = append(rep.Notes, Note{Field: "shape", Text: "all values are equal: shape statistics and normality tests cannot be computed"})
-	} else {
-		rep.Notes = append(rep.Notes, Note{Field: "shape", Text: "shape statistics and normality tests need at least 3 values"})
-	}
-	rep.Shape = shape
 
 	suspects := &Suspects{Rules: []Rule{}, Readings: []Suspect{}}
-	if hookOutliers != nil && n >= 3 {
-		rules, flags, flagged := hookOutliers(sorted, qs.Q1, qs.Q3, median, 1-opts.Confidence)
+	if n >= 3 {
+		rules, flags, flagged := outlierRules(w, s, 1-opts.Confidence)
 		suspects.Rules = rules
 		var note *Note
-		suspects.Readings, note = mapFlags(sorted, flags, flagged, cv)
+		suspects.Readings, note = mapFlags(w, sorted, flags, flagged, cv)
 		if note != nil {
 			rep.Notes = append(rep.Notes, *note)
 		}
 	}
-	if hookOutliers != nil || n < 3 {
-		rep.Suspects = suspects
-	}
+	rep.Suspects = suspects
 
 	if opts.Target != nil {
-		if n >= 2 && !constant && hookTarget != nil {
-			rep.Target = hookTarget(sorted, mo.mean, mo.sd, *opts.Target, opts.Confidence)
-		} else if n < 2 || constant {
-			rep.Notes = append(rep.Notes, Note{Field: "target", Text: "tests against the target need at least two values that are not all equal"})
+		if n >= 2 && !s.constant {
+			rep.Target = targetSection(w, sorted, s.mo.mean, s.mo.sd, *opts.Target, opts.Confidence, s.grid)
+		} else {
+			rep.Notes = append(rep.Notes, Note{Field: "target", Text: w.targetFewNote()})
 		}
+	}
+
+	// Over time, before the spec section: its verdict becomes the spec's
+	// caution, and the within-process sigma is estimated once for both.
+	within := estimateWithin(cv, cv.subgroup, opts.WithinSigma)
+	var stNotes []Note
+	rep.Stability, stNotes = buildStability(w, cv, within, s, opts)
+	rep.Notes = append(rep.Notes, stNotes...)
+
+	// Against the spec.
+	if opts.LSL != nil || opts.USL != nil {
+		in := specInput{sorted: sorted, mean: s.mo.mean, sd: rep.Spread.SD, step: step, distinct: distinct,
+			stability: rep.Stability.Caution(), stableKnown: rep.Stability != nil && rep.Stability.Judged}
+		if n >= 2 && !s.constant {
+			in.within = within
+		}
+		if sh := rep.Shape; sh != nil {
+			if t := sh.Shapiro; t != nil {
+				in.normalP, in.normalTest = &t.P, w.normalTest(t.Name, t.P)
+			} else if t := sh.Large; t != nil {
+				in.normalP, in.normalTest = &t.P, w.normalTest(t.Name, t.P)
+			}
+		}
+		var notes []Note
+		rep.Spec, notes = buildSpec(w, in, opts)
+		rep.Notes = append(rep.Notes, notes...)
+		rep.Settings.Coverage, rep.Settings.CpkGoal = opts.Coverage, opts.CpkGoal
 	}
 
 	// Charts.
 	ch := &Charts{}
-	ch.Histogram = histogram(sorted, qs.Q3-qs.Q1, step)
+	ch.Histogram = histogram(sorted, rep.Spread.IQR, step)
 	c.ModalClass = modalClass(ch.Histogram)
-	ch.Box = boxElements(sorted, qs.Q1, qs.Median, qs.Q3)
-	if hookProbPlot != nil && n >= 3 && !constant {
-		ch.ProbPlot = hookProbPlot(sorted, mo.mean, mo.sd, opts.Confidence, maxChartPoints)
+	ch.Box = boxElements(s)
+	if n >= 3 && !s.constant {
+		ch.ProbPlot = probPlot(sorted, s.mo.mean, s.mo.sd, opts.Confidence, maxChartPoints)
 		probPlotRows(ch.ProbPlot.Points, cv)
 	} else {
 		ch.ProbPlot = ProbPlot{Points: []ProbPt{}, Band: []BandPt{}}
 	}
 	ch.Series, ch.Thinned = series(cv, excl, n)
 	rep.Charts = ch
-	var stNotes []Note
-	rep.Stability, stNotes = buildStability(cv, estimateWithin(cv, cv.subgroup, opts.WithinSigma), cv.subgroup, opts)
-	rep.Notes = append(rep.Notes, stNotes...)
 
-	inner, outer := fenceCounts(sorted, ch.Box)
-	verdict(rep, opts, n, constant, maxRun, distinct, step, inner, outer)
+	inner, outer := fenceCounts(s)
+	verdict(rep, w, opts, n, s.constant, maxRun, distinct, step, inner, outer)
 	guardFinite(rep)
 }
 
 // maxChartPoints bounds the points of each chart series in a report.
 const maxChartPoints = 2000
 
-func pct(p float64) string {
-	return strconv.FormatFloat(100*p, 'g', 4, 64) + "%"
-}
-
-// trimmedMean is the mean of the values left after removing floor(n·trim)
-// from each end, as R's mean(x, trim) (R 4.2.2) does; the sum is Neumaier
-// compensated (Neumaier 1974). Tukey and McLaughlin (1963).
-func trimmedMean(sorted []float64, trim float64) float64 {
-	n := len(sorted)
-	lo := int(math.Floor(float64(n)*trim)) + 1
-	hi := n + 1 - lo
-	if lo > hi {
-		return quantileHF(sorted, 0.5, 7)
-	}
-	part := sorted[lo-1 : hi]
-	return compensatedMoments(part, part[0], part[len(part)-1]).mean
-}
-
-// madRaw is the median of |x - m| without the 1.4826 scale (Hampel 1974).
-// The absolute deviations of an ascending slice are two ascending runs
-// (left of m reversed, right of m); their merge is walked up to its middle,
-// so no extra memory is needed.
-func madRaw(sorted []float64, m float64) float64 {
-	n := len(sorted)
-	if n == 0 {
-		return 0
-	}
-	// split: left = indices < r with x < m (reversed), right = indices >= r
-	r := sort.SearchFloat64s(sorted, m)
-	i, j := r-1, r
-	next := func() float64 {
-		if i >= 0 && (j >= n || m-sorted[i] <= sorted[j]-m) {
-			v := m - sorted[i]
-			i--
-			return v
-		}
-		v := sorted[j] - m
-		j++
-		return v
-	}
-	k := (n - 1) / 2 // 0-based lower middle
-	var a float64
-	for t := 0; t <= k; t++ {
-		a = next()
-	}
-	if n%2 == 1 {
-		return a
-	}
-	b := next()
-	return (a + b) / 2
-}
-
 // modes fills the repeated values with their counts.
-func modes(c *Centre, sorted []float64, maxRun int, cv *colView) {
+func modes(c *Centre, w words, sorted []float64, maxRun int, cv *colView) {
 	if maxRun < 2 {
-		c.ModeNote = "no repeated value"
+		c.ModeNote = w.modeNone()
 		return
 	}
 	const maxListed = 10
@@ -344,21 +248,18 @@ func modes(c *Centre, sorted []float64, maxRun int, cv *colView) {
 		}
 		run = 1
 	}
-	texts := textsOf(vals, cv)
+	texts := textsOf(w, vals, cv)
 	for k, v := range vals {
 		c.Modes = append(c.Modes, Mode{Value: v, Text: texts[k], Count: maxRun})
 	}
-	switch {
-	case tied > maxListed:
-		c.ModeNote = fmt.Sprintf("%d values tie, each occurring %d times; the %d smallest are listed", tied, maxRun, maxListed)
-	case tied > 1:
-		c.ModeNote = fmt.Sprintf("%d values tie, each occurring %d times", tied, maxRun)
+	if tied > 1 {
+		c.ModeNote = w.modeTies(tied, maxRun, min(tied, maxListed))
 	}
 }
 
 // textsOf returns, for each value, the text of the first reading that holds
 // it (one scan of the column).
-func textsOf(vals []float64, cv *colView) []string {
+func textsOf(w words, vals []float64, cv *colView) []string {
 	out := make([]string, len(vals))
 	if len(vals) == 0 {
 		return out
@@ -379,42 +280,49 @@ func textsOf(vals []float64, cv *colView) []string {
 	}
 	for k, v := range vals {
 		if out[k] == "" {
-			out[k] = strconv.FormatFloat(v, 'g', -1, 64)
+			out[k] = w.valueText(v)
 		}
 	}
 	return out
 }
 
-// effectiveStep is the greatest common step of the values as typed: the
-// gcd of the differences of the scaled mantissas (e.g. 0.5 for data read to
-// 0.1 but recorded in half units). 0 when unknown.
-func effectiveStep(sorted []float64, D int) float64 {
-	if D > maxDec || len(sorted) < 2 {
-		return 0
+// stepMinDistinct is the number of distinct values from which the gaps
+// between them may show a step coarser than the decimals as typed. With k
+// distinct values on a grid, chance alone makes all k-1 gaps from the
+// smallest a multiple of g with a probability of about g^-(k-1); from 11
+// distinct values that is at most 2^-10 (about 0.001) for the smallest
+// coarser step g = 2. Three readings 4.09, 4.12, 4.15 (gaps of 0.03) say
+// nothing about the gauge: their step is the typed 0.01.
+const stepMinDistinct = 11
+
+// effectiveStep is the step the values move in: the resolution as typed
+// (10^-Scale), or, from stepMinDistinct distinct values on, the greatest
+// common divisor of the gaps between the mantissas when it is coarser
+// (e.g. 0.5 for data typed to 0.1 but recorded in half units).
+func effectiveStep(s *sample, distinct int) float64 {
+	g := s.grid
+	typed := g.Float(1)
+	if distinct < stepMinDistinct {
+		return typed
 	}
-	p := pow10tab[D]
-	m0f := sorted[0] * p
-	if !(math.Abs(m0f) < 1<<51) || !(math.Abs(sorted[len(sorted)-1]*p) < 1<<51) {
-		return 0
-	}
-	m0 := int64(math.RoundToEven(m0f))
-	var g int64
+	m0 := g.M(s.sorted[0])
+	var d int64
 	prev := m0
-	for i := 1; i < len(sorted); i++ {
-		m := int64(math.RoundToEven(sorted[i] * p))
+	for _, x := range s.sorted[1:] {
+		m := g.M(x)
 		if m == prev {
 			continue
 		}
-		g = gcd(g, m-m0)
+		d = gcd(d, m-m0)
 		prev = m
-		if g == 1 {
+		if d == 1 {
 			break
 		}
 	}
-	if g == 0 {
-		return math.Pow(10, -float64(D))
+	if d <= 1 {
+		return typed
 	}
-	v, _ := strconv.ParseFloat(strconv.FormatInt(g, 10)+"e-"+strconv.Itoa(D), 64)
+	v, _ := strconv.ParseFloat(strconv.FormatInt(d, 10)+"e-"+strconv.Itoa(g.Scale), 64)
 	return v
 }
 
@@ -431,75 +339,26 @@ func gcd(a, b int64) int64 {
 	return a
 }
 
-// fenceSensitivity marks the report when another quantile definition would
-// put different readings beyond Tukey's fences (1.5 and 3 IQR beyond the
-// quartiles; Tukey 1977), and names their rows.
-func fenceSensitivity(rep *Report, qs *Quantiles, sorted []float64, cv *colView) {
-	n := len(sorted)
-	type cut struct{ loIn, hiIn, loOut, hiOut int } // counts beyond each fence
-	cuts := func(q QuartileSet) cut {
-		iqr := q.Q3 - q.Q1
-		below := func(f float64) int { return sort.SearchFloat64s(sorted, f) } // values < f
-		above := func(f float64) int {                                         // values > f
-			return n - sort.Search(n, func(i int) bool { return sorted[i] > f })
-		}
-		return cut{below(q.Q1 - 1.5*iqr), above(q.Q3 + 1.5*iqr), below(q.Q1 - 3*iqr), above(q.Q3 + 3*iqr)}
-	}
-	ref := cuts(QuartileSet{Q1: qs.Q1, Q3: qs.Q3})
-	// the readings whose flag changes lie in sorted[minLo:maxLo] and sorted[n-maxHi:n-minHi]
-	minLo, maxLo, minHi, maxHi := ref.loIn, ref.loIn, ref.hiIn, ref.hiIn
-	minLoO, maxLoO, minHiO, maxHiO := ref.loOut, ref.loOut, ref.hiOut, ref.hiOut
-	var differ []string
-	for _, q := range qs.All {
-		c := cuts(q)
-		if c != ref {
-			differ = append(differ, q.Method)
-		}
-		minLo, maxLo = min(minLo, c.loIn), max(maxLo, c.loIn)
-		minHi, maxHi = min(minHi, c.hiIn), max(maxHi, c.hiIn)
-		minLoO, maxLoO = min(minLoO, c.loOut), max(maxLoO, c.loOut)
-		minHiO, maxHiO = min(minHiO, c.hiOut), max(maxHiO, c.hiOut)
-	}
-	if len(differ) == 0 {
-		return
-	}
-	qs.Sensitive = true
-	var vals []float64
-	addRange := func(a, b int) {
-		for i := a; i < b && len(vals) < 50; i++ {
-			vals = append(vals, sorted[i])
-		}
-	}
-	addRange(minLo, maxLo)
-	addRange(n-maxHi, n-minHi)
-	addRange(minLoO, maxLoO)
-	addRange(n-maxHiO, n-minHiO)
-	rowsOf := rowsHolding(vals, cv, 20)
-	qs.Note = fmt.Sprintf("Which readings lie beyond Tukey's fences depends on the quantile definition here: %s flag(s) a different set than %s. Readings affected: %s.",
-		strings.Join(differ, ", "), qs.Method, rowsOf)
-}
-
-// rowsHolding lists (up to limit) the rows of readings holding any of vals.
-func rowsHolding(vals []float64, cv *colView, limit int) string {
+// rowsHolding lists (up to limit) the rows of readings holding any of vals,
+// with their text as typed.
+func rowsHolding(w words, vals []float64, cv *colView, limit int) string {
 	ix := newF64index(len(vals))
 	for _, v := range vals {
 		ix.put(v, 0)
 	}
-	var rows []string
+	var rows []int32
+	var texts []string
 	total := 0
 	for i, x := range cv.vals {
 		if ix.get(x) >= 0 && !cv.excludedByUser[cv.rows[i]] {
 			total++
 			if len(rows) < limit {
-				rows = append(rows, "row "+strconv.Itoa(int(cv.rows[i]))+" ("+cv.text(i)+")")
+				rows = append(rows, cv.rows[i])
+				texts = append(texts, cv.text(i))
 			}
 		}
 	}
-	s := strings.Join(rows, ", ")
-	if total > limit {
-		s += fmt.Sprintf(" and %d more", total-limit)
-	}
-	return s
+	return w.rowsWithText(rows, texts, total-len(rows))
 }
 
 // maxSuspects bounds the readings listed in a report; the rules still
@@ -512,7 +371,7 @@ const maxSuspects = 1000
 // extreme (farthest from the middle of the ordered data) are kept and a Note
 // says how many were flagged: flagged, the count of all flagged indices
 // (flags itself need only hold the maxSuspects most extreme).
-func mapFlags(sorted []float64, flags map[int][]Flag, flagged int, cv *colView) ([]Suspect, *Note) {
+func mapFlags(w words, sorted []float64, flags map[int][]Flag, flagged int, cv *colView) ([]Suspect, *Note) {
 	out := []Suspect{}
 	if len(flags) == 0 {
 		return out, nil
@@ -533,7 +392,7 @@ func mapFlags(sorted []float64, flags map[int][]Flag, flagged int, cv *colView) 
 	})
 	var note *Note
 	if flagged > maxSuspects {
-		note = &Note{Field: "suspects.readings", Text: fmt.Sprintf("%d readings are flagged; the %d most extreme are listed (the rules give the full counts)", flagged, maxSuspects)}
+		note = &Note{Field: "suspects.readings", Text: w.suspectsMore(flagged, maxSuspects)}
 	}
 	if len(idx) > maxSuspects {
 		idx = idx[:maxSuspects]

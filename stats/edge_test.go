@@ -245,13 +245,15 @@ func TestModes(t *testing.T) {
 }
 
 func TestStepAndResolution(t *testing.T) {
-	// data typed to 0.1 but recorded in half units: step 0.5 (from memory)
-	rep, _ := Analyze(Request{Text: lines("2.5", "3.0", "3.5", "3.0", "4.0", "2.5")})
+	// data typed to 0.1 but recorded in half units: step 0.5 (from memory),
+	// shown by 11 distinct values (stepMinDistinct)
+	half := lines("2.5", "3.0", "3.5", "3.0", "4.0", "2.5", "4.5", "5.0", "5.5", "6.0", "6.5", "7.0", "7.5")
+	rep, _ := Analyze(Request{Text: half})
 	if rep.Counts.Resolution != 0.1 || rep.Counts.Step != 0.5 || rep.Counts.Decimals != 1 {
 		t.Errorf("counts %+v", rep.Counts)
 	}
 	lsl, usl := 2.0, 5.0
-	rep, _ = Analyze(Request{Text: lines("2.5", "3.0", "3.5", "3.0", "4.0", "2.5"), Options: Options{LSL: &lsl, USL: &usl}})
+	rep, _ = Analyze(Request{Text: half, Options: Options{LSL: &lsl, USL: &usl}})
 	codes := ""
 	for _, w := range rep.Verdict.Warnings {
 		codes += w.Code + " "

@@ -21,6 +21,16 @@ const (
 	CodeCancelled  = "cancelled"     // the user stopped the work
 	CodeNoFile     = "no-file"       // the page asked for a file that is not (or no longer) read
 	CodeTooLarge   = "too-large"     // the data are too large for what was asked (a link)
+
+	// A shared analysis (link, .lotlens file or stored copy) that cannot be
+	// opened: "share-" and the code of stats/share (the bridge maps them).
+	CodeShareEmpty     = "share-empty"     // the link or file holds nothing
+	CodeShareTruncated = "share-truncated" // cut short
+	CodeShareCorrupt   = "share-corrupt"   // changed or damaged on the way
+	CodeShareVersion   = "share-version"   // made by a newer Lotlens
+	CodeShareForeign   = "share-foreign"   // not a Lotlens link or file at all
+	CodeShareTooLarge  = "share-too-large" // would unpack to more than 64 MB
+	CodeShareSettings  = "share-settings"  // it opened, but the engine refuses its settings or columns
 )
 
 // Error is an error the engine reports to the user: a stable code, the

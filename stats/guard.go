@@ -50,7 +50,7 @@ type guard struct {
 }
 
 func (g *guard) note(dropped, at string) {
-	g.notes = append(g.notes, Note{Field: dropped, Text: fmt.Sprintf("omitted: %s is beyond the range of double-precision numbers for these values", at)})
+	g.notes = append(g.notes, Note{Field: dropped, Text: wordsFor(g.rep).guardOmitted(at)})
 }
 
 // walk looks for NaN or Inf below v, whose JSON path is path. It removes
@@ -126,7 +126,7 @@ func (g *guard) walk(v reflect.Value, path string) (bool, string) {
 func (g *guard) dropTopLevel(name, at string) {
 	switch name {
 	case "verdict":
-		g.rep.Verdict.Reasons = []Reason{{Code: "out-of-range", Text: "The values are too large or too small for the verdict's figures; see the notes."}}
+		g.rep.Verdict.Reasons = []Reason{{Code: "out-of-range", Text: wordsFor(g.rep).reasonOutOfRange()}}
 		g.rep.Verdict.Warnings = nil
 		g.rep.Verdict.Quote = ""
 	case "counts":

@@ -3,6 +3,8 @@ package stats
 import (
 	"math"
 	"testing"
+
+	"lotlens/stats/method"
 )
 
 // Blom positions and the order-statistic band: for n = 5 the middle point
@@ -24,31 +26,13 @@ func TestProbPlotSmall(t *testing.T) {
 	}
 	b := pp.Band[2]
 	sd := math.Sqrt(2.5)
-	if math.Abs(b.Lo-(3+sd*normQuantile(0.14663280))) > 1e-6 || math.Abs(b.Hi-(3+sd*normQuantile(0.85336720))) > 1e-6 {
+	if math.Abs(b.Lo-(3+sd*method.NormalQuantile(0.14663280))) > 1e-6 || math.Abs(b.Hi-(3+sd*method.NormalQuantile(0.85336720))) > 1e-6 {
 		t.Errorf("band %+v", b)
 	}
 	for _, b := range pp.Band {
 		y := 3 + sd*b.Z
 		if !(b.Lo < y && y < b.Hi) {
 			t.Errorf("band %+v misses the line", b)
-		}
-	}
-}
-
-// Thinning keeps both tails whole and stays within the budget.
-func TestThinIndices(t *testing.T) {
-	idx := thinIndices(1_000_000, 2000)
-	if len(idx) > 2000 || len(idx) < 1900 {
-		t.Fatalf("%d points", len(idx))
-	}
-	for i := 0; i < 200; i++ {
-		if idx[i] != i || idx[len(idx)-1-i] != 1_000_000-1-i {
-			t.Fatalf("tails not kept at %d", i)
-		}
-	}
-	for i := 1; i < len(idx); i++ {
-		if idx[i] <= idx[i-1] {
-			t.Fatalf("not increasing at %d", i)
 		}
 	}
 }

@@ -2,8 +2,11 @@ package stats
 
 // This file is the contract between the engine, the page, the tests and any
 // automation: one Request in, one Report out, both JSON with a schema version.
-// Add fields freely; rename or remove one only together with the page
-// (site/app.js), the help page site/help/automation.md and the schema version.
+// Each section's own types live beside its builder (Centre in centre.go,
+// Spec in spec.go, ...), so adding a statistic to a section touches its
+// builder file, not this one. Add fields freely; rename or remove one only
+// together with the page (site/*.js), the help page site/help/automation.md
+// and the schema version.
 
 import "lotlens/stats/ingest"
 
@@ -66,17 +69,22 @@ type Options struct {
 	// "mean-sd".
 	WithinSigma string `json:"withinSigma,omitempty"`
 	// Over time (stability.go). Baseline: the rows whose readings set the
-	// control limits ("2-61", "2-61, 80-99" or a list of rows; empty: all).
+	// control limits ("2-61", "2-61, 80-99" or "2, 3, 4"; empty: all).
 	// Signals switches checks by code (see stability.go checkOrder).
 	// EWMALambda, EWMAL (defaults 0.2, 3), CUSUMK, CUSUMH (0.5, 5), in
 	// sigmas of one point. ChartSpread: "auto" (default), "range" or "sd".
-	Baseline    RowSpec         `json:"baseline,omitempty"`
+	Baseline    string          `json:"baseline,omitempty"`
 	Signals     map[string]bool `json:"signals,omitempty"`
 	EWMALambda  float64         `json:"ewmaLambda,omitempty"`
 	EWMAL       float64         `json:"ewmaL,omitempty"`
 	CUSUMK      float64         `json:"cusumK,omitempty"`
 	CUSUMH      float64         `json:"cusumH,omitempty"`
 	ChartSpread string          `json:"chartSpread,omitempty"`
+	// Coverage is the fraction of parts a tolerance interval claims
+	// (default DefaultCoverage, 0.99); CpkGoal the level the spec section
+	// compares Cpk's lower bound with (default DefaultCpkGoal, 1.33).
+	Coverage float64 `json:"coverage,omitempty"`
+	CpkGoal  float64 `json:"cpkGoal,omitempty"`
 }
 
 // DefaultQuantile is the quantile definition used when the request names none.
@@ -97,6 +105,7 @@ type Report struct {
 	Shape     *Shape     `json:"shape,omitempty"`
 	Suspects  *Suspects  `json:"suspects,omitempty"`
 	Target    *Target    `json:"target,omitempty"`
+	Spec      *Spec      `json:"spec,omitempty"`
 	Charts    *Charts    `json:"charts,omitempty"`
 	Stability *Stability `json:"stability,omitempty"`
 	Notes     []Note     `json:"notes,omitempty"`
@@ -131,6 +140,9 @@ type Settings struct {
 	LSL        *float64  `json:"lsl,omitempty"`
 	USL        *float64  `json:"usl,omitempty"`
 	Excluded   []Reading `json:"excluded,omitempty"` // the user's exclusions, listed
+	// Coverage and CpkGoal as applied (with a specification limit).
+	Coverage float64 `json:"coverage,omitempty"`
+	CpkGoal  float64 `json:"cpkGoal,omitempty"`
 }
 
 // Counts of the value column.
@@ -190,71 +202,6 @@ type Note struct {
 	Text  string `json:"text"`
 }
 
-// Centre: location statistics.
-type Centre struct {
-	Mean      float64   `json:"mean"`
-	MeanCI    *Interval `json:"meanCI,omitempty"`
-	Median    float64   `json:"median"`
-	MedianCI  *Interval `json:"medianCI,omitempty"`
-	Trimmed10 float64   `json:"trimmed10"`
-	// Modes are the most repeated values with their count; empty with
-	// ModeNote "no repeated value" when all values are unique.
-	Modes      []Mode     `json:"modes,omitempty"`
-	ModeNote   string     `json:"modeNote,omitempty"`
-	ModalClass [2]float64 `json:"modalClass"` // histogram bin with the most values
-}
-
-// Mode is a repeated value and how often it occurs.
-type Mode struct {
-	Value float64 `json:"value"`
-	Text  string  `json:"text"`
-	Count int     `json:"count"`
-}
-
-// Spread: dispersion statistics.
-type Spread struct {
-	Range    float64   `json:"range"`
-	Variance *float64  `json:"variance,omitempty"` // divisor n-1; omitted (with a Note) only when it exceeds the float64 range
-	SD       float64   `json:"sd"`                 // divisor n-1
-	SDCI     *Interval `json:"sdCI,omitempty"`
-	PopSD    *float64  `json:"popSD,omitempty"` // divisor n, on request
-	CV       *float64  `json:"cv,omitempty"`    // SD / |mean|, omitted when the mean is 0 or values change sign
-	IQR      float64   `json:"iqr"`
-	MAD      float64   `json:"mad"` // scaled by 1.4826
-	SEM      float64   `json:"sem"`
-}
-
-// Quantiles under the chosen definition, and the quartiles under all of them.
-type Quantiles struct {
-	Method      string        `json:"method"`
-	Name        string        `json:"name"` // the definition in words
-	Min         float64       `json:"min"`
-	Q1          float64       `json:"q1"`
-	Median      float64       `json:"median"`
-	Q3          float64       `json:"q3"`
-	Max         float64       `json:"max"`
-	Percentiles []Percentile  `json:"percentiles"` // 0.135, 1, 5, 95, 99, 99.865
-	All         []QuartileSet `json:"all"`         // hf1..hf9 and tukey
-	// Sensitive is set when another definition would flag different readings
-	// by Tukey's fences; Note says which rows.
-	Sensitive bool   `json:"sensitive,omitempty"`
-	Note      string `json:"note,omitempty"`
-}
-
-// Percentile is one named percentile.
-type Percentile struct {
-	P     float64 `json:"p"` // in percent, e.g. 99.865
-	Value float64 `json:"value"`
-}
-
-// QuartileSet is Q1, median and Q3 under one definition.
-type QuartileSet struct {
-	Method string  `json:"method"`
-	Q1     float64 `json:"q1"`
-	Median float64 `json:"median"`
-	Q3     float64 `json:"q3"`
-}
-
 // Test is the result of a hypothesis test.
 type Test struct {
 	Name      string    `json:"name"`
@@ -264,120 +211,4 @@ type Test struct {
 	Estimate  *float64  `json:"estimate,omitempty"`
 	CI        *Interval `json:"ci,omitempty"`
 	Method    string    `json:"method,omitempty"` // e.g. "exact", "normal approximation with continuity correction"
-}
-
-// Moment is a shape statistic with its standard error and test.
-type Moment struct {
-	Value float64 `json:"value"`
-	SE    float64 `json:"se"`
-	Test  *Test   `json:"test,omitempty"`
-}
-
-// Shape of the distribution.
-type Shape struct {
-	Skewness *Moment `json:"skewness,omitempty"` // G1, adjusted
-	Kurtosis *Moment `json:"kurtosis,omitempty"` // G2, adjusted excess
-	Omnibus  *Test   `json:"omnibus,omitempty"`  // D'Agostino-Pearson K2
-	Shapiro  *Test   `json:"shapiroWilk,omitempty"`
-	Anderson *Test   `json:"andersonDarling,omitempty"`
-	// Large is the normality test used above n = 5000 (named in Test.Name).
-	Large *Test `json:"large,omitempty"`
-}
-
-// Suspects: readings flagged by standard rules. Nothing is removed.
-type Suspects struct {
-	Rules    []Rule    `json:"rules"`
-	Readings []Suspect `json:"readings"`
-}
-
-// Rule is one outlier rule as applied.
-type Rule struct {
-	Code  string   `json:"code"` // "tukey-inner", "tukey-outer", "adjusted-box", "modified-z", "gesd"
-	Name  string   `json:"name"`
-	Lo    *float64 `json:"lo,omitempty"` // lower limit, where the rule has one
-	Hi    *float64 `json:"hi,omitempty"`
-	Count int      `json:"count"`
-	Note  string   `json:"note,omitempty"`
-}
-
-// Suspect is a flagged reading with every rule that flags it.
-type Suspect struct {
-	Reading
-	Flags []Flag `json:"flags"`
-}
-
-// Flag says which rule flags a reading and by how much.
-type Flag struct {
-	Rule  string  `json:"rule"`
-	Score float64 `json:"score"` // rule's own measure: distance beyond the fence, |Mi|, R_i...
-	Text  string  `json:"text"`
-}
-
-// Target: tests of the centre against the target value.
-type Target struct {
-	Value     float64 `json:"value"`
-	T         *Test   `json:"t,omitempty"`
-	Wilcoxon  *Test   `json:"wilcoxon,omitempty"`
-	Inside    bool    `json:"inside"` // target inside the CI of the quoted centre
-	Statement string  `json:"statement"`
-}
-
-// Charts carries what the chart package draws. Long series are thinned
-// (Thinned says so) so that the report stays small for any n.
-type Charts struct {
-	Histogram Histogram  `json:"histogram"`
-	Box       Box        `json:"box"`
-	ProbPlot  ProbPlot   `json:"probPlot"`
-	Series    []SeriesPt `json:"series"`
-	Thinned   bool       `json:"thinned,omitempty"`
-}
-
-// Histogram bins: Edges has len(Counts)+1 entries.
-type Histogram struct {
-	Rule   string    `json:"rule"` // "freedman-diaconis" or "sturges"
-	Edges  []float64 `json:"edges"`
-	Counts []int     `json:"counts"`
-}
-
-// Box is the box-plot elements under the chosen quantile definition.
-type Box struct {
-	Q1        float64 `json:"q1"`
-	Median    float64 `json:"median"`
-	Q3        float64 `json:"q3"`
-	LoWhisker float64 `json:"loWhisker"`
-	HiWhisker float64 `json:"hiWhisker"`
-	InnerLo   float64 `json:"innerLo"`
-	InnerHi   float64 `json:"innerHi"`
-	OuterLo   float64 `json:"outerLo"`
-	OuterHi   float64 `json:"outerHi"`
-}
-
-// ProbPlot is a normal probability plot: theoretical quantile Z against the
-// ordered value Y, with a pointwise confidence band around the fitted line.
-type ProbPlot struct {
-	Positions string     `json:"positions"` // plotting positions, e.g. "Blom (i-3/8)/(n+1/4)"
-	Points    []ProbPt   `json:"points"`
-	Band      []BandPt   `json:"band"`
-	Line      [2]float64 `json:"line"` // intercept, slope (mean, SD)
-}
-
-// ProbPt is one point of the probability plot.
-type ProbPt struct {
-	Z   float64 `json:"z"`
-	Y   float64 `json:"y"`
-	Row int     `json:"row"`
-}
-
-// BandPt is the band at one theoretical quantile.
-type BandPt struct {
-	Z  float64 `json:"z"`
-	Lo float64 `json:"lo"`
-	Hi float64 `json:"hi"`
-}
-
-// SeriesPt is one value in data order.
-type SeriesPt struct {
-	I   int     `json:"i"` // position in data order (0-based)
-	Row int     `json:"row"`
-	Y   float64 `json:"y"`
 }

@@ -17,6 +17,8 @@ func TestParseRequestStrict(t *testing.T) {
 		{`{"text":"1\n2","options":{"lls":4.9}}`, CodeBadRequest, "lls", "check the spelling"},
 		{`{"text":"1\n2","colour":"red"}`, CodeBadRequest, "colour", "unknown key"},
 		{`{"text":"1\n2","options":{"confidence":0}}`, CodeBadOption, "options.confidence", "confidence 0"},
+		{`{"text":"1\n2","options":{"coverage":0}}`, CodeBadOption, "options.coverage", "coverage 0"},
+		{`{"text":"1\n2","options":{"coverage":99}}`, CodeBadOption, "options.coverage", "between 0.5 and 1"},
 		{`{"text":"1\n2","options":{"confidence":"95%"}}`, CodeBadRequest, "options.confidence", "must be a number"},
 		{`{"text":"1\n2","options":{"exclude":3}}`, CodeBadRequest, "options.exclude", "list of row numbers"},
 		{`{"text":"1\n2","options":{"target":"12 Nm"}}`, CodeBadRequest, "options.target", "must be a number"},

@@ -6,6 +6,8 @@ import (
 	"slices"
 	"sync"
 	"testing"
+
+	"lotlens/stats/decimal"
 )
 
 // Benchmarks of the methods on sorted measurement-like data (4 decimals,
@@ -47,6 +49,9 @@ func meanSDOf(x []float64) (float64, float64) {
 
 var sinkF float64
 
+// grid4: the bench data are typed with 4 decimals (the exact path).
+var grid4, _ = decimal.NewGrid(4)
+
 func benchBaseline(b *testing.B, n int) {
 	x := methodsBenchData(n)
 	b.ResetTimer()
@@ -64,16 +69,17 @@ func benchShape(b *testing.B, n int) {
 	m, sd := meanSDOf(x)
 	b.ResetTimer()
 	for b.Loop() {
-		shapeSection(x, m, sd)
+		sums := grid4.PowerSums(x) // the exact sums are the shape's first pass
+		shapeSection(words{}, x, m, sd, &sums)
 	}
 }
 
 func benchOutliers(b *testing.B, n int) {
 	x := methodsBenchData(n)
-	q1, med, q3 := x[n/4], x[n/2], x[3*n/4]
+	smp := decimalSample(x, 4)
 	b.ResetTimer()
 	for b.Loop() {
-		outlierRules(x, q1, q3, med, 0.05)
+		outlierRules(words{}, smp, 0.05)
 	}
 }
 
@@ -82,7 +88,7 @@ func benchTarget(b *testing.B, n int) {
 	m, sd := meanSDOf(x)
 	b.ResetTimer()
 	for b.Loop() {
-		targetSection(x, m, sd, 50.2, 0.95)
+		targetSection(words{}, x, m, sd, 50.2, 0.95, grid4)
 	}
 }
 

@@ -8,6 +8,8 @@ import (
 	"strconv"
 	"strings"
 	"testing"
+
+	"lotlens/stats/method"
 )
 
 // Reference values for the methods: testdata/rref/methods.tsv, written by
@@ -100,9 +102,16 @@ func TestShapeR(t *testing.T) {
 	checked := 0
 	for set, r := range ref {
 		x, mean, sd := methodsSet(t, set)
-		sh, _ := shapeSection(x, mean, sd)
+		sh, _ := shapeSection(words{}, x, mean, sd, powerSumsFor(x))
 		var cs []mCheck
+		// R's moments on the offset set carry about 9 significant digits
+		// (binary sums of powers of values near 1e6); ours are exact
+		// (TestExactShapeLRE checks 14 digits against Python fractions).
+		loose := set == "12-offset-n200.txt"
 		add := func(stat string, got *float64, rel, abs float64) {
+			if loose && rel > 0 && stat != "swW" && stat != "swP" && stat != "adA" && stat != "adP" && stat != "SES" && stat != "SEK" {
+				rel = 1e-7
+			}
 			cs = append(cs, mCheck{stat, got, rel, abs})
 		}
 		if sh.Skewness != nil {
@@ -147,7 +156,7 @@ func TestShapeR(t *testing.T) {
 		} else {
 			add("adA", nil, 0, 0)
 		}
-		if len(x) > shapiroMaxN && (sh.Large == nil || sh.Large.Statistic != sh.Omnibus.Statistic) {
+		if len(x) > method.ShapiroMaxN && (sh.Large == nil || sh.Large.Statistic != sh.Omnibus.Statistic) {
 			t.Errorf("%s: above 5000 values the large-sample test should be the K² test", set)
 		}
 		checked += runChecks(t, set, r, cs)

@@ -1,7 +1,6 @@
 package stats
 
 import (
-	"encoding/json"
 	"errors"
 	"fmt"
 	"math"
@@ -12,7 +11,7 @@ import (
 	"strings"
 	"sync"
 
-	"lotlens/stats/ingest"
+	"lotlens/stats/decimal"
 	"lotlens/stats/method"
 )
 
@@ -312,17 +311,18 @@ type ChangeInfo struct {
 	Found      bool    `json:"found"` // P < driftAlpha
 }
 
-// Caution returns what the spec section should say when capability
-// figures rest on a process that was not shown stable: ok is false when
-// the process was judged stable.
-func (s *Stability) Caution() (code, text string, ok bool) {
+// Caution is what the spec section says when capability figures rest on
+// a process not shown stable: code "not-stable" (Text the verdict) or
+// "stability-not-judged" (Text why); nil when the process was judged
+// stable.
+func (s *Stability) Caution() *Reason {
 	if s == nil || s.Stable {
-		return "", "", false
+		return nil
 	}
 	if !s.Judged {
-		return "stability-not-judged", cautionNotJudged(), true
+		return &Reason{Code: "stability-not-judged", Text: s.Verdict}
 	}
-	return "not-stable", cautionNotStable(s.Verdict), true
+	return &Reason{Code: "not-stable", Text: s.Verdict}
 }
 
 // Section constants.
@@ -377,33 +377,11 @@ var (
 		SignalEWMA: true, SignalCUSUM: true}
 )
 
-// RowSpec is a set of spreadsheet rows: in JSON a string such as
-// "2-61, 80, 90-99" or a list of row numbers.
-type RowSpec string
-
-// UnmarshalJSON accepts a string or a list of whole numbers.
-func (r *RowSpec) UnmarshalJSON(b []byte) error {
-	var s string
-	if err := json.Unmarshal(b, &s); err == nil {
-		*r = RowSpec(s)
-		return nil
-	}
-	var list []int
-	if err := json.Unmarshal(b, &list); err != nil {
-		return errorf(CodeBadOption, "options.baseline", "baseline must be rows such as \"2-61\" or a list of row numbers such as [2, 3, 4]")
-	}
-	parts := make([]string, len(list))
-	for i, v := range list {
-		parts[i] = strconv.Itoa(v)
-	}
-	*r = RowSpec(strings.Join(parts, ", "))
-	return nil
-}
-
-// rowRanges parses a RowSpec into sorted inclusive ranges.
-func (r RowSpec) rowRanges() ([][2]int, error) {
+// rowRanges parses Options.Baseline ("2-61, 80, 90-99") into sorted
+// inclusive ranges of spreadsheet rows.
+func rowRanges(spec string) ([][2]int, error) {
 	var out [][2]int
-	for _, part := range strings.FieldsFunc(string(r), func(c rune) bool { return c == ',' || c == ';' || c == ' ' }) {
+	for _, part := range strings.FieldsFunc(spec, func(c rune) bool { return c == ',' || c == ';' || c == ' ' }) {
 		a, b, isRange := strings.Cut(part, "-")
 		lo, err1 := strconv.Atoi(strings.TrimSpace(a))
 		hi := lo
@@ -442,7 +420,7 @@ func inRanges(rr [][2]int, row int) bool {
 // checkStabilityOptions refuses impossible settings of the section.
 func checkStabilityOptions(o Options) error {
 	if o.Baseline != "" {
-		if _, err := o.Baseline.rowRanges(); err != nil {
+		if _, err := rowRanges(o.Baseline); err != nil {
 			return errorf(CodeBadOption, "options.baseline", "baseline rows: %v is not a row number or a range such as 2-61; give rows like \"2-61, 80-99\"", err)
 		}
 	}
@@ -480,7 +458,7 @@ func orDefault(v, d float64) float64 {
 
 // stabPoint is one plotted reading or subgroup while the section is built.
 // It is kept small (one per reading on long series): a subgroup's label is
-// w.labels at its index, and the signal codes of a point are in
+// ws.labels at its index, and the signal codes of a point are in
 // stabBuild.flags.
 type stabPoint struct {
 	y, s, t    float64
@@ -493,18 +471,21 @@ type stabPoint struct {
 }
 
 // buildStability fills the "Over time" section from the used readings in
-// time order (w, from estimateWithin) and the subgroup column sub (nil
-// for individual readings).
-func buildStability(cv *colView, w *withinSigma, sub *ingest.Column, opts Options) (*Stability, []Note) {
+// time order (ws, from estimateWithin, shared with the spec section) and
+// the subgroup column (cv.subgroup; nil for individual readings). smp is
+// the sorted sample: its grid decides whether the readings are held as
+// typed, its mean is the centre without a baseline.
+func buildStability(w words, cv *colView, ws *withinSigma, smp *sample, opts Options) (*Stability, []Note) {
 	st := &Stability{Reasons: []Reason{}, Checks: []CheckInfo{}, Signals: []SignalInfo{}}
 	var notes []Note
-	st.Order = orderInfo(cv)
-	if sub != nil && len(w.groups) > 0 && allSingles(w.groups) {
-		notes = append(notes, Note{Field: "stability.chart", Text: noteAllSingles()})
-		w = estimateWithin(cv, nil, "")
+	st.Order = orderInfo(w, cv)
+	sub := cv.subgroup
+	if sub != nil && len(ws.groups) > 0 && allSingles(ws.groups) {
+		notes = append(notes, Note{Field: "stability.chart", Text: w.stabAllSingles()})
+		ws = estimateWithin(cv, nil, "")
 		sub = nil
 	}
-	ranges, _ := opts.Baseline.rowRanges()
+	ranges, _ := rowRanges(opts.Baseline)
 	inBase := func(row int32) bool { return opts.Baseline == "" || inRanges(ranges, int(row)) }
 
 	// the readings left out by the user, listed
@@ -515,25 +496,24 @@ func buildStability(cv *colView, w *withinSigma, sub *ingest.Column, opts Option
 		}
 	}
 
-	n := len(w.series)
+	n := len(ws.series)
 	if n < 3 {
-		st.Verdict = verdictTooFew(n)
+		st.Verdict = w.stabTooFew(n)
 		st.Reasons = append(st.Reasons, Reason{Code: "too-few", Text: st.Verdict, Vals: map[string]float64{"n": float64(n)}})
 		return st, notes
 	}
-	if w.err != nil {
-		st.Verdict = verdictNoSpread(w.err)
+	if ws.err != nil {
+		st.Verdict = w.stabNoSpread(ws.err.Error())
 		st.Reasons = append(st.Reasons, Reason{Code: "no-spread", Text: st.Verdict})
 		return st, notes
 	}
 	st.Judged = true
 
 	settings, on := signalSwitches(opts.Signals)
-	// exact centre from the decimals as typed, where every used reading is
-	// plain decimal text
-	mant, scale, exact := mantissas(cv, w)
-
-	b := &stabBuild{st: st, cv: cv, w: w, on: on, opts: opts, inBase: inBase, mant: mant, scale: scale, exact: exact}
+	b := &stabBuild{st: st, w: w, cv: cv, ws: ws, smp: smp, on: on, opts: opts, inBase: inBase}
+	if smp.exact {
+		b.grid, b.exact = smp.grid, true
+	}
 	var err error
 	if sub == nil {
 		err = b.individuals(settings)
@@ -543,7 +523,7 @@ func buildStability(cv *colView, w *withinSigma, sub *ingest.Column, opts Option
 	if err != nil {
 		st.Judged = false
 		st.Chart = nil
-		st.Verdict = verdictNoSpread(err)
+		st.Verdict = w.stabNoSpread(err.Error())
 		st.Reasons = append(st.Reasons, Reason{Code: "no-spread", Text: st.Verdict})
 		return st, append(notes, b.notes...)
 	}
@@ -555,15 +535,18 @@ func buildStability(cv *colView, w *withinSigma, sub *ingest.Column, opts Option
 
 type stabBuild struct {
 	st     *Stability
+	w      words
 	cv     *colView
-	w      *withinSigma
+	ws     *withinSigma
+	smp    *sample
 	on     map[string]bool
 	opts   Options
 	inBase func(int32) bool
-	mant   []int64
-	scale  int
-	exact  bool
-	notes  []Note
+	// grid holds the readings as typed when exact (every used reading a
+	// plain decimal): means, ranks and sides of the median are exact
+	grid  decimal.Grid
+	exact bool
+	notes []Note
 
 	pts      []stabPoint
 	flags    map[int][]string // signal codes by plotted position
@@ -607,74 +590,46 @@ func signalSwitches(sw map[string]bool) (method.SignalSettings, map[string]bool)
 	return s, on
 }
 
-// mantissas returns the used readings as integers at the largest number of
-// decimals typed, or exact = false when some reading was not plain decimal
-// text (exponent form) or does not fit.
-func mantissas(cv *colView, w *withinSigma) ([]int64, int, bool) {
-	d := int8(0)
-	for _, c := range w.cells {
-		dc := cv.dec[c]
-		if dc < 0 {
-			return nil, 0, false
-		}
-		d = max(d, dc)
+// mean is the mean of the used readings in time order selected by keep
+// (nil: all, the sample's mean): on the decimals as typed when exact (an
+// integer sum, one rounding), else a float sum.
+func (b *stabBuild) mean(keep func(k int) bool) float64 {
+	if keep == nil {
+		return b.smp.mo.mean
 	}
-	out := make([]int64, len(w.cells))
-	for k, c := range w.cells {
-		m, ok := mantissa(cv.vals[c], d)
-		if !ok {
-			return nil, 0, false
+	var sel []float64
+	for k, x := range b.ws.series {
+		if keep(k) {
+			sel = append(sel, x)
 		}
-		out[k] = m
 	}
-	return out, int(d), true
-}
-
-// exactMean is the mean of the judged readings selected by keep (nil:
-// all): on the decimals as typed when exact (integer sum, one rounding),
-// else a float sum.
-func (b *stabBuild) exactMean(keep func(k int) bool) float64 {
 	if b.exact {
-		var a acc128
-		cnt := int64(0)
-		for k, m := range b.mant {
-			if keep == nil || keep(k) {
-				a.add(m)
-				cnt++
-			}
-		}
-		if cnt > 0 {
-			den := new(big.Int).Exp(big.NewInt(10), big.NewInt(int64(b.scale)), nil)
-			den.Mul(den, big.NewInt(cnt))
-			f, _ := new(big.Rat).SetFrac(a.sum(), den).Float64()
-			return f
-		}
+		r := new(big.Rat).SetFrac(b.grid.Sum(sel), new(big.Int).Mul(b.grid.Denom(), big.NewInt(int64(len(sel)))))
+		return decimal.Float64(r)
 	}
-	sum, cnt := 0.0, 0
-	for k, x := range b.w.series {
-		if keep == nil || keep(k) {
-			sum += x
-			cnt++
-		}
+	sum := 0.0
+	for _, x := range sel {
+		sum += x
 	}
-	return sum / float64(cnt)
+	return sum / float64(len(sel))
 }
 
 // diff is |reading j − reading k|, on the decimals as typed when exact.
 func (b *stabBuild) diff(j, k int) float64 {
+	x, y := b.ws.series[j], b.ws.series[k]
 	if b.exact {
-		d := b.mant[j] - b.mant[k]
+		d := b.grid.M(x) - b.grid.M(y)
 		if d < 0 {
 			d = -d
 		}
-		return float64(d) / pow10tab[b.scale]
+		return b.grid.Float(d)
 	}
-	return math.Abs(b.w.series[j] - b.w.series[k])
+	return math.Abs(x - y)
 }
 
 // individuals builds the individuals and moving range chart.
 func (b *stabBuild) individuals(settings method.SignalSettings) error {
-	cv, w, st := b.cv, b.w, b.st
+	cv, ws, st := b.cv, b.ws, b.st
 	// plotted points: every finite reading in time order, left-out ones too
 	k := 0
 	for i := range cv.inOrder() {
@@ -684,8 +639,8 @@ func (b *stabBuild) individuals(settings method.SignalSettings) error {
 		}
 		p := stabPoint{row: cv.rows[i], y: x, used: -1}
 		if b.pts == nil {
-			b.pts = make([]stabPoint, 0, len(w.series)+len(cv.excludedByUser))
-			b.posOf = make([]int, 0, len(w.series))
+			b.pts = make([]stabPoint, 0, len(ws.series)+len(cv.excludedByUser))
+			b.posOf = make([]int, 0, len(ws.series))
 		}
 		if t, ok := orderKey(cv, i); ok {
 			p.t, p.hasT = t, true
@@ -700,7 +655,7 @@ func (b *stabBuild) individuals(settings method.SignalSettings) error {
 		}
 		b.pts = append(b.pts, p)
 	}
-	b.judged = w.series
+	b.judged = ws.series
 	var base []int
 	if b.opts.Baseline != "" {
 		for j, pos := range b.posOf {
@@ -709,14 +664,14 @@ func (b *stabBuild) individuals(settings method.SignalSettings) error {
 			}
 		}
 		if len(base) < 2 {
-			return fmt.Errorf("the baseline rows %q hold %d of the readings used: the limits need at least 2 in a row", string(b.opts.Baseline), len(base))
+			return fmt.Errorf("the baseline rows %q hold %d of the readings used: the limits need at least 2 in a row", b.opts.Baseline, len(base))
 		}
 	}
 	// without a baseline the limits rest on the shared estimate (the same
 	// computation as method.Individuals, which is run only for a baseline)
-	est := w.est
+	est := ws.est
 	if base != nil {
-		ch, err := method.Individuals(w.series, method.IndividualsOptions{Median: w.method == WithinMedianMovingRange, Baseline: base})
+		ch, err := method.Individuals(ws.series, method.IndividualsOptions{Median: ws.method == WithinMedianMovingRange, Baseline: base})
 		if err != nil {
 			return err
 		}
@@ -724,26 +679,26 @@ func (b *stabBuild) individuals(settings method.SignalSettings) error {
 	}
 	var centre float64
 	if base == nil {
-		centre = b.exactMean(nil)
+		centre = b.mean(nil)
 	} else {
-		keep := make([]bool, len(w.series))
+		keep := make([]bool, len(ws.series))
 		for _, j := range base {
 			keep[j] = true
 		}
-		centre = b.exactMean(func(k int) bool { return keep[k] })
+		centre = b.mean(func(k int) bool { return keep[k] })
 	}
 	sigma := est.Sigma
 	if !(sigma > 0) {
 		return errors.New("the baseline readings do not vary: no limits can be set from them")
 	}
 	c2 := roundedConstants(2)
-	st.Chart = &ControlChart{Kind: "individuals", KindRule: ruleIndividuals(), Spread: "moving-range",
-		Centre: centre, Sigma: sigma, SigmaMethod: w.method, SigmaDF: est.DF, SigmaShared: base == nil, Width: 3}
+	st.Chart = &ControlChart{Kind: "individuals", KindRule: b.w.stabRuleIndividuals(), Spread: "moving-range",
+		Centre: centre, Sigma: sigma, SigmaMethod: ws.method, SigmaDF: est.DF, SigmaShared: base == nil, Width: 3}
 	lim := CtlLimits{From: 1, To: len(b.pts), Lower: centre - 3*sigma, Upper: centre + 3*sigma,
 		SpreadCentre: c2.SmallD2 * sigma, SpreadLower: math.Max(0, c2.SmallD2-3*c2.SmallD3) * sigma, SpreadUpper: (c2.SmallD2 + 3*c2.SmallD3) * sigma}
 	st.Chart.Limits = []CtlLimits{lim}
 	// moving ranges between consecutive used readings, at the second
-	for j := 1; j < len(w.series); j++ {
+	for j := 1; j < len(ws.series); j++ {
 		p := &b.pts[b.posOf[j]]
 		p.s, p.hasS = b.diff(j, j-1), true
 		if b.on[method.SignalBeyondLimits] && p.s > lim.SpreadUpper {
@@ -751,42 +706,42 @@ func (b *stabBuild) individuals(settings method.SignalSettings) error {
 		}
 	}
 	var err error
-	b.signals, err = method.Signals(w.series, centre, []float64{sigma}, settings)
+	b.signals, err = method.Signals(ws.series, centre, []float64{sigma}, settings)
 	if err != nil {
 		return err
 	}
-	b.baselineInfo(base, len(w.series))
-	b.ewmaCusum(w.series, centre, sigma, "data")
+	b.baselineInfo(base, len(ws.series))
+	b.ewmaCusum(ws.series, centre, sigma, "data")
 	return nil
 }
 
 // subgroups builds the mean chart with its range or SD chart.
 func (b *stabBuild) subgroups(settings method.SignalSettings) error {
-	cv, w, st := b.cv, b.w, b.st
+	cv, ws, st := b.cv, b.ws, b.st
 	b.subgroup = true
-	k := len(w.groups)
+	k := len(ws.groups)
 	maxn := 0
-	for _, g := range w.groups {
+	for _, g := range ws.groups {
 		maxn = max(maxn, len(g))
 	}
 	spread := b.opts.ChartSpread
-	rule := ruleSubgroupsChosen(spread)
+	rule := b.w.stabRuleChosen(spread)
 	if spread == "" || spread == "auto" {
 		spread = "range"
 		if maxn >= 10 {
 			spread = "sd"
 		}
-		rule = ruleSubgroupsAuto(maxn)
+		rule = b.w.stabRuleAuto(maxn)
 	}
 	// the subgroup of each used reading, for the baseline and left-out marks
 	var base []int
 	for g := range k {
-		p := stabPoint{row: cv.rows[w.gcells[g][0]], n: int32(len(w.groups[g])), used: int32(g)}
-		if t, ok := orderKey(cv, int(w.gcells[g][0])); ok {
+		p := stabPoint{row: cv.rows[ws.gcells[g][0]], n: int32(len(ws.groups[g])), used: int32(g)}
+		if t, ok := orderKey(cv, int(ws.gcells[g][0])); ok {
 			p.t, p.hasT = t, true
 		}
 		inAll := true
-		for _, c := range w.gcells[g] {
+		for _, c := range ws.gcells[g] {
 			if !b.inBase(cv.rows[c]) {
 				inAll = false
 			}
@@ -801,7 +756,7 @@ func (b *stabBuild) subgroups(settings method.SignalSettings) error {
 	// readings left out by the user: mark their subgroup
 	if len(cv.excludedByUser) > 0 && b.cv.subgroup != nil {
 		idx := map[string]int{}
-		for g, l := range w.labels {
+		for g, l := range ws.labels {
 			idx[l] = g
 		}
 		for i := range cv.inOrder() {
@@ -815,15 +770,15 @@ func (b *stabBuild) subgroups(settings method.SignalSettings) error {
 	if b.opts.Baseline == "" {
 		base = nil
 	} else if len(base) == 0 {
-		return fmt.Errorf("no subgroup lies wholly in the baseline rows %q: the limits need at least one", string(b.opts.Baseline))
+		return fmt.Errorf("no subgroup lies wholly in the baseline rows %q: the limits need at least one", b.opts.Baseline)
 	}
-	sigma, df := w.est.Sigma, w.est.DF
+	sigma, df := ws.est.Sigma, ws.est.DF
 	if base != nil {
 		sel := make([][]float64, len(base))
 		for i, g := range base {
-			sel[i] = w.groups[g]
+			sel[i] = ws.groups[g]
 		}
-		est, err := sigmaOf(w.method, sel)
+		est, err := sigmaOf(ws.method, sel)
 		if err != nil {
 			return err
 		}
@@ -835,27 +790,27 @@ func (b *stabBuild) subgroups(settings method.SignalSettings) error {
 	// centre: the grand mean of the baseline readings, exact when typed as decimals
 	var centre float64
 	{
-		member := make([]bool, len(w.series))
+		member := make([]bool, len(ws.series))
 		pos := map[int32]int{}
-		for kk, c := range w.cells {
+		for kk, c := range ws.cells {
 			pos[c] = kk
 		}
 		for _, g := range baseOrAll(base, k) {
-			for _, c := range w.gcells[g] {
+			for _, c := range ws.gcells[g] {
 				member[pos[c]] = true
 			}
 		}
-		centre = b.exactMean(func(kk int) bool { return member[kk] })
+		centre = b.mean(func(kk int) bool { return member[kk] })
 	}
 	st.Chart = &ControlChart{Kind: "mean-" + spread, KindRule: rule, Spread: spread, Centre: centre,
-		Sigma: sigma, SigmaMethod: w.method, SigmaDF: df, SigmaShared: base == nil, Width: 3}
+		Sigma: sigma, SigmaMethod: ws.method, SigmaDF: df, SigmaShared: base == nil, Width: 3}
 	means := make([]float64, k)
 	sig := make([]float64, k)
 	z := make([]float64, k)
 	equal := true
-	for g, grp := range w.groups {
+	for g, grp := range ws.groups {
 		n := len(grp)
-		if n != len(w.groups[0]) {
+		if n != len(ws.groups[0]) {
 			equal = false
 		}
 		mean, r, sd := groupStats(grp)
@@ -963,8 +918,8 @@ func (b *stabBuild) baselineInfo(base []int, total int) {
 		return
 	}
 	first, last := b.posOf[base[0]]+1, b.posOf[base[len(base)-1]]+1
-	b.st.Baseline = &BaselineInfo{Rows: string(b.opts.Baseline), Points: len(base), First: first, Last: last,
-		Text: baselineText(len(base), total, first, last, b.subgroup)}
+	b.st.Baseline = &BaselineInfo{Rows: b.opts.Baseline, Points: len(base), First: first, Last: last,
+		Text: b.w.stabBaseline(len(base), total, first, last, b.subgroup)}
 }
 
 // ewmaCusum adds the EWMA and CUSUM charts of the judged points.
@@ -997,10 +952,10 @@ func orderKey(cv *colView, i int) (float64, bool) {
 
 // orderInfo says which order was used, and checks the order column's
 // steps: duplicates, gaps, rows out of order.
-func orderInfo(cv *colView) StabilityOrder {
+func orderInfo(w words, cv *colView) StabilityOrder {
 	o := StabilityOrder{Source: "rows"}
 	if cv.order == nil {
-		o.Text = orderRowsText()
+		o.Text = w.stabOrderRows()
 		return o
 	}
 	o.Source, o.Column, o.Kind, o.OutOfOrder = "column", cv.order.Name, cv.order.Kind, cv.outOfOrder
@@ -1038,14 +993,14 @@ func orderInfo(cv *colView) StabilityOrder {
 			}
 		}
 	}
-	o.Text = orderColumnText(o)
+	o.Text = w.stabOrderColumn(o)
 	return o
 }
 
 // quickMedian returns the median of s (reordered), by selection.
 func quickMedian(s []float64) float64 {
 	n := len(s)
-	sortFloats(s)
+	slices.Sort(s)
 	if n%2 == 1 {
 		return s[n/2]
 	}
@@ -1055,49 +1010,54 @@ func quickMedian(s []float64) float64 {
 // drift runs the drift tests and the change point on the readings in
 // time order.
 func (b *stabBuild) drift() {
-	w := b.w
-	n := len(w.series)
+	ws := b.ws
+	n := len(ws.series)
 	d := &DriftInfo{Readings: n, Exact: b.exact}
 	unit := 1.0
+	var mant []int64
 	if b.exact {
-		unit = 1 / pow10tab[b.scale]
+		unit = b.grid.Float(1)
+		mant = make([]int64, n)
+		for k, x := range ws.series {
+			mant[k] = b.grid.M(x)
+		}
 	} else {
-		b.notes = append(b.notes, Note{Field: "stability.drift", Text: noteNotExact()})
+		b.notes = append(b.notes, Note{Field: "stability.drift", Text: b.w.stabNotExact()})
 	}
-	if a, err := method.Lag1Autocorrelation(w.series); err == nil {
+	if a, err := method.Lag1Autocorrelation(ws.series); err == nil {
 		d.Autocorrelation = &AutocorrInfo{R1: a.R1, Q: a.Q, P: a.P, Strong: a.R1 > strongAutocorr && a.P < driftAlpha}
 	} else {
-		b.notes = append(b.notes, Note{Field: "stability.drift.autocorrelation", Text: err.Error()})
+		b.notes = append(b.notes, Note{Field: "stability.drift.autocorrelation", Text: b.w.stabTestFailed("lag-1 autocorrelation", err)})
 	}
 	var rt method.RunsTest
 	var mk method.MannKendall
 	var cp method.ChangePoint
 	var errR, errM, errC error
 	if b.exact {
-		rt, errR = method.RunsAboutMedian(b.mant)
-		mk, errM = method.MannKendallTest(b.mant)
-		cp, errC = method.PettittChange(b.mant)
+		rt, errR = method.RunsAboutMedian(mant)
+		mk, errM = method.MannKendallTest(mant)
+		cp, errC = method.PettittChange(mant)
 	} else {
-		rt, errR = method.RunsAboutMedian(w.series)
-		mk, errM = method.MannKendallTest(w.series)
-		cp, errC = method.PettittChange(w.series)
+		rt, errR = method.RunsAboutMedian(ws.series)
+		mk, errM = method.MannKendallTest(ws.series)
+		cp, errC = method.PettittChange(ws.series)
 	}
 	if errR == nil {
 		med := rt.Median * unit
 		if b.exact {
 			// the middle of two mantissas, correctly rounded
-			med, _ = new(big.Rat).SetFrac(big.NewInt(int64(rt.Median*2)), new(big.Int).Mul(big.NewInt(2), new(big.Int).Exp(big.NewInt(10), big.NewInt(int64(b.scale)), nil))).Float64()
+			med = decimal.Float64(new(big.Rat).SetFrac(big.NewInt(int64(rt.Median*2)), new(big.Int).Mul(big.NewInt(2), b.grid.Denom())))
 		}
 		d.Runs = &RunsInfo{Median: med, Above: rt.Above, Below: rt.Below, OnMedian: rt.OnMedian, Runs: rt.Runs,
 			Expected: rt.Expected, Z: rt.Z, P: rt.P, Exact: rt.Exact, Longest: rt.Longest, LongestSide: rt.LongestSide,
-			LongestFirst: int(b.cv.rows[w.cells[rt.LongestFirst]]), LongestLast: int(b.cv.rows[w.cells[rt.LongestLast]])}
+			LongestFirst: int(b.cv.rows[ws.cells[rt.LongestFirst]]), LongestLast: int(b.cv.rows[ws.cells[rt.LongestLast]])}
 	} else {
-		b.notes = append(b.notes, Note{Field: "stability.drift.runs", Text: errR.Error()})
+		b.notes = append(b.notes, Note{Field: "stability.drift.runs", Text: b.w.stabTestFailed("runs test", errR)})
 	}
 	if errM == nil {
 		d.Trend = &TrendInfo{S: mk.S, VarS: mk.VarS, Z: mk.Z, P: mk.P, Tau: mk.Tau, TieGroups: mk.TieGroups}
 	} else {
-		b.notes = append(b.notes, Note{Field: "stability.drift.trend", Text: errM.Error()})
+		b.notes = append(b.notes, Note{Field: "stability.drift.trend", Text: b.w.stabTestFailed("Mann-Kendall trend test", errM)})
 	}
 	every := 1
 	if n > senMax {
@@ -1106,30 +1066,30 @@ func (b *stabBuild) drift() {
 	var sen method.SenSlope
 	var errS error
 	if b.exact {
-		sen, errS = method.SenSlopeEstimate(everyKth(b.mant, every), b.opts.Confidence)
+		sen, errS = method.SenSlopeEstimate(everyKth(mant, every), b.opts.Confidence)
 	} else {
-		sen, errS = method.SenSlopeEstimate(everyKth(w.series, every), b.opts.Confidence)
+		sen, errS = method.SenSlopeEstimate(everyKth(ws.series, every), b.opts.Confidence)
 	}
 	if errS == nil {
 		f := unit / float64(every)
 		d.Slope = &SlopeInfo{Slope: sen.Slope * f, Lower: sen.Lower * f, Upper: sen.Upper * f, Confidence: sen.Confidence,
 			Intercept: sen.Intercept * unit, Every: every, Used: sen.N}
 		if every > 1 {
-			b.notes = append(b.notes, Note{Field: "stability.drift.slope", Text: noteSenThinned(n, every, sen.N)})
+			b.notes = append(b.notes, Note{Field: "stability.drift.slope", Text: b.w.stabSenThinned(n, every, sen.N)})
 		}
 	} else {
-		b.notes = append(b.notes, Note{Field: "stability.drift.slope", Text: errS.Error()})
+		b.notes = append(b.notes, Note{Field: "stability.drift.slope", Text: b.w.stabTestFailed("Sen's slope", errS)})
 	}
 	b.st.Drift = d
 	if errC == nil {
 		c := &ChangeInfo{Statistic: cp.Statistic, P: cp.P, MeanBefore: cp.MeanBefore * unit, MeanAfter: cp.MeanAfter * unit, Found: cp.P < driftAlpha}
 		c.Shift = c.MeanAfter - c.MeanBefore
-		cell := w.cells[cp.Index]
+		cell := ws.cells[cp.Index]
 		c.Row = int(b.cv.rows[cell])
 		if b.subgroup {
-			for g, cs := range w.gcells {
+			for g, cs := range ws.gcells {
 				if slices.Contains(cs, cell) {
-					c.Position, c.Subgroup = g+1, w.labels[g]
+					c.Position, c.Subgroup = g+1, ws.labels[g]
 					break
 				}
 			}
@@ -1140,7 +1100,7 @@ func (b *stabBuild) drift() {
 			b.st.Change = c
 		}
 	} else {
-		b.notes = append(b.notes, Note{Field: "stability.changePoint", Text: errC.Error()})
+		b.notes = append(b.notes, Note{Field: "stability.changePoint", Text: b.w.stabTestFailed("change point", errC)})
 	}
 }
 
@@ -1179,12 +1139,12 @@ func (b *stabBuild) finishChart() {
 		for _, j := range judgedIdx[:min(len(judgedIdx), maxSignalRows)] {
 			p := b.pts[b.posOf[j]]
 			if b.subgroup {
-				si.Subgroups = append(si.Subgroups, b.w.labels[b.posOf[j]])
+				si.Subgroups = append(si.Subgroups, b.ws.labels[b.posOf[j]])
 			} else {
 				si.Rows = append(si.Rows, int(p.row))
 			}
 		}
-		si.Text = signalText(si, b.subgroup)
+		si.Text = b.w.stabSignal(si, b.subgroup)
 		st.Signals = append(st.Signals, si)
 	}
 	span := func(code, chart string, side int, idx []int) SignalInfo {
@@ -1231,10 +1191,10 @@ func (b *stabBuild) finishChart() {
 		if c == method.SignalBeyondLimits {
 			cnt += counts[SignalSpreadBeyond]
 		}
-		st.Checks = append(st.Checks, CheckInfo{Code: c, Name: checkName(c), On: b.on[c], Count: cnt, Text: checkText(c)})
+		st.Checks = append(st.Checks, CheckInfo{Code: c, Name: b.w.stabCheckName(c), On: b.on[c], Count: cnt, Text: b.w.stabCheckText(c)})
 	}
 	if st.SignalsCut {
-		b.notes = append(b.notes, Note{Field: "stability.signals", Text: noteSignalsCut(total, maxSignalsListed)})
+		b.notes = append(b.notes, Note{Field: "stability.signals", Text: b.w.stabSignalsCut(total, maxSignalsListed)})
 	}
 	// points, thinned when long
 	ch := st.Chart
@@ -1249,7 +1209,7 @@ func (b *stabBuild) finishChart() {
 		}
 		cp := CtlPoint{I: i + 1, Row: int(p.row), N: int(p.n), Y: p.y, LeftOut: p.leftOut, Outside: p.outside, Flags: b.flags[i]}
 		if b.subgroup {
-			cp.Label = b.w.labels[i]
+			cp.Label = b.ws.labels[i]
 		}
 		if p.hasS {
 			v := p.s
@@ -1354,53 +1314,61 @@ func (b *stabBuild) verdict() {
 	trend := st.Drift != nil && st.Drift.Trend != nil && st.Drift.Trend.P < driftAlpha
 	change := st.Change != nil && st.Change.Found
 	st.Stable = chartN == 0 && ewmaN == 0 && cusumN == 0 && !trend && !change
-	f := b.numFmt()
-	what := b.countWords()
+	w, dec, unit := b.w, b.dataDecimals(), b.cv.unit
 	if chartN > 0 {
 		first := firstSignal(st.Signals, "values", "spread")
-		st.Reasons = append(st.Reasons, Reason{Code: "signals", Text: reasonSignals(chartN, first, b.subgroup), Vals: map[string]float64{"count": float64(chartN)}})
+		st.Reasons = append(st.Reasons, Reason{Code: "signals", Text: w.stabReasonSignals(chartN, first), Vals: map[string]float64{"count": float64(chartN)}})
 	}
 	if ewmaN > 0 {
-		st.Reasons = append(st.Reasons, Reason{Code: "ewma", Text: reasonEWMA(ewmaN, firstSignal(st.Signals, "ewma"), b.subgroup), Vals: map[string]float64{"count": float64(ewmaN)}})
+		st.Reasons = append(st.Reasons, Reason{Code: "ewma", Text: w.stabReasonEWMA(ewmaN, firstSignal(st.Signals, "ewma")), Vals: map[string]float64{"count": float64(ewmaN)}})
 	}
 	if cusumN > 0 {
-		st.Reasons = append(st.Reasons, Reason{Code: "cusum", Text: reasonCUSUM(cusumN, firstSignal(st.Signals, "cusum"), b.subgroup), Vals: map[string]float64{"count": float64(cusumN)}})
+		st.Reasons = append(st.Reasons, Reason{Code: "cusum", Text: w.stabReasonCUSUM(cusumN, firstSignal(st.Signals, "cusum")), Vals: map[string]float64{"count": float64(cusumN)}})
 	}
 	if trend {
 		t := st.Drift.Trend
-		st.Reasons = append(st.Reasons, Reason{Code: "trend", Text: reasonTrend(t, st.Drift.Slope, f), Vals: map[string]float64{"p": t.P, "tau": t.Tau}})
+		st.Reasons = append(st.Reasons, Reason{Code: "trend", Text: w.stabReasonTrend(t.S, t.P, st.Drift.Slope, dec, unit), Vals: map[string]float64{"p": t.P, "tau": t.Tau}})
 	}
 	if change {
 		c := st.Change
-		st.Reasons = append(st.Reasons, Reason{Code: "change-point", Text: reasonChange(c, b.subgroup, f), Vals: map[string]float64{"p": c.P, "shift": c.Shift}})
+		st.Reasons = append(st.Reasons, Reason{Code: "change-point", Text: w.stabReasonChange(c, b.subgroup, dec), Vals: map[string]float64{"p": c.P, "shift": c.Shift}})
 	}
 	if st.Stable {
-		st.Reasons = append(st.Reasons, Reason{Code: "no-signal", Text: reasonNoSignal(), Vals: map[string]float64{"points": float64(st.Chart.Count)}})
+		st.Reasons = append(st.Reasons, Reason{Code: "no-signal", Text: w.stabReasonNoSignal(), Vals: map[string]float64{"points": float64(st.Chart.Count)}})
 	}
 	if a := st.Drift.Autocorrelation; a != nil && a.Strong {
-		st.Warnings = append(st.Warnings, Reason{Code: "autocorrelation", Text: warnAutocorr(a.R1, a.P), Vals: map[string]float64{"r1": a.R1, "p": a.P}})
+		st.Warnings = append(st.Warnings, Reason{Code: "autocorrelation", Text: w.stabWarnAutocorr(a.R1, a.P), Vals: map[string]float64{"r1": a.R1, "p": a.P}})
 	}
 	if st.Order.GapCount > 0 {
-		st.Warnings = append(st.Warnings, Reason{Code: "gaps", Text: warnGaps(st.Order), Vals: map[string]float64{"count": float64(st.Order.GapCount)}})
+		st.Warnings = append(st.Warnings, Reason{Code: "gaps", Text: w.stabWarnGaps(st.Order), Vals: map[string]float64{"count": float64(st.Order.GapCount)}})
 	}
 	if st.Order.OutOfOrder > 0 {
-		st.Warnings = append(st.Warnings, Reason{Code: "out-of-order", Text: warnOutOfOrder(st.Order), Vals: map[string]float64{"count": float64(st.Order.OutOfOrder)}})
+		st.Warnings = append(st.Warnings, Reason{Code: "out-of-order", Text: w.stabWarnOutOfOrder(st.Order), Vals: map[string]float64{"count": float64(st.Order.OutOfOrder)}})
 	}
 	var lead string
 	switch {
 	case st.Stable:
-		lead = leadStable(what)
+		lead = w.stabLeadStable(len(b.judged), len(b.ws.series), b.subgroup)
 	case change && (chartN > 0 || ewmaN > 0 || cusumN > 0 || !trend):
-		lead = leadShift(st.Change, b.subgroup, f)
+		lead = w.stabLeadShift(st.Change, b.subgroup, dec, unit)
 	case trend && st.Drift.Slope != nil:
-		lead = leadDrift(st.Drift.Slope, f)
+		lead = w.stabLeadDrift(st.Drift.Slope.Slope, dec, unit)
 	default:
-		lead = leadSignals(nSig, firstSignal(st.Signals, "values", "spread", "ewma", "cusum"), b.subgroup)
+		lead = w.stabLeadSignals(nSig, firstSignal(st.Signals, "values", "spread", "ewma", "cusum"))
 	}
 	if st.Baseline != nil {
-		lead += "; " + st.Baseline.Text
+		lead = w.stabLeadBaseline(lead, st.Baseline.Text)
 	}
 	st.Verdict = lead
+}
+
+// dataDecimals is the number of decimals data values are written with in
+// sentences: as typed, 3 when some reading was not a plain decimal.
+func (b *stabBuild) dataDecimals() int {
+	if b.exact {
+		return b.grid.Scale
+	}
+	return 3
 }
 
 func firstSignal(list []SignalInfo, charts ...string) *SignalInfo {
@@ -1411,48 +1379,6 @@ func firstSignal(list []SignalInfo, charts ...string) *SignalInfo {
 		}
 	}
 	return best
-}
-
-// wordFmt writes data values in sentences: to the data's decimals (plus
-// extra), with the column's decimal mark and unit.
-type wordFmt struct {
-	dec   int
-	comma bool
-	unit  string
-}
-
-func (b *stabBuild) numFmt() wordFmt {
-	d := b.scale
-	if !b.exact {
-		d = 3
-	}
-	return wordFmt{dec: d, comma: b.cv.decimalComma, unit: b.cv.unit}
-}
-
-func (f wordFmt) num(x float64, extra int) string {
-	s := fmtFixed(x, min(15, f.dec+extra))
-	if f.comma {
-		s = strings.Replace(s, ".", ",", 1)
-	}
-	return s
-}
-
-func (f wordFmt) signed(x float64, extra int) string {
-	s := f.num(x, extra)
-	if x > 0 {
-		s = "+" + s
-	}
-	if f.unit != "" {
-		s += " " + f.unit
-	}
-	return s
-}
-
-func (b *stabBuild) countWords() string {
-	if b.subgroup {
-		return fmt.Sprintf("%d subgroups (%d readings)", len(b.w.groups), len(b.w.series))
-	}
-	return fmt.Sprintf("%d readings", len(b.w.series))
 }
 
 // roundedConstants are the chart constants rounded to 12 significant
@@ -1468,18 +1394,6 @@ func roundedConstants(n int) method.ChartConstants {
 		*p = roundSig(*p, 12)
 	}
 	return c
-}
-
-// roundSig rounds x to d significant digits.
-func roundSig(x float64, d int) float64 {
-	if x == 0 || math.IsNaN(x) || math.IsInf(x, 0) {
-		return x
-	}
-	v, err := strconv.ParseFloat(strconv.FormatFloat(x, 'g', d, 64), 64)
-	if err != nil {
-		return x
-	}
-	return v
 }
 
 // arlCache keeps the run lengths by chart and settings: each is a linear
@@ -1530,273 +1444,4 @@ func cachedARL(chart string, a, b, shift float64) *float64 {
 	}
 	c := *v
 	return &c
-}
-
-// ---------- words (to move into words.go) ----------
-
-func ruleIndividuals() string {
-	return "Individual readings (no subgroup column): an individuals chart with the moving range of consecutive readings."
-}
-
-func ruleSubgroupsAuto(maxn int) string {
-	if maxn >= 10 {
-		return fmt.Sprintf("Subgroups of up to %d readings: mean and standard deviation chart (from 10 readings a subgroup the SD is the more efficient measure of spread).", maxn)
-	}
-	return fmt.Sprintf("Subgroups of up to %d readings: mean and range chart (below 10 readings a subgroup the range loses little against the SD).", maxn)
-}
-
-func ruleSubgroupsChosen(spread string) string {
-	if spread == "sd" {
-		return "Mean and standard deviation chart, as chosen in the settings."
-	}
-	return "Mean and range chart, as chosen in the settings."
-}
-
-func noteAllSingles() string {
-	return "every subgroup holds one reading: the readings are charted as individuals with moving ranges"
-}
-
-func noteNotExact() string {
-	return "some readings are not plain decimals (exponent form): ties and sides of the median in the drift tests were decided on binary values"
-}
-
-func noteSenThinned(n, every, used int) string {
-	return fmt.Sprintf("Sen's slope forms every pair of readings, which is too many for %d readings: it was computed from every %d-th reading (%d readings) and scaled to a slope per reading", n, every, used)
-}
-
-func noteSignalsCut(total, listed int) string {
-	return fmt.Sprintf("%d signals were found; the first %d are listed (the checks give the full counts)", total, listed)
-}
-
-func verdictTooFew(n int) string {
-	return fmt.Sprintf("Stability not judged: %d readings in time order, and control limits need at least 3", n)
-}
-
-func verdictNoSpread(err error) string {
-	return "Stability not judged: " + err.Error()
-}
-
-func cautionNotJudged() string {
-	return "Stability over time could not be judged, so capability describes this batch, not the process."
-}
-
-func cautionNotStable(verdict string) string {
-	return "The process was not stable over time (" + verdict + "): capability describes this batch, not the process."
-}
-
-func baselineText(points, total, first, last int, subgroup bool) string {
-	what := "readings"
-	if subgroup {
-		what = "subgroups"
-	}
-	if points == last-first+1 {
-		return fmt.Sprintf("limits set from %s %d-%d", what, first, last)
-	}
-	return fmt.Sprintf("limits set from %d of the %d %s (%d to %d)", points, total, what, first, last)
-}
-
-func orderRowsText() string {
-	return "In the order of the rows (no order or time column chosen)."
-}
-
-func orderColumnText(o StabilityOrder) string {
-	s := fmt.Sprintf("In the order of column %q", o.Column)
-	if o.Kind == "time" {
-		s += " (times)"
-	}
-	s += "."
-	if o.OutOfOrder > 0 {
-		s += fmt.Sprintf(" %d rows are not in that order in the file; the readings were put in order.", o.OutOfOrder)
-	}
-	if o.Duplicates > 0 {
-		s += fmt.Sprintf(" %d readings share their %s with the one before (kept in row order).", o.Duplicates, map[bool]string{true: "time", false: "order value"}[o.Kind == "time"])
-	}
-	if o.GapCount > 0 {
-		s += fmt.Sprintf(" %d gaps: steps more than %d times the usual step of %s.", o.GapCount, gapFactor, stepText(o.MedianStep, o.Kind))
-	}
-	return s
-}
-
-func stepText(s float64, kind string) string {
-	if kind != "time" {
-		return g3(s)
-	}
-	switch {
-	case s >= 86400:
-		return g3(s/86400) + " days"
-	case s >= 3600:
-		return g3(s/3600) + " h"
-	case s >= 60:
-		return g3(s/60) + " min"
-	}
-	return g3(s) + " s"
-}
-
-// checkName and checkText are the checks in our own words.
-func checkName(code string) string {
-	return map[string]string{
-		method.SignalBeyondLimits:  "Beyond a limit",
-		method.SignalTwoOfThree:    "Two of three far out",
-		method.SignalFourOfFive:    "Four of five out on one side",
-		method.SignalRunSameSide:   "Long run on one side",
-		method.SignalTrend:         "Steady climb or fall",
-		method.SignalAlternating:   "Saw-tooth",
-		method.SignalHuggingCentre: "Crowding the centre",
-		method.SignalAvoidCentre:   "Avoiding the centre",
-		SignalEWMA:                 "EWMA beyond its limits",
-		SignalCUSUM:                "CUSUM beyond its decision interval",
-		SignalSpreadBeyond:         "Spread beyond its limits",
-	}[code]
-}
-
-func checkText(code string) string {
-	return map[string]string{
-		method.SignalBeyondLimits:  "a point outside the control limits (3 sigma); on the spread chart, a spread outside its limits",
-		method.SignalTwoOfThree:    "two of three points in a row more than 2 sigma from the centre, on the same side",
-		method.SignalFourOfFive:    "four of five points in a row more than 1 sigma from the centre, on the same side",
-		method.SignalRunSameSide:   "nine or more points in a row on the same side of the centre line",
-		method.SignalTrend:         "six or more points in a row, each higher (or each lower) than the one before",
-		method.SignalAlternating:   "fourteen or more points in a row going up and down in turn",
-		method.SignalHuggingCentre: "fifteen or more points in a row within 1 sigma of the centre (limits too wide, or mixed streams)",
-		method.SignalAvoidCentre:   "eight or more points in a row more than 1 sigma from the centre, on both sides (two streams mixed)",
-		SignalEWMA:                 "the exponentially weighted average outside its limits: a small sustained shift",
-		SignalCUSUM:                "a cumulative sum of deviations beyond its decision interval: a small sustained shift",
-	}[code]
-}
-
-func sideWord(side int) string {
-	switch side {
-	case 1:
-		return " (upward)"
-	case -1:
-		return " (downward)"
-	}
-	return ""
-}
-
-func signalText(s SignalInfo, subgroup bool) string {
-	what, where := "reading", ""
-	if subgroup {
-		what = "subgroup"
-	}
-	if s.First == s.Last {
-		where = fmt.Sprintf("%s %d", what, s.First)
-	} else {
-		where = fmt.Sprintf("%ss %d-%d", what, s.First, s.Last)
-	}
-	by := ""
-	if len(s.Rows) > 0 {
-		by = " (" + plural(s.Points, "row ", "rows ") + joinInts(s.Rows, s.Points) + ")"
-	} else if len(s.Subgroups) > 0 {
-		by = " (" + plural(s.Points, "subgroup ", "subgroups ") + joinStrings(s.Subgroups, s.Points) + ")"
-	}
-	return checkName(s.Code) + sideWord(s.Side) + ": " + where + by
-}
-
-func joinInts(v []int, total int) string {
-	parts := make([]string, len(v))
-	for i, x := range v {
-		parts[i] = strconv.Itoa(x)
-	}
-	return joinStrings(parts, total)
-}
-
-func joinStrings(v []string, total int) string {
-	s := strings.Join(v, ", ")
-	if total > len(v) {
-		s += fmt.Sprintf(" and %d more", total-len(v))
-	}
-	return s
-}
-
-func reasonSignals(n int, first *SignalInfo, subgroup bool) string {
-	s := fmt.Sprintf("%d %s on the control chart", n, plural(n, "signal", "signals"))
-	if first != nil {
-		s += "; the first: " + first.Text
-	}
-	return s
-}
-
-func reasonEWMA(n int, first *SignalInfo, subgroup bool) string {
-	s := fmt.Sprintf("the EWMA left its limits %d %s", n, plural(n, "time", "times"))
-	if first != nil {
-		s += ", first " + first.Text
-	}
-	return s
-}
-
-func reasonCUSUM(n int, first *SignalInfo, subgroup bool) string {
-	s := fmt.Sprintf("the CUSUM crossed its decision interval %d %s", n, plural(n, "time", "times"))
-	if first != nil {
-		s += ", first " + first.Text
-	}
-	return s
-}
-
-func reasonTrend(t *TrendInfo, sl *SlopeInfo, f wordFmt) string {
-	dir := "upward"
-	if t.S < 0 {
-		dir = "downward"
-	}
-	s := fmt.Sprintf("a %s trend (Mann-Kendall %s)", dir, pText(t.P))
-	if sl != nil {
-		s += ", about " + f.signed(sl.Slope, 2) + " per reading (Sen's slope)"
-	}
-	return s
-}
-
-func reasonChange(c *ChangeInfo, subgroup bool, f wordFmt) string {
-	at := fmt.Sprintf("reading %d (row %d)", c.Position, c.Row)
-	if subgroup {
-		at = fmt.Sprintf("subgroup %d (%s)", c.Position, c.Subgroup)
-	}
-	return fmt.Sprintf("the level changed at %s: mean %s before, %s after (Pettitt %s)", at, f.num(c.MeanBefore, 1), f.num(c.MeanAfter, 1), pText(c.P))
-}
-
-func reasonNoSignal() string {
-	return "no point beyond the limits, no run or pattern among the checks switched on, no EWMA or CUSUM alarm, no trend and no change point"
-}
-
-func warnAutocorr(r1, p float64) string {
-	return fmt.Sprintf("Consecutive readings are correlated (lag-1 autocorrelation %s, %s): limits from moving ranges are then too narrow and signal too often; sample less often or model the drift.", g3(r1), pText(p))
-}
-
-func warnGaps(o StabilityOrder) string {
-	return fmt.Sprintf("%d %s in the order column (steps more than %d times the usual %s): the process may have been stopped or changed there.", o.GapCount, plural(o.GapCount, "gap", "gaps"), gapFactor, stepText(o.MedianStep, o.Kind))
-}
-
-func warnOutOfOrder(o StabilityOrder) string {
-	return fmt.Sprintf("%d rows are out of order in the file; the chart follows column %q.", o.OutOfOrder, o.Column)
-}
-
-func leadStable(what string) string {
-	return "Stable over the " + what + ": no signal"
-}
-
-func leadShift(c *ChangeInfo, subgroup bool, f wordFmt) string {
-	dir := "upward"
-	if c.Shift < 0 {
-		dir = "downward"
-	}
-	at := fmt.Sprintf("reading %d", c.Position)
-	if subgroup {
-		at = fmt.Sprintf("subgroup %d (%s)", c.Position, c.Subgroup)
-	}
-	return fmt.Sprintf("Shift %s from %s (about %s)", dir, at, f.signed(c.Shift, 1))
-}
-
-func leadDrift(sl *SlopeInfo, f wordFmt) string {
-	dir := "upward"
-	if sl.Slope < 0 {
-		dir = "downward"
-	}
-	return fmt.Sprintf("Drifting %s: about %s per reading", dir, f.signed(sl.Slope, 2))
-}
-
-func leadSignals(n int, first *SignalInfo, subgroup bool) string {
-	s := fmt.Sprintf("Not stable: %d %s", n, plural(n, "signal", "signals"))
-	if first != nil {
-		s += "; the first: " + first.Text
-	}
-	return s
 }

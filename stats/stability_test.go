@@ -129,7 +129,7 @@ func TestStabilityIndividualsAgainstR(t *testing.T) {
 		}
 		// limits from the first half as baseline (rows = readings: no header)
 		half := n / 2
-		sb := stab(t, Request{Text: text, Options: Options{Baseline: RowSpec(fmt.Sprintf("1-%d", half))}})
+		sb := stab(t, Request{Text: text, Options: Options{Baseline: fmt.Sprintf("1-%d", half)}})
 		nearR(t, c.set+" baseline centre", sb.Chart.Centre, r["half.centre"], 1e-14)
 		nearR(t, c.set+" baseline sigma", sb.Chart.Sigma, r["half.sigma"], 1e-12)
 		if sb.Baseline == nil || sb.Baseline.Points != half || sb.Chart.SigmaShared || !strings.Contains(sb.Verdict, fmt.Sprintf("limits set from readings 1-%d", half)) {
@@ -194,8 +194,8 @@ func TestStabilityVerdicts(t *testing.T) {
 	if !s.Stable || s.Verdict != "Stable over the 40 readings: no signal" {
 		t.Errorf("stable series: %v %q %+v", s.Stable, s.Verdict, s.Reasons)
 	}
-	if _, _, ok := s.Caution(); ok {
-		t.Error("a stable process gives a caution")
+	if c := s.Caution(); c != nil {
+		t.Errorf("a stable process gives a caution: %+v", c)
 	}
 	// the same, then 20 readings 0.05 higher: a shift from reading 41
 	for i := 0; i < 20; i++ {
@@ -205,9 +205,8 @@ func TestStabilityVerdicts(t *testing.T) {
 	if s.Stable || !strings.HasPrefix(s.Verdict, "Shift upward from reading 41 (about +0.05") || !strings.HasSuffix(s.Verdict, "limits set from readings 1-40") {
 		t.Errorf("shifted series: %q", s.Verdict)
 	}
-	code, text, ok := s.Caution()
-	if !ok || code != "not-stable" || !strings.Contains(text, "not the process") {
-		t.Errorf("caution %q %q %v", code, text, ok)
+	if c := s.Caution(); c == nil || c.Code != "not-stable" || c.Text != s.Verdict {
+		t.Errorf("caution %+v", c)
 	}
 	for _, sg := range s.Signals {
 		for _, r := range sg.Rows {
@@ -227,8 +226,8 @@ func TestStabilityEdges(t *testing.T) {
 		if s.Judged || s.Stable || s.Reasons[0].Code != "too-few" || s.Chart != nil {
 			t.Errorf("%q: %+v", text, s)
 		}
-		if code, _, ok := s.Caution(); !ok || code != "stability-not-judged" {
-			t.Errorf("%q: caution %s %v", text, code, ok)
+		if c := s.Caution(); c == nil || c.Code != "stability-not-judged" {
+			t.Errorf("%q: caution %+v", text, c)
 		}
 	}
 	s := stab(t, Request{Text: "5\n5\n5\n5\n"})
@@ -273,8 +272,8 @@ func TestStabilityEdges(t *testing.T) {
 			t.Errorf("%+v: got %v, want %s", o, err, CodeBadOption)
 		}
 	}
-	// the baseline as a JSON list of rows, or as a range
-	for _, js := range []string{`[1,2,3,4]`, `"1-4"`} {
+	// the baseline as rows and ranges in a string; anything else is refused
+	for _, js := range []string{`"1, 2, 3, 4"`, `"1-4"`, `"1-2;3 4"`} {
 		req, err := ParseRequest([]byte(`{"text":"1.1\n1.2\n1.0\n1.1\n1.3\n1.2\n","options":{"baseline":` + js + `}}`))
 		if err != nil {
 			t.Fatal(err)
@@ -283,8 +282,10 @@ func TestStabilityEdges(t *testing.T) {
 			t.Errorf("baseline %s: %+v", js, s.Baseline)
 		}
 	}
-	if _, err := ParseRequest([]byte(`{"text":"1","options":{"baseline":{"a":1}}}`)); CodeOf(err) != CodeBadOption {
-		t.Errorf("baseline object: %v", err)
+	for _, js := range []string{`{"a":1}`, `[1,2]`} {
+		if _, err := ParseRequest([]byte(`{"text":"1","options":{"baseline":` + js + `}}`)); err == nil || !strings.Contains(err.Error(), "baseline") {
+			t.Errorf("baseline %s: %v", js, err)
+		}
 	}
 	// switching a check off removes its signals
 	s = stab(t, Request{Text: "1.0\n1.1\n0.9\n1.0\n1.1\n0.9\n1.0\n5.0\n1.0\n1.1\n", Options: Options{Signals: map[string]bool{"beyond-limits": false, "ewma": false, "cusum": false}}})
@@ -311,7 +312,7 @@ func FuzzStability(f *testing.F) {
 	f.Add("A\t1.0\nA\t1.1\nB\t2.0\nB\t2.2\nC\t1.5\n", "1-3", "", uint8(1))
 	f.Add("t\tv\n3\t1\n1\t2\n2\t3\n2\t4\n9\t1e3\n", "2", "", uint8(2))
 	f.Fuzz(func(t *testing.T, text, baseline, spread string, mode uint8) {
-		req := Request{Text: text, Options: Options{Baseline: RowSpec(baseline), ChartSpread: spread}}
+		req := Request{Text: text, Options: Options{Baseline: baseline, ChartSpread: spread}}
 		if mode%3 == 1 {
 			req.Subgroup, req.Value = "Column 1", "Column 2"
 		} else if mode%3 == 2 {
@@ -347,4 +348,55 @@ func FuzzStability(f *testing.F) {
 			}
 		}
 	})
+}
+
+// TestSpecCautionFromStability: the stability section is built before the
+// spec section and its verdict becomes the spec's first caution; a stable
+// process gives none. Data constructed (a steady pattern, then the same
+// pattern 0.08 higher from reading 31).
+func TestSpecCautionFromStability(t *testing.T) {
+	pattern := []int{0, 2, -1, 1, -2, 0, 1, -1}
+	text := func(shift float64) string {
+		var b strings.Builder
+		for i := 1; i <= 60; i++ {
+			x := 5.1 + 0.01*float64(pattern[i%8])
+			if i > 30 {
+				x += shift
+			}
+			fmt.Fprintf(&b, "%.2f\n", x)
+		}
+		return b.String()
+	}
+	lsl, usl := 4.9, 5.4
+	rep, err := Analyze(Request{Text: text(0.08), Options: Options{LSL: &lsl, USL: &usl}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if rep.Stability.Stable || rep.Spec == nil || len(rep.Spec.Cautions) == 0 {
+		t.Fatalf("stability %q, spec %+v", rep.Stability.Verdict, rep.Spec)
+	}
+	c := rep.Spec.Cautions[0]
+	if c.Code != "not-stable" || !strings.Contains(c.Text, rep.Stability.Verdict) || !strings.Contains(c.Text, "capability then describes this batch, not the process") {
+		t.Errorf("first caution %+v", c)
+	}
+	rep, err = Analyze(Request{Text: text(0), Options: Options{LSL: &lsl, USL: &usl}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !rep.Stability.Stable {
+		t.Fatalf("steady data: %q", rep.Stability.Verdict)
+	}
+	for _, c := range rep.Spec.Cautions {
+		if c.Code == "not-stable" || c.Code == "stability-not-judged" {
+			t.Errorf("stable process, caution %+v", c)
+		}
+	}
+	// too few readings to judge: the spec says so
+	rep, err = Analyze(Request{Text: "5.10\n5.12\n", Options: Options{LSL: &lsl, USL: &usl}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if rep.Spec == nil || len(rep.Spec.Cautions) == 0 || rep.Spec.Cautions[0].Code != "stability-not-judged" || !strings.Contains(rep.Spec.Cautions[0].Text, "not the process") {
+		t.Errorf("two readings: spec %+v", rep.Spec)
+	}
 }

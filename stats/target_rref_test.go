@@ -3,6 +3,8 @@ package stats
 import (
 	"math"
 	"testing"
+
+	"lotlens/stats/decimal"
 )
 
 // Tests against a target on the 24 invented sets against R 4.2.2:
@@ -15,7 +17,7 @@ func TestTargetR(t *testing.T) {
 	for set, r := range ref {
 		x, mean, sd := methodsSet(t, set)
 		mu := r["target"]
-		tg := targetSection(x, mean, sd, mu, 0.95)
+		tg := targetSection(words{}, x, mean, sd, mu, 0.95, decimal.Grid{}) // binary, as R computes
 		if tg.T == nil {
 			t.Fatalf("%s: no t test", set)
 		}

@@ -1,10 +1,5 @@
 package stats
 
-import (
-	"fmt"
-	"strconv"
-)
-
 // Verdict thresholds (common practice; documented in the help page).
 const (
 	// skewStrong: |G1| at or above this is skewed whatever the test says
@@ -33,15 +28,6 @@ const (
 	minStepsSD = 2
 )
 
-func g3(x float64) string { return strconv.FormatFloat(x, 'g', 3, 64) }
-
-func pText(p float64) string {
-	if p < 0.001 {
-		return "p < 0.001"
-	}
-	return "p = " + strconv.FormatFloat(p, 'f', 3, 64)
-}
-
 // verdict decides which pair of figures to quote, by these rules, in order:
 //
 //  1. one value, or all values equal: mean and SD (there is nothing else).
@@ -63,17 +49,17 @@ func pText(p float64) string {
 // tolerance (fewer than 10 steps across it) or for the spread (SD below 2
 // steps); heavy ties (fewer than 10 distinct values among 20 or more, or
 // one value holding more than a quarter of the readings); constant data.
-func verdict(rep *Report, opts Options, n int, constant bool, maxRun, distinct int, step float64, inner, outer int) {
+func verdict(rep *Report, w words, opts Options, n int, constant bool, maxRun, distinct int, step float64, inner, outer int) {
 	v := &rep.Verdict
 	v.Reasons = nil
 	s := rep.Spread
 	switch {
 	case n == 1:
 		v.Quote = "mean-sd"
-		v.Reasons = append(v.Reasons, Reason{Code: "single-value", Text: "Only one value: it is the mean and the median; no spread can be estimated."})
+		v.Reasons = append(v.Reasons, Reason{Code: "single-value", Text: w.reasonSingle()})
 	case constant:
 		v.Quote = "mean-sd"
-		v.Reasons = append(v.Reasons, Reason{Code: "constant", Text: fmt.Sprintf("All %d values are equal (%s): the SD and IQR are 0.", n, g3(rep.Quantile.Min)), Vals: map[string]float64{"n": float64(n)}})
+		v.Reasons = append(v.Reasons, Reason{Code: "constant", Text: w.reasonConstant(n, rep.Quantile.Min), Vals: map[string]float64{"n": float64(n)}})
 	default:
 		var why []Reason
 		iqrZero := rep.Spread != nil && rep.Spread.IQR == 0
@@ -89,13 +75,10 @@ func verdict(rep *Report, opts Options, n int, constant bool, maxRun, distinct i
 			}
 			if abs(g1) >= skewStrong || (abs(g1) >= skewModerate && p >= 0 && p < skewAlpha) {
 				vals := map[string]float64{"g1": g1}
-				txt := fmt.Sprintf("the data are %s-skewed (G1 = %s", side, g3(g1))
 				if p >= 0 {
 					vals["p"] = p
-					txt += ", " + pText(p)
 				}
-				txt += ")"
-				why = append(why, Reason{Code: side + "-skewed", Text: txt, Vals: vals})
+				why = append(why, Reason{Code: side + "-skewed", Text: w.reasonSkew(side, g1, p), Vals: vals})
 			}
 		}
 		if iqrZero {
@@ -104,11 +87,11 @@ func verdict(rep *Report, opts Options, n int, constant bool, maxRun, distinct i
 			inner, outer = 0, 0
 		}
 		if outer > 0 {
-			why = append(why, Reason{Code: "beyond-outer-fence", Text: fmt.Sprintf("%d reading%s beyond the outer fence (3 IQR beyond the quartiles)", outer, plural(outer, " lies", "s lie")), Vals: map[string]float64{"count": float64(outer)}})
+			why = append(why, Reason{Code: "beyond-outer-fence", Text: w.reasonBeyondOuter(outer), Vals: map[string]float64{"count": float64(outer)}})
 		}
 		innerOnly := inner - outer
 		if inner > manyOutlierMin-1 && float64(inner) > manyOutlierShare*float64(n) && innerOnly > 0 {
-			why = append(why, Reason{Code: "many-beyond-inner-fence", Text: fmt.Sprintf("%d readings (%s of %d) lie beyond the inner fences (1.5 IQR), far more than normal data give", inner, pct(float64(inner)/float64(n)), n), Vals: map[string]float64{"count": float64(inner), "share": float64(inner) / float64(n)}})
+			why = append(why, Reason{Code: "many-beyond-inner-fence", Text: w.reasonManyInner(inner, n), Vals: map[string]float64{"count": float64(inner), "share": float64(inner) / float64(n)}})
 		}
 		if len(why) > 0 {
 			v.Quote = "median-iqr"
@@ -117,32 +100,32 @@ func verdict(rep *Report, opts Options, n int, constant bool, maxRun, distinct i
 		}
 		v.Quote = "mean-sd"
 		if iqrZero {
-			v.Reasons = append(v.Reasons, Reason{Code: "iqr-zero", Text: "the middle half of the readings share one value (IQR = 0), so the IQR and the fences cannot describe the spread; the SD can"})
+			v.Reasons = append(v.Reasons, Reason{Code: "iqr-zero", Text: w.reasonIQRZero()})
 		}
 		if sh := rep.Shape; sh != nil && sh.Skewness != nil && n >= tinyN {
 			vals := map[string]float64{"g1": sh.Skewness.Value}
-			txt := fmt.Sprintf("the data are roughly symmetric (G1 = %s", g3(sh.Skewness.Value))
+			p := -1.0
 			if sh.Skewness.Test != nil {
-				vals["p"] = sh.Skewness.Test.P
-				txt += ", " + pText(sh.Skewness.Test.P)
+				p = sh.Skewness.Test.P
+				vals["p"] = p
 			}
-			v.Reasons = append(v.Reasons, Reason{Code: "symmetric", Text: txt + ")", Vals: vals})
+			v.Reasons = append(v.Reasons, Reason{Code: "symmetric", Text: w.reasonSkew("", sh.Skewness.Value, p), Vals: vals})
 		} else if n < tinyN {
-			v.Reasons = append(v.Reasons, Reason{Code: "small-sample", Text: fmt.Sprintf("with %d values the shape cannot be tested; the choice rests on the fences alone", n), Vals: map[string]float64{"n": float64(n)}})
+			v.Reasons = append(v.Reasons, Reason{Code: "small-sample", Text: w.reasonSmallSample(n), Vals: map[string]float64{"n": float64(n)}})
 		} else {
-			v.Reasons = append(v.Reasons, Reason{Code: "shape-unknown", Text: "the shape statistics are not available; the choice rests on the fences alone"})
+			v.Reasons = append(v.Reasons, Reason{Code: "shape-unknown", Text: w.reasonShapeUnknown()})
 		}
 		if !iqrZero {
-			v.Reasons = append(v.Reasons, Reason{Code: "no-far-out", Text: "no reading lies beyond the outer fences"})
+			v.Reasons = append(v.Reasons, Reason{Code: "no-far-out", Text: w.reasonNoFarOut()})
 		}
 	}
 
 	// Warnings.
 	if n < smallN {
-		v.Warnings = append(v.Warnings, Reason{Code: "small-sample", Text: fmt.Sprintf("Only %d values: intervals are wide and the shape is hard to judge; collect %d or more where you can.", n, smallN), Vals: map[string]float64{"n": float64(n)}})
+		v.Warnings = append(v.Warnings, Reason{Code: "small-sample", Text: w.warnSmallSample(n, smallN), Vals: map[string]float64{"n": float64(n)}})
 	}
 	if constant && n > 1 {
-		v.Warnings = append(v.Warnings, Reason{Code: "constant", Text: "All values are equal: check that the gauge resolves the variation (or that the right column was read).", Vals: map[string]float64{"n": float64(n)}})
+		v.Warnings = append(v.Warnings, Reason{Code: "constant", Text: w.warnConstant(), Vals: map[string]float64{"n": float64(n)}})
 	}
 	res := step
 	if !(res > 0) {
@@ -151,22 +134,15 @@ func verdict(rep *Report, opts Options, n int, constant bool, maxRun, distinct i
 	if res > 0 && opts.LSL != nil && opts.USL != nil {
 		steps := (*opts.USL - *opts.LSL) / res
 		if steps < minStepsTolerance {
-			v.Warnings = append(v.Warnings, Reason{Code: "coarse-for-tolerance", Text: fmt.Sprintf("The values move in steps of %s: only %s steps across the tolerance (at least %d are usual). Measure with a finer resolution.", g3(res), g3(steps), minStepsTolerance), Vals: map[string]float64{"step": res, "steps": steps}})
+			v.Warnings = append(v.Warnings, Reason{Code: "coarse-for-tolerance", Text: w.warnCoarseForTolerance(res, steps, minStepsTolerance), Vals: map[string]float64{"step": res, "steps": steps}})
 		}
 	}
 	if res > 0 && !constant && s != nil && n >= 2 && s.SD/res < minStepsSD {
-		v.Warnings = append(v.Warnings, Reason{Code: "coarse-for-spread", Text: fmt.Sprintf("The SD (%s) is only %s resolution steps (%s): the recorded values cannot show the spread well. Measure with a finer resolution.", g3(s.SD), g3(s.SD/res), g3(res)), Vals: map[string]float64{"step": res, "sd": s.SD, "steps": s.SD / res}})
+		v.Warnings = append(v.Warnings, Reason{Code: "coarse-for-spread", Text: w.warnCoarseForSpread(s.SD, s.SD/res, res), Vals: map[string]float64{"step": res, "sd": s.SD, "steps": s.SD / res}})
 	}
 	if n >= smallN && !constant && (distinct < 10 || maxRun*4 > n) {
-		v.Warnings = append(v.Warnings, Reason{Code: "heavy-ties", Text: fmt.Sprintf("Heavy ties: %d distinct values among %d readings, the most common one %d times. Normality tests reject such data readily and rank methods lose power.", distinct, n, maxRun), Vals: map[string]float64{"distinct": float64(distinct), "maxCount": float64(maxRun)}})
+		v.Warnings = append(v.Warnings, Reason{Code: "heavy-ties", Text: w.warnHeavyTies(distinct, n, maxRun), Vals: map[string]float64{"distinct": float64(distinct), "maxCount": float64(maxRun)}})
 	}
-}
-
-func plural(k int, one, many string) string {
-	if k == 1 {
-		return one
-	}
-	return many
 }
 
 func abs(x float64) float64 {

@@ -1,7 +1,6 @@
 package stats
 
 import (
-	"fmt"
 	"math"
 
 	"lotlens/stats/ingest"
@@ -94,7 +93,7 @@ func estimateWithin(cv *colView, sub *ingest.Column, choice string) *withinSigma
 		} else {
 			w.est, w.err = method.SigmaMovingRange(w.series, 2, nil)
 		}
-		w.checkSpread("consecutive readings")
+		w.checkSpread(false)
 		return w
 	}
 	idx := map[string]int{}
@@ -127,12 +126,20 @@ func estimateWithin(cv *colView, sub *ingest.Column, choice string) *withinSigma
 	default:
 		w.est, w.err = method.SigmaPooled(w.groups)
 	}
-	w.checkSpread("subgroups")
+	w.checkSpread(true)
 	return w
 }
 
-func (w *withinSigma) checkSpread(within string) {
+// checkSpread sets err when the estimate is 0 or not finite: the readings
+// do not vary between consecutive readings or within subgroups.
+func (w *withinSigma) checkSpread(subgroups bool) {
 	if w.err == nil && !(w.est.Sigma > 0 && !math.IsInf(w.est.Sigma, 0)) {
-		w.err = fmt.Errorf("the readings do not vary within %s", within)
+		w.err = withinFlat{subgroups}
 	}
 }
+
+// withinFlat is the err of an estimate of 0: the readings do not vary
+// (words.withinFlat says so).
+type withinFlat struct{ subgroups bool }
+
+func (e withinFlat) Error() string { return words{}.withinFlat(e.subgroups) }

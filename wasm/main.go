@@ -12,8 +12,11 @@
 //	lotlensChunk(uint8Array) -> bytes so far | errorJSON  feed the next chunk
 //	lotlensEnd() -> JSON                               finish: fingerprint, columns
 //	lotlensCancel() -> errorJSON (code "cancelled")    abandon the read
-//	lotlensForget()                                    drop the kept file table
-//	lotlensText() -> {text} | {json: errorJSON}        the kept file's decoded text (share link)
+//	lotlensForget()                                    drop the kept table and bytes
+//	lotlensShare(shareJSON, form) -> {json, bytes?}    a share payload: form "link" (json has
+//	                                                   the link text), "file" or "bytes" (Uint8Array)
+//	lotlensOpen(data, form) -> {json, shared?, svg?}   open a payload: data is the link text
+//	                                                   (string) or a Uint8Array ("file", "bytes")
 package main
 
 import (
@@ -87,12 +90,46 @@ func main() {
 		s.Forget()
 		return nil
 	}))
-	g.Set("lotlensText", js.FuncOf(func(this js.Value, args []js.Value) any {
-		t, err := s.Text()
-		if err != nil {
-			return map[string]any{"json": string(bridge.ErrorJSON(err))}
+	g.Set("lotlensShare", js.FuncOf(func(this js.Value, args []js.Value) any {
+		in, ok1 := str(args, 0)
+		form, ok2 := str(args, 1)
+		if !ok1 || !ok2 {
+			return map[string]any{"json": `{"error":"lotlensShare takes the share request as a JSON string and the form","code":"bad-request"}`}
 		}
-		return map[string]any{"text": t}
+		j, bin := s.Share([]byte(in), form)
+		out := map[string]any{"json": string(j)}
+		if bin != nil {
+			u := js.Global().Get("Uint8Array").New(len(bin))
+			js.CopyBytesToJS(u, bin)
+			out["bytes"] = u
+		}
+		return out
+	}))
+	g.Set("lotlensOpen", js.FuncOf(func(this js.Value, args []js.Value) any {
+		form, ok := str(args, 1)
+		if len(args) < 2 || !ok {
+			return map[string]any{"json": `{"error":"lotlensOpen takes the payload and its form","code":"bad-request"}`}
+		}
+		var in []byte
+		switch args[0].Type() {
+		case js.TypeString:
+			in = []byte(args[0].String())
+		case js.TypeObject:
+			in = make([]byte, args[0].Get("length").Int())
+			js.CopyBytesToGo(in, args[0])
+		default:
+			return map[string]any{"json": `{"error":"lotlensOpen takes a string or a Uint8Array","code":"bad-request"}`}
+		}
+		rep, meta, svg := s.Open(in, form)
+		charts := map[string]any{}
+		for k, v := range svg {
+			charts[k] = v
+		}
+		out := map[string]any{"json": string(rep), "svg": charts}
+		if meta != nil {
+			out["shared"] = string(meta)
+		}
+		return out
 	}))
 	g.Call("postMessage", map[string]any{"type": "ready"})
 	select {}

@@ -11,6 +11,10 @@
 // static-asset binding (wrangler.assets.jsonc). DEVELOPERS.md gives the
 // measurements behind the default.
 //
+// With a Workers KV binding named LOTLENS_SHARES (wrangler.stored.jsonc) it
+// also keeps encrypted shared analyses (build/web/stored; store.go binds
+// it); without the binding those endpoints answer 404.
+//
 // Build it with `go run ./build worker` (it copies dist/ here, generates the
 // JavaScript glue and compiles this package to build/app.wasm); run it
 // locally with `make test-worker`, deploy it with `make deploy`.
@@ -20,8 +24,9 @@ import (
 	"github.com/syumai/workers"
 
 	"lotlens/build/web"
+	"lotlens/build/web/stored"
 )
 
 func main() {
-	workers.Serve(web.Handler(siteFS()))
+	workers.Serve(stored.Handler(env, web.Handler(siteFS())))
 }

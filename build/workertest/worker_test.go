@@ -8,6 +8,7 @@ import (
 	"bytes"
 	"fmt"
 	"net"
+	"net/http"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -18,6 +19,8 @@ import (
 	"time"
 
 	"lotlens/build/web/sitecheck"
+	"lotlens/build/web/stored"
+	"lotlens/build/web/stored/storecheck"
 )
 
 // lockedBuffer collects the worker's output.
@@ -39,11 +42,56 @@ func (l *lockedBuffer) String() string {
 }
 
 func TestWorkerServesSite(t *testing.T) {
+	root, wrangler := prepare(t)
+	config := os.Getenv("LOTLENS_WORKER_CONFIG") // build/worker/wrangler.assets.jsonc for a worker built with -assets
+	if config == "" {
+		config = "build/worker/wrangler.jsonc"
+	}
+	base, out := startWorker(t, root, wrangler, config)
+	start := time.Now()
+	sitecheck.Run(t, base, filepath.Join(root, "build/worker/dist"))
+	t.Logf("checks against the worker took %v", time.Since(start).Round(time.Millisecond))
+	// Without the KV binding the store is off: its endpoints are 404.
+	for _, p := range []string{"/api/share", "/api/share/AAAAAAAAAAAAAAAAAAAAAA", "/s/AAAAAAAAAAAAAAAAAAAAAA"} {
+		res, err := http.Get(base + p)
+		if err != nil {
+			t.Fatal(err)
+		}
+		res.Body.Close()
+		if res.StatusCode != 404 {
+			t.Errorf("%s: status %d without the KV binding", p, res.StatusCode)
+		}
+	}
+	if t.Failed() {
+		t.Logf("wrangler output:\n%s", out.String())
+	}
+}
+
+// TestWorkerStoredLinks runs the worker with its KV binding
+// (wrangler.stored.jsonc) under wrangler dev with its local KV, and checks
+// the encrypted store end to end: store, fetch, decrypt, wrong key,
+// delete, expired, oversized, rate limited, bad ids, strict input, headers.
+func TestWorkerStoredLinks(t *testing.T) {
+	root, wrangler := prepare(t)
+	if os.Getenv("LOTLENS_WORKER_CONFIG") != "" {
+		t.Skip("the stored link is checked with the default worker")
+	}
+	const perHour = 8
+	base, out := startWorker(t, root, wrangler, "build/worker/wrangler.stored.jsonc",
+		"--var", "LOTLENS_SHARE_TEST:1", "--var", fmt.Sprintf("LOTLENS_SHARE_PER_HOUR:%d", perHour),
+		"--persist-to", t.TempDir())
+	storecheck.Run(t, base, stored.Defaults.MaxBytes, perHour)
+	if t.Failed() {
+		t.Logf("wrangler output:\n%s", out.String())
+	}
+}
+
+func prepare(t *testing.T) (root, wrangler string) {
 	if os.Getenv("LOTLENS_WORKER_TEST") != "1" {
 		t.Skip("set LOTLENS_WORKER_TEST=1 (make test-worker does) to run the edge worker under workerd")
 	}
-	root, _ := filepath.Abs("../..")
-	wrangler := filepath.Join(root, "build", "node", "node_modules", ".bin", "wrangler")
+	root, _ = filepath.Abs("../..")
+	wrangler = filepath.Join(root, "build", "node", "node_modules", ".bin", "wrangler")
 	for _, need := range []struct{ path, how string }{
 		{wrangler, "run `npm ci --prefix build/node` (make test-worker does)"},
 		{filepath.Join(root, "build/worker/build/app.wasm"), "run `go run ./build worker` (make test-worker does)"},
@@ -53,19 +101,22 @@ func TestWorkerServesSite(t *testing.T) {
 			t.Fatalf("%s is missing: %s", need.path, need.how)
 		}
 	}
-	config := os.Getenv("LOTLENS_WORKER_CONFIG") // build/worker/wrangler.assets.jsonc for a worker built with -assets
-	if config == "" {
-		config = "build/worker/wrangler.jsonc"
-	}
+	return root, wrangler
+}
+
+// startWorker starts wrangler dev with config in its own process group,
+// waits until it serves, and stops it when the test ends.
+func startWorker(t *testing.T, root, wrangler, config string, extra ...string) (string, *lockedBuffer) {
 	port := freePort(t)
-	cmd := exec.Command(wrangler, "dev", "--config", config, "--ip", "127.0.0.1", "--port", fmt.Sprint(port),
-		"--inspector-port", fmt.Sprint(freePort(t)), "--show-interactive-dev-session=false", "--log-level", "info")
+	args := append([]string{"dev", "--config", config, "--ip", "127.0.0.1", "--port", fmt.Sprint(port),
+		"--inspector-port", fmt.Sprint(freePort(t)), "--show-interactive-dev-session=false", "--log-level", "info"}, extra...)
+	cmd := exec.Command(wrangler, args...)
 	cmd.Dir = root
 	cmd.Env = append(os.Environ(), "WRANGLER_SEND_METRICS=false", "CI=1", "NO_COLOR=1")
 	// Its own process group, so that stopping it also stops the workerd it starts.
 	cmd.SysProcAttr = &syscall.SysProcAttr{Setpgid: true}
-	var out lockedBuffer
-	cmd.Stdout, cmd.Stderr = &out, &out
+	out := &lockedBuffer{}
+	cmd.Stdout, cmd.Stderr = out, out
 	if err := cmd.Start(); err != nil {
 		t.Fatalf("starting wrangler: %v", err)
 	}
@@ -99,12 +150,7 @@ func TestWorkerServesSite(t *testing.T) {
 	if !ready {
 		t.Fatalf("wrangler dev was not ready after 120 s:\n%s", out.String())
 	}
-	start := time.Now()
-	sitecheck.Run(t, fmt.Sprintf("http://127.0.0.1:%d", port), filepath.Join(root, "build/worker/dist"))
-	t.Logf("checks against the worker took %v", time.Since(start).Round(time.Millisecond))
-	if t.Failed() {
-		t.Logf("wrangler output:\n%s", out.String())
-	}
+	return fmt.Sprintf("http://127.0.0.1:%d", port), out
 }
 
 func freePort(t *testing.T) int {

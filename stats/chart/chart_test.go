@@ -325,8 +325,83 @@ func TestProbPlotOrder(t *testing.T) {
 	if pts[2].title() != "row 5: 5.25 g (z = 1.00)" {
 		t.Errorf("title %q", pts[2].title())
 	}
-	if b := root.all(byClass("band")); len(b) != 2 {
-		t.Errorf("%d band lines, want 2", len(b))
+	// the band is one shaded envelope, not two dashed lines
+	if b := root.all(byClass("band")); len(b) != 0 {
+		t.Errorf("%d band lines, want none (a shaded envelope instead)", len(b))
+	}
+	env := root.all(byClass("envelope"))
+	if len(env) != 1 {
+		t.Fatalf("%d envelopes, want 1", len(env))
+	}
+	if e := env[0]; e.attr("fill") == "" || e.attr("fill") == "none" || e.attr("stroke-dasharray") != "" || !strings.HasSuffix(e.attr("d"), "Z") {
+		t.Errorf("envelope fill %q dash %q d %q: want a filled, closed shape without dashes", e.attr("fill"), e.attr("stroke-dasharray"), e.attr("d"))
+	}
+	// 3 band points: up along the upper edge, back along the lower: 6 vertices
+	if got := strings.Count(env[0].attr("d"), "L") + 1; got != 6 {
+		t.Errorf("envelope has %d vertices, want 6", got)
+	}
+	var key []string
+	for _, l := range root.all(byClass("legend-label")) {
+		key = append(key, l.Text)
+	}
+	if j := strings.Join(key, "|"); !strings.Contains(j, "95 % band") {
+		t.Errorf("legend %q does not name the 95 %% band (the default confidence)", j)
+	}
+}
+
+// The box plot's row labels never overlap, however close the flagged
+// readings lie, and every flagged row is named by a label (readings too
+// close to label one by one share a label). Widths are estimated at 0.6 em
+// a character (common practice for digits and lower-case letters of
+// sans-serif faces), independently of the layout's own estimate.
+func TestBoxLabelsDoNotCollide(t *testing.T) {
+	for _, n := range []int{2, 7, 16, 60} {
+		r := sample()
+		r.Suspects.Readings = nil
+		want := map[string]bool{}
+		for i := 0; i < n; i++ { // invented: n readings packed just beyond the upper fence
+			row := 100 + 7*i
+			r.Suspects.Readings = append(r.Suspects.Readings, stats.Suspect{Reading: stats.Reading{Row: row, Value: 5.52 + 0.004*float64(i)}})
+			want[strconv.Itoa(row)] = true
+		}
+		r.Suspects.Readings = append(r.Suspects.Readings, stats.Suspect{Reading: stats.Reading{Row: 3, Value: 4.6}})
+		want["3"] = true
+		root := parse(t, Box(r))
+		type box struct{ x0, x1, y float64 }
+		var boxes []box
+		got := map[string]bool{}
+		for _, l := range root.all(byClass("row-label")) {
+			fs := root.num(t, "font-size") // the chart's font size unless the label has its own
+			if l.attr("font-size") != "" {
+				fs = l.num(t, "font-size")
+			}
+			w := 0.6 * fs * float64(len([]rune(l.Text)))
+			x := l.num(t, "x")
+			boxes = append(boxes, box{x - w/2, x + w/2, l.num(t, "y")})
+			if x-w/2 < 0 || x+w/2 > Width {
+				t.Errorf("n=%d: label %q at x=%g runs off the chart", n, l.Text, x)
+			}
+			for _, row := range strings.Fields(l.attr("data-rows")) {
+				if got[row] {
+					t.Errorf("n=%d: row %s labelled twice", n, row)
+				}
+				got[row] = true
+			}
+			if rows := strings.Fields(l.attr("data-rows")); len(rows) == 1 && l.Text != "row "+rows[0] {
+				t.Errorf("n=%d: label %q for row %s", n, l.Text, rows[0])
+			}
+		}
+		if len(got) != len(want) {
+			t.Errorf("n=%d: labels name %d rows, want %d", n, len(got), len(want))
+		}
+		for i := range boxes {
+			for j := i + 1; j < len(boxes); j++ {
+				a, b := boxes[i], boxes[j]
+				if math.Abs(a.y-b.y) < 13 && a.x0 < b.x1 && b.x0 < a.x1 {
+					t.Errorf("n=%d: labels %d and %d overlap: %v %v", n, i, j, a, b)
+				}
+			}
+		}
 	}
 }
 
@@ -352,6 +427,62 @@ func TestRunChart(t *testing.T) {
 	}
 	if x0, x1 := pts[0].num(t, "cx"), pts[2].num(t, "cx"); x1 <= x0 {
 		t.Error("points not in data order left to right")
+	}
+	// the names of the median, target and limits lie right of the plot
+	// (the x axis ends there), never over a reading, and apart
+	axis := root.all(func(n node) bool { return n.XMLName.Local == "line" && n.hasClass("axis") && n.hasClass("x") })[0]
+	right := axis.num(t, "x2")
+	labels := root.all(byClass("marker-label"))
+	if len(labels) != 4 {
+		t.Fatalf("%d line names, want 4 (median, LSL, target, USL)", len(labels))
+	}
+	for i, l := range labels {
+		if l.num(t, "x") < right || l.attr("text-anchor") != "start" {
+			t.Errorf("line name %q at x=%g (anchor %s) is inside the plot, which ends at %g", l.Text, l.num(t, "x"), l.attr("text-anchor"), right)
+		}
+		for _, m := range labels[:i] {
+			if math.Abs(l.num(t, "y")-m.num(t, "y")) < 12 {
+				t.Errorf("line names %q and %q overlap", l.Text, m.Text)
+			}
+		}
+	}
+	// the legend holds the median, the target and the limits with values
+	var key []string
+	for _, l := range root.all(byClass("legend-label")) {
+		key = append(key, l.Text)
+	}
+	for _, w := range []string{"median 5.10", "target 5.00", "LSL 4.80", "USL 5.40", "flagged"} {
+		if !strings.Contains(strings.Join(key, "|"), w) {
+			t.Errorf("legend %q lacks %q", key, w)
+		}
+	}
+	// the x axis is labelled with rows: every tick label is a row number
+	// placed at that row's reading (rows 2, 3, 4, 12 at positions 0-3), or
+	// between two readings for a row that has none (row 8: between 4 and 12)
+	x := map[int]float64{}
+	for _, p := range pts {
+		row, _ := strconv.Atoi(p.attr("data-row"))
+		x[row] = pointX(t, p)
+	}
+	ticks := root.all(func(n node) bool { return n.hasClass("tick-label") && n.hasClass("x") })
+	if len(ticks) < 3 {
+		t.Fatalf("%d x tick labels", len(ticks))
+	}
+	for _, tk := range ticks {
+		row, err := strconv.Atoi(tk.Text)
+		if err != nil {
+			t.Fatalf("x tick %q is not a row number", tk.Text)
+		}
+		tx := tk.num(t, "x")
+		if px, ok := x[row]; ok && math.Abs(px-tx) > 0.2 {
+			t.Errorf("tick row %d at x=%g, its reading at %g", row, tx, px)
+		}
+		if row > 4 && row < 12 && !(tx > x[4] && tx < x[12]) {
+			t.Errorf("tick row %d at x=%g, not between rows 4 (%g) and 12 (%g)", row, tx, x[4], x[12])
+		}
+	}
+	if al := root.all(func(n node) bool { return n.hasClass("axis-label") && n.hasClass("x") }); len(al) != 1 || !strings.HasPrefix(al[0].Text, "row") {
+		t.Errorf("x axis label %v, want it to say rows", al)
 	}
 }
 

@@ -5,6 +5,7 @@ import (
 	"math"
 	"sort"
 	"strconv"
+	"strings"
 
 	"lotlens/stats"
 )
@@ -237,23 +238,21 @@ func Box(r *stats.Report) string {
 		xs.at(b.Q1), mid-22, math.Max(xs.at(b.Q3)-xs.at(b.Q1), 1), SkyBlue, Black,
 		esc("Q1 "+f.Num(b.Q1, f.Decimals+1)+" to Q3 "+f.Num(b.Q3, f.Decimals+1)))
 	c.line(xs.at(b.Median), mid-22, xs.at(b.Median), mid+22, Black, 3.5, "", "median")
-	// flagged readings, labels staggered so they do not overlap
+	// flagged readings, then their row labels laid out without collisions
 	sort.SliceStable(sus, func(i, j int) bool { return sus[i].Value < sus[j].Value })
-	lastX := []float64{-1e9, -1e9, -1e9}
+	at := make([]labelPoint, len(sus))
 	for i, s := range sus {
 		shape, colour, class := suspectKind(s.Value, b)
 		x := xs.at(s.Value)
 		// small vertical jitter by position in list keeps ties visible
 		y := mid + float64((i%3)-1)*8
 		c.marker(shape, x, y, 6, colour, s.Row, fmt.Sprintf("row %d: %s", s.Row, f.Value(s.Value)), "suspect "+class)
-		if i < 40 {
-			lane := 0
-			for lane < 2 && x-lastX[lane] < 52 {
-				lane++
-			}
-			lastX[lane] = x
-			c.text(x, mid-32-float64(lane)*16, "middle", "row-label", fmt.Sprintf("row %d", s.Row))
-		}
+		at[i] = labelPoint{x: x, row: s.Row}
+	}
+	lanes := []float64{mid - 32, mid - 48, mid + 40, mid - 64, mid + 56, mid - 80}
+	for _, l := range layoutRowLabels(at, lanes, 2, Width-2) {
+		c.printf(`<text x="%.1f" y="%.1f" text-anchor="middle" font-size="%g" class="row-label" data-rows="%s"><title>%s</title>%s</text>`,
+			l.cx, l.y, rowLabelFont, joinInts(l.rows, " "), esc(rowsTitle(l.rows)), esc(l.text))
 	}
 	c.xAxis(xs, xt, xdec, f, valueLabel(r), h-marginB)
 	items := []legendItem{{"line", Orange, "6 4", "inner fence"}}
@@ -310,15 +309,31 @@ func ProbPlot(r *stats.Report) string {
 	c := newCanvas(Width, Height, "probplot", "Normal probability plot of "+valueLabel(r),
 		fmt.Sprintf("%d points; plotting positions %s; straight line = normal", len(p.Points), p.Positions))
 	c.yAxis(ysc, yt, ydec, f, valueLabel(r), marginL, Width-marginR)
-	band := func(get func(stats.BandPt) float64, class string) {
-		if len(p.Band) < 2 {
-			return
+	// the band as one lightly shaded envelope (upper edge out, lower edge
+	// back), no outline: the line and the points stay in front of it
+	if nb := len(p.Band); nb >= 2 {
+		c.b = append(c.b, `<path class="envelope" fill="`+SkyBlue+`" fill-opacity="0.28" stroke="none" d="`...)
+		for i := 0; i < 2*nb; i++ {
+			var bp stats.BandPt
+			var y float64
+			if i < nb {
+				bp = p.Band[i]
+				y = bp.Hi
+			} else {
+				bp = p.Band[2*nb-1-i]
+				y = bp.Lo
+			}
+			if i == 0 {
+				c.b = append(c.b, 'M')
+			} else {
+				c.b = append(c.b, 'L')
+			}
+			c.b = appendF(c.b, xs.at(bp.Z))
+			c.b = append(c.b, ' ')
+			c.b = appendF(c.b, ysc.at(y))
 		}
-		c.path(len(p.Band), func(i int) (float64, float64) { return xs.at(p.Band[i].Z), ysc.at(get(p.Band[i])) },
-			`class="band `+class+`" stroke="`+Orange+`" stroke-width="1.5" stroke-dasharray="6 4"`)
+		c.b = append(c.b, `Z"/>`...)
 	}
-	band(func(b stats.BandPt) float64 { return b.Lo }, "lo")
-	band(func(b stats.BandPt) float64 { return b.Hi }, "hi")
 	a, s := p.Line[0], p.Line[1]
 	if finite(a, s) {
 		c.line(xs.at(zlo), ysc.at(a+s*zlo), xs.at(zhi), ysc.at(a+s*zhi), Black, 1.5, "", "fit")
@@ -343,7 +358,13 @@ func ProbPlot(r *stats.Report) string {
 	}
 	c.printf(`</g>`)
 	c.xAxis(xs, xt, xdec, f, "normal quantile (z)", Height-marginB)
-	c.legend([]legendItem{{"circle", Blue, "", "reading"}, {"line", Black, "", "normal line"}, {"line", Orange, "6 4", "band"}})
+	// the key sits in the plot's lower right corner, which a straight
+	// rising line leaves empty
+	items := []legendItem{{"circle", Blue, "", "reading, in order"}, {"line", Black, "", "normal line (mean, SD)"}}
+	if len(p.Band) >= 2 {
+		items = append(items, legendItem{"band", SkyBlue, "", pctLabel(r.Settings.Confidence) + " band for each reading"})
+	}
+	c.keyBox(items, xs.p1-6, ysc.p0-6)
 	return c.done()
 }
 
@@ -351,6 +372,7 @@ func ProbPlot(r *stats.Report) string {
 // as a horizontal reference, the target and limits where given, and flagged
 // readings marked.
 func Run(r *stats.Report) string {
+	const marginR = runMarginR // room for the line tags right of the plot
 	if r == nil || r.Charts == nil || len(r.Charts.Series) == 0 {
 		return ""
 	}
@@ -378,7 +400,6 @@ func Run(r *stats.Report) string {
 	ilo, ihi = pad(ilo, ihi, 0.02)
 	xs := scale{ilo, ihi, marginL, Width - marginR}
 	ys := scale{ylo, yhi, Height - marginB, marginT + 12}
-	xt, _ := Ticks(math.Max(ilo, 0)+1, ihi+1, 7) // positions shown 1-based
 	yt, ydec := Ticks(ylo, yhi, 6)
 	desc := fmt.Sprintf("%d values in data order", len(pts))
 	if r.Charts.Thinned {
@@ -389,15 +410,26 @@ func Run(r *stats.Report) string {
 	}
 	c := newCanvas(Width, Height, "run", "Run chart of "+valueLabel(r), desc)
 	c.yAxis(ys, yt, ydec, f, valueLabel(r), marginL, Width-marginR)
+	// reference lines across the plot; their names go right of the plot
+	// (never over a reading), moved apart where lines lie close, and their
+	// values in the legend
+	var tags []tag
 	for _, rl := range refs {
 		y := ys.at(rl.v)
 		c.line(marginL, y, Width-marginR, y, rl.colour, 1.5, rl.dash, "marker "+rl.class)
-		c.text(Width-marginR-4, y-4, "end", "marker-label "+rl.class, rl.label)
+		name := strings.ToUpper(rl.class)
+		if rl.class == "target" {
+			name = "target"
+		}
+		tags = append(tags, tag{y: y, text: name, class: rl.class})
 	}
 	if hasMed {
 		y := ys.at(med)
 		c.line(marginL, y, Width-marginR, y, Green, 2, "12 5", "median")
-		c.text(marginL+4, y-5, "start", "marker-label median", "median "+f.Num(med, f.Decimals+1))
+		tags = append(tags, tag{y: y, text: "median", class: "median"})
+	}
+	for _, t := range spreadTags(tags, marginT, Height-marginB, 14) {
+		c.text(Width-marginR+6, t.y+4, "start", "marker-label "+t.class, t.text)
 	}
 	c.path(len(pts), func(i int) (float64, float64) { return xs.at(float64(pts[i].I)), ys.at(pts[i].Y) },
 		`class="trace" stroke="#888888" stroke-width="1"`)
@@ -417,7 +449,7 @@ func Run(r *stats.Report) string {
 		if keep != nil && !keep[i] && !flagged[p.Row] {
 			continue
 		}
-		title := "row " + strconv.Itoa(p.Row) + ": " + f.Value(p.Y) + " (position " + strconv.Itoa(p.I+1) + ")"
+		title := "row " + strconv.Itoa(p.Row) + ": " + f.Value(p.Y)
 		if flagged[p.Row] {
 			c.marker("triangle", xs.at(float64(p.I)), ys.at(p.Y), 6, Vermilion, p.Row, title+", flagged", "suspect")
 		} else {
@@ -425,20 +457,24 @@ func Run(r *stats.Report) string {
 		}
 	}
 	c.printf(`</g>`)
-	// x ticks are 1-based positions
+	// the x axis is labelled with the rows (as everywhere else on the page)
 	c.line(xs.p0, Height-marginB, xs.p1, Height-marginB, Black, 1, "", "axis x")
-	for _, t := range xt {
-		if t != math.Trunc(t) {
-			continue
-		}
-		x := xs.at(t - 1)
+	for _, t := range rowTicks(pts, 7) {
+		x := xs.at(t.pos)
 		c.line(x, Height-marginB, x, Height-marginB+5, Black, 1, "", "tick x")
-		c.text(x, Height-marginB+19, "middle", "tick-label x", f.Num(t, 0))
+		c.text(x, Height-marginB+19, "middle", "tick-label x", strconv.Itoa(t.row))
 	}
-	c.text((xs.p0+xs.p1)/2, Height-8, "middle", "axis-label x", "position in data order")
+	axis := "row (data order)"
+	if r.Input.Order != "" {
+		axis = "row, in the order of " + r.Input.Order
+	}
+	c.text((xs.p0+xs.p1)/2, Height-8, "middle", "axis-label x", axis)
 	items := []legendItem{{"circle", Blue, "", "reading"}}
 	if hasMed {
-		items = append(items, legendItem{"line", Green, "12 5", "median"})
+		items = append(items, legendItem{"line", Green, "12 5", "median " + f.Num(med, f.Decimals+1)})
+	}
+	for _, rl := range refs {
+		items = append(items, legendItem{"line", rl.colour, rl.dash, rl.label})
 	}
 	if len(flagged) > 0 {
 		items = append(items, legendItem{"triangle", Vermilion, "", "flagged"})

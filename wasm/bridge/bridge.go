@@ -18,15 +18,18 @@ import (
 	"encoding/json"
 	"fmt"
 	"hash"
+	"unsafe"
 
 	"lotlens/stats"
 	"lotlens/stats/chart"
 	"lotlens/stats/ingest"
+	"lotlens/stats/share"
 )
 
-// ShareTextMax is the most decoded text of a file the session keeps for the
-// page's share link (Text). A longer file is shared as the file itself.
-const ShareTextMax = 8 << 20
+// ShareBytesMax is the largest file whose bytes the session keeps for a
+// share payload (share.MaxDecoded, 64 MiB): a larger file cannot be shared
+// by link or .lotlens file; the user sends the file itself.
+const ShareBytesMax = share.MaxDecoded
 
 // The bridge's errors are stats.Error values with the engine's codes
 // (stats.CodeInternal for a caught panic, CodeCancelled, CodeNoFile,
@@ -48,9 +51,14 @@ type Session struct {
 	h         hash.Hash
 	rd        *chunkReader
 	read      int64
-	// last table read from a file
+	// last table read from a file (or opened from a shared payload)
 	tab *ingest.Table
 	fp  string
+	// the bytes behind tab, exactly as read, for a share payload ("" when
+	// the file was larger than ShareBytesMax: rawOver)
+	raw     string
+	rawOver bool
+	srcName string
 
 	// analyze replaces the engine in tests (nil: stats.Analyze and
 	// stats.AnalyzeTable), to check that a panic becomes an error.
@@ -94,7 +102,7 @@ func (s *Session) End() (out []byte) {
 	defer func() {
 		if r := recover(); r != nil {
 			s.Cancel()
-			s.tab, s.fp = nil, ""
+			s.Forget()
 			out = ErrorJSON(internal("finishing the file", r))
 		}
 	}()
@@ -106,13 +114,19 @@ func (s *Session) End() (out []byte) {
 	}
 	tab, err := s.rd.Finish()
 	fp := hex.EncodeToString(s.h.Sum(nil))
-	name, n := s.name, s.read
+	name, n, rd := s.name, s.read, s.rd
 	s.active, s.rd, s.h = false, nil, nil
 	if err != nil {
-		s.tab, s.fp = nil, ""
+		s.Forget()
 		return ErrorJSON(fmt.Errorf("%s: %w", name, err))
 	}
-	s.tab, s.fp = tab, fp
+	s.tab, s.fp, s.raw, s.rawOver, s.srcName = tab, fp, "", rd.over, name
+	if !rd.over && len(rd.raw) > 0 {
+		// The chunk reader's buffer is never written again: viewing it as a
+		// string saves a copy of up to 64 MB in the worker's memory, which
+		// WebAssembly never gives back.
+		s.raw = unsafe.String(&rd.raw[0], len(rd.raw))
+	}
 	cols := make([]ingest.ColumnInfo, 0, len(tab.Columns))
 	for _, c := range tab.Columns {
 		cols = append(cols, c.ColumnInfo)
@@ -132,21 +146,10 @@ func (s *Session) Cancel() []byte {
 // HasTable reports whether a file's table is kept for re-analysis.
 func (s *Session) HasTable() bool { return s.tab != nil }
 
-// Forget drops the kept table (the user pasted text instead).
-func (s *Session) Forget() { s.tab, s.fp = nil, "" }
-
-// Text is the kept file's text as the reader decoded it (UTF-8, whatever
-// the file's encoding), for the share link. It fails when no file is kept or
-// its text is longer than ShareTextMax.
-func (s *Session) Text() (string, error) {
-	if s.tab == nil {
-		return "", &stats.Error{Code: stats.CodeNoFile, Msg: "no file is loaded: drop or pick the file again"}
-	}
-	t, ok := s.tab.DecodedText()
-	if !ok {
-		return "", &stats.Error{Code: stats.CodeTooLarge, Msg: fmt.Sprintf("the file is too large for a link (over %d MB as text): send the file itself, with this report's fingerprint so the receiver can check it", ShareTextMax>>20)}
-	}
-	return t, nil
+// Forget drops the kept table and its bytes (the user pasted text instead,
+// or closed the report): nothing of the data stays in the session.
+func (s *Session) Forget() {
+	s.tab, s.fp, s.raw, s.rawOver, s.srcName = nil, "", "", false, ""
 }
 
 // Analyze runs the request. With useTable it analyses the kept table (the

@@ -1,0 +1,28 @@
+// The verdict: what to quote and why, the warnings and the caution.
+import { el, num, withUnit, helpLinks, missing, quoteIsMedian, count } from "./dom.js";
+import { addCard, card, quote } from "./card-kit.js";
+
+function verdictCard(rep) {
+  const v = rep.verdict || {};
+  const med = quoteIsMedian();
+  const kids = [];
+  if (med && rep.centre && rep.spread) {
+    kids.push(el("p", { class: "lead" }, "Quote the median, ", ...withUnit(num(rep.centre.median, 1, "verdict-median")), ", and the interquartile range, ", ...withUnit(num(rep.spread.iqr, 1, "verdict-iqr")), "."));
+  } else if (rep.centre && rep.spread) {
+    kids.push(el("p", { class: "lead" }, "Quote the mean, ", ...withUnit(num(rep.centre.mean, 2, "verdict-mean")), ", and the standard deviation, ", ...withUnit(num(rep.spread.sd, 2, "verdict-sd")), "."));
+  } else {
+    kids.push(el("p", { class: "lead", text: "No centre or spread could be computed: see the notes below." }));
+  }
+  kids.push(el("p", { class: "basis", text: count(rep.counts.used, "value") + " used" +
+    (rep.counts.excluded ? ", " + rep.counts.excluded + " left out by you" : "") +
+    (rep.counts.rejected ? ", " + count(rep.counts.rejected, "cell") + " not numbers" : "") +
+    (rep.counts.missing ? ", " + rep.counts.missing + " empty" : "") + "." }));
+  if (v.reasons && v.reasons.length) kids.push(el("ul", { class: "reasons" }, ...v.reasons.map((r) => el("li", { "data-code": r.code, text: r.text }))));
+  if (v.warnings && v.warnings.length) kids.push(el("ul", { class: "warnings", "aria-label": "Warnings" }, ...v.warnings.map((r) => el("li", { "data-code": r.code }, el("strong", { text: "Warning: " }), r.text))));
+  kids.push(el("p", { class: "caution" }, el("strong", { text: "Caution: " }),
+    v.caution || "For safety-critical parts, legal net quantity or medical products, follow your local regulations, codes and licensed practice; this report supports, and does not replace, that judgement."));
+  kids.push(helpLinks([["verdict", "how the verdict is reached"], ["reading-your-report", "reading your report"], ["cautions", "cautions"]]));
+  return card("verdict", "Verdict", ...kids);
+}
+
+addCard("verdict", verdictCard);

@@ -1,0 +1,247 @@
+// Package decimal holds measurement values exactly as typed.
+//
+// A value typed as a plain decimal with d decimals ("11.30", d = 2) is the
+// integer mantissa m over 10^d (1130/100). The reader keeps such a value as
+// the correctly rounded float64 x and the count d; when |m| < 2^51 and
+// d <= MaxScale, m is recovered exactly as round(x·10^d): the product carries
+// a relative error of at most about 2^-52, so an absolute error below 1/2,
+// and the recovery is verified by dividing back (m/10^d must round to x).
+//
+// All values of a column share one scale S (the largest decimal count): a
+// Grid. On a grid, distinct mantissas give distinct float64 values in the
+// same order (the decimal step 10^-S is more than twice the float spacing
+// when |m| < 2^51), so the sorted float64 slice the engine keeps is also the
+// sorted slice of mantissas, and each mantissa is recovered on the fly
+// without a second array. Exact figures (quantiles, fences, the MAD) are
+// rationals (math/big) computed from a handful of mantissas; a comparison of
+// every reading with such a figure becomes an integer threshold on the
+// mantissas, found by binary search on the float64 slice. Rational results
+// are shown as the correctly rounded float64 (big.Rat.Float64), so the
+// report shows 11.3, not 11.299999999999999.
+//
+// Values that are not plain decimals (exponent form, more than about 15
+// significant digits) have no grid: the engine then keeps its binary
+// floating-point path and says so.
+package decimal
+
+import (
+	"math"
+	"math/big"
+	"sort"
+	"strconv"
+	"strings"
+)
+
+// MaxScale is the largest decimal count handled exactly (10^22 is the
+// largest power of ten a float64 holds exactly).
+const MaxScale = 22
+
+// MaxMantissa bounds |m| on a grid: 2^51.
+const MaxMantissa = 1 << 51
+
+var pow10 = func() [MaxScale + 1]float64 {
+	var t [MaxScale + 1]float64
+	p := 1.0
+	for i := range t {
+		t[i] = p
+		p *= 10
+	}
+	return t
+}()
+
+// Pow10 is 10^d as a float64 (exact) for 0 <= d <= MaxScale.
+func Pow10(d int) float64 { return pow10[d] }
+
+// Mantissa returns m with x = m/10^d exactly as typed, or ok = false when x
+// with d decimals is not a plain decimal the exact path can hold.
+func Mantissa(x float64, d int) (m int64, ok bool) {
+	if d < 0 || d > MaxScale {
+		return 0, false
+	}
+	p := pow10[d]
+	f := x * p
+	if !(math.Abs(f) < MaxMantissa) {
+		return 0, false
+	}
+	m = int64(math.RoundToEven(f))
+	if float64(m)/p != x {
+		return 0, false
+	}
+	return m, true
+}
+
+// Grid is the set of values m/10^Scale with |m| < 2^51.
+type Grid struct {
+	Scale int
+	pow   float64
+}
+
+// NewGrid returns the grid of scale d (0 <= d <= MaxScale).
+func NewGrid(d int) (Grid, bool) {
+	if d < 0 || d > MaxScale {
+		return Grid{}, false
+	}
+	return Grid{Scale: d, pow: pow10[d]}, true
+}
+
+// Valid tells whether g was made by NewGrid.
+func (g Grid) Valid() bool { return g.pow != 0 }
+
+// Mantissa is the checked mantissa of x on g.
+func (g Grid) Mantissa(x float64) (int64, bool) { return Mantissa(x, g.Scale) }
+
+// M is the mantissa of a value known to lie on g (no check).
+func (g Grid) M(x float64) int64 { return int64(math.RoundToEven(x * g.pow)) }
+
+// Float is m/10^Scale correctly rounded: the float64 the reader gives for
+// the same decimal text.
+func (g Grid) Float(m int64) float64 { return float64(m) / g.pow }
+
+// Holds tells whether the ascending slice lies on g, checking its two ends
+// for size; every value must already be known to be a plain decimal with at
+// most Scale decimals (the mantissa of a value with fewer decimals d is then
+// its own mantissa times 10^(Scale-d), recovered the same way).
+func (g Grid) Holds(sorted []float64) bool {
+	if !g.Valid() || len(sorted) == 0 {
+		return false
+	}
+	_, ok1 := g.Mantissa(sorted[0])
+	_, ok2 := g.Mantissa(sorted[len(sorted)-1])
+	return ok1 && ok2
+}
+
+// Denom is 10^Scale as a big integer.
+func (g Grid) Denom() *big.Int {
+	return new(big.Int).Exp(big.NewInt(10), big.NewInt(int64(g.Scale)), nil)
+}
+
+// Rat is m/10^Scale exactly.
+func (g Grid) Rat(m int64) *big.Rat {
+	return new(big.Rat).SetFrac(big.NewInt(m), g.Denom())
+}
+
+// Value is the exact value of a float64 known to lie on g.
+func (g Grid) Value(x float64) *big.Rat { return g.Rat(g.M(x)) }
+
+// Units is r in mantissa units: r·10^Scale.
+func (g Grid) Units(r *big.Rat) *big.Rat {
+	return new(big.Rat).Mul(r, new(big.Rat).SetInt(g.Denom()))
+}
+
+// Float64 is r correctly rounded to float64 (±Inf beyond the range).
+func Float64(r *big.Rat) float64 {
+	f, _ := r.Float64()
+	return f
+}
+
+// Interpolate is lo + (num/den)·(hi - lo) in value units, exactly, for
+// mantissas lo and hi on g: the form of every sample quantile (Hyndman and
+// Fan 1996).
+func (g Grid) Interpolate(lo, hi int64, num, den int64) *big.Rat {
+	if num == 0 || lo == hi {
+		return g.Rat(lo)
+	}
+	if num == den {
+		return g.Rat(hi)
+	}
+	// (lo·(den-num) + hi·num) / (den·10^S)
+	a := new(big.Int).Mul(big.NewInt(lo), big.NewInt(den-num))
+	a.Add(a, new(big.Int).Mul(big.NewInt(hi), big.NewInt(num)))
+	d := new(big.Int).Mul(big.NewInt(den), g.Denom())
+	return new(big.Rat).SetFrac(a, d)
+}
+
+// ceilM and floorM are the smallest mantissa >= t and the largest <= t
+// (t in value units), clamped to just beyond the grid's range.
+func (g Grid) ceilM(t *big.Rat) int64 {
+	u := g.Units(t)
+	q, r := new(big.Int).QuoRem(u.Num(), u.Denom(), new(big.Int))
+	if r.Sign() > 0 {
+		q.Add(q, big.NewInt(1))
+	}
+	return clampM(q)
+}
+
+func (g Grid) floorM(t *big.Rat) int64 {
+	u := g.Units(t)
+	q, r := new(big.Int).QuoRem(u.Num(), u.Denom(), new(big.Int))
+	if r.Sign() < 0 {
+		q.Sub(q, big.NewInt(1))
+	}
+	return clampM(q)
+}
+
+func clampM(q *big.Int) int64 {
+	switch {
+	case q.Cmp(big.NewInt(MaxMantissa)) > 0:
+		return MaxMantissa
+	case q.Cmp(big.NewInt(-MaxMantissa)) < 0:
+		return -MaxMantissa
+	}
+	return q.Int64()
+}
+
+// CountBelow is the number of values of the ascending slice (on g) that
+// are < t exactly.
+func (g Grid) CountBelow(sorted []float64, t *big.Rat) int {
+	c := g.ceilM(t) // x < t  <=>  m < c
+	if c >= MaxMantissa {
+		return len(sorted)
+	}
+	if c <= -MaxMantissa {
+		return 0
+	}
+	return sort.SearchFloat64s(sorted, g.Float(c))
+}
+
+// CountAbove is the number of values of the ascending slice (on g) that
+// are > t exactly.
+func (g Grid) CountAbove(sorted []float64, t *big.Rat) int {
+	f := g.floorM(t) // x > t  <=>  m > f
+	if f >= MaxMantissa {
+		return 0
+	}
+	if f <= -MaxMantissa {
+		return len(sorted)
+	}
+	v := g.Float(f)
+	return len(sorted) - sort.Search(len(sorted), func(i int) bool { return sorted[i] > v })
+}
+
+// FromFloat returns the shortest decimal that reads back as x (what a user
+// typed for a target or a limit given as a JSON number): x = m/10^d. ok is
+// false for non-finite x or when the decimal does not fit a grid.
+func FromFloat(x float64) (m int64, d int, ok bool) {
+	if math.IsNaN(x) || math.IsInf(x, 0) {
+		return 0, 0, false
+	}
+	s := strconv.FormatFloat(x, 'e', -1, 64) // d.ddddde±XX
+	mant, exp, _ := strings.Cut(s, "e")
+	e, err := strconv.Atoi(exp)
+	if err != nil {
+		return 0, 0, false
+	}
+	neg := strings.HasPrefix(mant, "-")
+	mant = strings.TrimPrefix(mant, "-")
+	ip, fp, _ := strings.Cut(mant, ".")
+	digits := ip + fp
+	d = len(fp) - e
+	if d < 0 {
+		digits += strings.Repeat("0", -d)
+		d = 0
+	}
+	if d > MaxScale || len(digits) > 16 {
+		return 0, 0, false
+	}
+	v, err := strconv.ParseInt(digits, 10, 64)
+	if err != nil || v >= MaxMantissa {
+		return 0, 0, false
+	}
+	if neg {
+		v = -v
+	}
+	if float64(v)/pow10[d] != x {
+		return 0, 0, false
+	}
+	return v, d, true
+}

@@ -1,0 +1,137 @@
+package decimal
+
+import (
+	"math"
+	"math/big"
+	"math/rand/v2"
+	"slices"
+	"strconv"
+	"testing"
+)
+
+// Mantissas are recovered exactly from the float64 of decimal text: the
+// check values are the digits of the text itself (definition).
+func TestMantissa(t *testing.T) {
+	for _, c := range []struct {
+		text string
+		d    int
+		m    int64
+		ok   bool
+	}{
+		{"11.30", 2, 1130, true},
+		{"0.1", 1, 1, true},
+		{"-7.9", 1, -79, true},
+		{"1000000.512", 3, 1000000512, true},
+		{"0.1", 0, 0, false},                 // not a whole number
+		{"12345678901234.5678", 4, 0, false}, // beyond 2^51
+		{"1e-300", 22, 0, false},
+	} {
+		x, _ := strconv.ParseFloat(c.text, 64)
+		m, ok := Mantissa(x, c.d)
+		if ok != c.ok || (ok && m != c.m) {
+			t.Errorf("Mantissa(%s, %d) = %d, %v; want %d, %v", c.text, c.d, m, ok, c.m, c.ok)
+		}
+	}
+}
+
+// FromFloat gives the shortest decimal that reads back as x.
+func TestFromFloat(t *testing.T) {
+	for _, c := range []struct {
+		x    float64
+		m    int64
+		d    int
+		okay bool
+	}{
+		{8, 8, 0, true}, {8.05, 805, 2, true}, {-0.001, -1, 3, true}, {1200, 1200, 0, true},
+		{1e20, 0, 0, false}, {math.Inf(1), 0, 0, false}, {1e-30, 0, 0, false},
+	} {
+		m, d, ok := FromFloat(c.x)
+		if ok != c.okay || (ok && (m != c.m || d != c.d)) {
+			t.Errorf("FromFloat(%v) = %d, %d, %v; want %d, %d, %v", c.x, m, d, ok, c.m, c.d, c.okay)
+		}
+	}
+}
+
+// Counting against an exact threshold equals counting against the exact
+// value of every reading (definition, on random grids and thresholds, the
+// thresholds on the grid, between its points and beyond its ends).
+func TestCountAgainstThreshold(t *testing.T) {
+	rng := rand.New(rand.NewPCG(5, 6))
+	for trial := 0; trial < 200; trial++ {
+		d := rng.IntN(5)
+		g, _ := NewGrid(d)
+		n := 1 + rng.IntN(60)
+		xs := make([]float64, n)
+		for i := range xs {
+			xs[i] = g.Float(int64(rng.IntN(2001) - 1000))
+		}
+		slices.Sort(xs)
+		for k := 0; k < 20; k++ {
+			th := big.NewRat(int64(rng.IntN(4001)-2000), int64(1+rng.IntN(7)))
+			th.Quo(th, new(big.Rat).SetInt(g.Denom()))
+			below, above := 0, 0
+			for _, x := range xs {
+				switch g.Value(x).Cmp(th) {
+				case -1:
+					below++
+				case 1:
+					above++
+				}
+			}
+			if got := g.CountBelow(xs, th); got != below {
+				t.Fatalf("CountBelow(%v) = %d, want %d", th, got, below)
+			}
+			if got := g.CountAbove(xs, th); got != above {
+				t.Fatalf("CountAbove(%v) = %d, want %d", th, got, above)
+			}
+		}
+	}
+}
+
+// The power sums and moments equal big-integer sums computed value by
+// value (definition), for small and large deviations and long runs.
+func TestPowerSums(t *testing.T) {
+	rng := rand.New(rand.NewPCG(7, 8))
+	for _, spread := range []int64{3, 1000, 40000, 3_000_000_000, 1 << 49} {
+		g, _ := NewGrid(3)
+		n := 500
+		xs := make([]float64, n)
+		for i := range xs {
+			xs[i] = g.Float(rng.Int64N(2*spread+1) - spread + 1_000_000_500)
+		}
+		slices.Sort(xs)
+		ps := g.PowerSums(xs)
+		for k := 1; k <= 4; k++ {
+			want := new(big.Int)
+			for _, x := range xs {
+				d := big.NewInt(g.M(x) - ps.C)
+				p := new(big.Int).Exp(d, big.NewInt(int64(k)), nil)
+				want.Add(want, p)
+			}
+			if ps.S[k].Cmp(want) != 0 {
+				t.Errorf("spread %d: S%d = %v, want %v", spread, k, ps.S[k], want)
+			}
+		}
+		mo, ok := ps.Moments(g)
+		sum := new(big.Rat)
+		for _, x := range xs {
+			sum.Add(sum, g.Value(x))
+		}
+		mean := new(big.Rat).Quo(sum, big.NewRat(int64(n), 1))
+		if !ok || mo.Mean != Float64(mean) {
+			t.Errorf("spread %d: mean %v, exact %v", spread, mo.Mean, Float64(mean))
+		}
+	}
+}
+
+// An exact quantile interpolates on the decimals: 10.00 + (1/2)(10.52 -
+// 10.00) = 10.26 (by hand).
+func TestInterpolate(t *testing.T) {
+	g, _ := NewGrid(2)
+	if r := g.Interpolate(1000, 1052, 1, 2); Float64(r) != 10.26 {
+		t.Errorf("%v", r)
+	}
+	if r := g.Interpolate(1000, 1052, 0, 4); Float64(r) != 10 {
+		t.Errorf("%v", r)
+	}
+}

@@ -1,0 +1,5 @@
+package method
+
+import "sort"
+
+func fitSortForBench(x []float64) { sort.Float64s(x) }

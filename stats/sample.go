@@ -1,0 +1,165 @@
+package stats
+
+import (
+	"math"
+	"math/big"
+
+	"lotlens/stats/decimal"
+	"lotlens/stats/method"
+)
+
+// sample is the sorted data of one analysis with what every section
+// builder shares: the decimal grid (when the values are plain decimals),
+// the moments, and the quartiles under the chosen definition.
+type sample struct {
+	sorted   []float64
+	n        int
+	grid     decimal.Grid // valid when exact
+	exact    bool         // every value lies on grid: decisions on the decimals as typed
+	mo       moments
+	constant bool
+
+	def     method.QuantileDef // the user's quantile definition
+	defCode string             // its code, "hf7"
+	q1, q3  fig                // quartiles under def
+	qmed    fig                // median under def
+	median  fig                // the centre's median: (n+1)/2-th order statistic
+}
+
+// fig is a figure: its float64 and, on the exact path, its exact value
+// (r is then the decimal the float rounds; nil on the binary path).
+type fig struct {
+	f float64
+	r *big.Rat
+}
+
+func exactFig(r *big.Rat) fig { return fig{f: decimal.Float64(r), r: r} }
+
+// newSample prepares the shared figures. grid is valid when every value is
+// a plain decimal with at most grid.Scale decimals; the ends are checked
+// here for the size of their mantissas.
+func newSample(sorted []float64, grid decimal.Grid, mo moments, def method.QuantileDef, defCode string) *sample {
+	s := &sample{sorted: sorted, n: len(sorted), mo: mo, def: def, defCode: defCode}
+	if grid.Valid() && grid.Holds(sorted) {
+		s.grid, s.exact = grid, true
+	}
+	if s.n == 0 {
+		return s
+	}
+	s.constant = sorted[0] == sorted[s.n-1]
+	s.q1 = s.quantile(method.Prob{Num: 1, Den: 4}, def)
+	s.qmed = s.quantile(method.Prob{Num: 1, Den: 2}, def)
+	s.q3 = s.quantile(method.Prob{Num: 3, Den: 4}, def)
+	s.median = s.at(method.MedianPos(s.n))
+	return s
+}
+
+// at is the figure at a quantile position.
+func (s *sample) at(pos method.QuantilePos) fig {
+	if s.exact {
+		g := s.grid
+		return exactFig(g.Interpolate(g.M(s.sorted[pos.Lo]), g.M(s.sorted[pos.Hi]), pos.GNum, pos.GDen))
+	}
+	return fig{f: pos.Float(s.sorted)}
+}
+
+// quantile is the sample quantile of definition def at p: exact on the
+// decimals, else R's binary arithmetic (method.Quantile).
+func (s *sample) quantile(p method.Prob, def method.QuantileDef) fig {
+	if s.exact {
+		return s.at(method.QuantileAt(s.n, p, def))
+	}
+	return fig{f: method.Quantile(s.sorted, p.Float(), def)}
+}
+
+// sub is a - b.
+func (s *sample) sub(a, b fig) fig {
+	if a.r != nil && b.r != nil {
+		return exactFig(new(big.Rat).Sub(a.r, b.r))
+	}
+	return fig{f: a.f - b.f}
+}
+
+// fences are Tukey's fences k IQR beyond q1 and q3 (k = 3/2 or 3).
+func (s *sample) fences(q1, q3 fig, kNum, kDen int64) (lo, hi fig) {
+	if q1.r != nil && q3.r != nil {
+		l, h := method.TukeyFencesExact(q1.r, q3.r, big.NewRat(kNum, kDen))
+		return exactFig(l), exactFig(h)
+	}
+	l, h := method.TukeyFences(q1.f, q3.f, float64(kNum)/float64(kDen))
+	return fig{f: l}, fig{f: h}
+}
+
+// countBelow is the number of values < f, decided on the decimals as typed
+// on the exact path.
+func (s *sample) countBelow(f fig) int {
+	if s.exact && f.r != nil {
+		return s.grid.CountBelow(s.sorted, f.r)
+	}
+	return lowerBound(s.sorted, f.f)
+}
+
+// countAbove is the number of values > f.
+func (s *sample) countAbove(f fig) int {
+	if s.exact && f.r != nil {
+		return s.grid.CountAbove(s.sorted, f.r)
+	}
+	return s.n - upperBound(s.sorted, f.f)
+}
+
+// mad is the raw median absolute deviation about the centre's median.
+func (s *sample) mad() fig {
+	if s.exact {
+		m2 := new(big.Rat).Mul(s.grid.Units(s.median.r), big.NewRat(2, 1))
+		if m2.IsInt() && m2.Num().IsInt64() {
+			return exactFig(method.MedianAbsDevExact(s.sorted, s.grid, m2.Num().Int64()))
+		}
+	}
+	return fig{f: method.MedianAbsDev(s.sorted, s.median.f)}
+}
+
+// scaled is c·f (c an exact decimal constant num/den).
+func scaled(f fig, num, den int64) fig {
+	if f.r != nil {
+		return exactFig(new(big.Rat).Mul(f.r, big.NewRat(num, den)))
+	}
+	return fig{f: f.f * float64(num) / float64(den)}
+}
+
+// lowerBound is the first index with s[i] >= v; upperBound the first with
+// s[i] > v.
+func lowerBound(s []float64, v float64) int {
+	lo, hi := 0, len(s)
+	for lo < hi {
+		h := int(uint(lo+hi) >> 1)
+		if s[h] < v {
+			lo = h + 1
+		} else {
+			hi = h
+		}
+	}
+	return lo
+}
+
+func upperBound(s []float64, v float64) int {
+	lo, hi := 0, len(s)
+	for lo < hi {
+		h := int(uint(lo+hi) >> 1)
+		if s[h] <= v {
+			lo = h + 1
+		} else {
+			hi = h
+		}
+	}
+	return lo
+}
+
+func finite(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }
+
+// add is a + b.
+func (s *sample) add(a, b fig) fig {
+	if a.r != nil && b.r != nil {
+		return exactFig(new(big.Rat).Add(a.r, b.r))
+	}
+	return fig{f: a.f + b.f}
+}
