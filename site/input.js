@@ -75,6 +75,7 @@ function showActionError(err) {
 export function buildRequest(options) {
   const req = { schema: SCHEMA, options: Object.assign({}, state.carried, options) };
   for (const k of ["value", "group", "order", "subgroup"]) if (state.cols[k]) req[k] = state.cols[k];
+  if (!state.cols.group && state.cols.groups && state.cols.groups.length) req.groups = state.cols.groups; // side by side (card-groups.js)
   if (state.source === "text") req.text = state.text;
   return req;
 }

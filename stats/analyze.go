@@ -109,6 +109,7 @@ func AnalyzeTable(tab *ingest.Table, fingerprint string, req Request) (*Report, 
 	}
 	cv.seq, cv.outOfOrder = cols.orderSequence()
 	cv.subgroup = cols.subgroup
+	cv.group, cv.wide = cols.group, cols.wide
 	if cols.order != nil {
 		rep.Input.Order = cols.order.Name
 	}
@@ -137,6 +138,11 @@ type colView struct {
 	// order and subgroup are the request's columns (nil when none);
 	// subgroup is aligned with vals.
 	order, subgroup *ingest.Column
+	// group is the request's group column (cells aligned with vals), wide
+	// the side-by-side value columns compared as groups; both nil without
+	// a groups section.
+	group *ingest.Column
+	wide  []*ingest.Column
 }
 
 // maxIncompleteListed bounds the incomplete rows listed per optional column.

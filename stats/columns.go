@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"lotlens/stats/ingest"
+	"lotlens/stats/method"
 )
 
 // A request names up to four columns: the value column and, optionally, an
@@ -22,7 +23,7 @@ import (
 var columnReaders = map[string][]string{
 	"order":    {"over time (run chart, control charts)"},
 	"subgroup": {"over time (control charts)", "against the spec (within-process sigma)"},
-	"group":    nil,
+	"group":    {"groups"},
 }
 
 // KindIncomplete is the Problem kind of a row whose value is used but whose
@@ -33,17 +34,26 @@ const KindIncomplete = "incomplete-row"
 type columnSet struct {
 	value                  *ingest.Column
 	order, subgroup, group *ingest.Column
+	// wide: the side-by-side value columns compared as groups (Request.Groups)
+	wide []*ingest.Column
 }
 
 // pickColumns finds every column the request names and checks that each
 // optional one is read by some section, is not the value column and has a
 // kind that suits its role.
 func pickColumns(tab *ingest.Table, req Request) (*columnSet, error) {
-	val, err := pickColumn(tab, req.Value)
+	valName := req.Value
+	if valName == "" && len(req.Groups) > 0 {
+		valName = req.Groups[0]
+	}
+	val, err := pickColumn(tab, valName)
 	if err != nil {
 		return nil, err
 	}
 	cs := &columnSet{value: val}
+	if err := cs.pickWide(tab, req); err != nil {
+		return nil, err
+	}
 	for _, r := range []struct {
 		key, name string
 		dst       **ingest.Column
@@ -72,7 +82,52 @@ func pickColumns(tab *ingest.Table, req Request) (*columnSet, error) {
 			return nil, errorf(CodeColumn, "", "column %q is chosen for two roles: give each role its own column", pair[0].Name)
 		}
 	}
+	for _, w := range cs.wide {
+		for _, c := range []*ingest.Column{cs.order, cs.subgroup} {
+			if c == w {
+				return nil, errorf(CodeColumn, "groups", "column %q is chosen for two roles: give each role its own column", c.Name)
+			}
+		}
+	}
+	if cs.group != nil {
+		if k := groupCount(val, cs.group); k > method.MaxGroups {
+			return nil, errorf(CodeTooManyGroups, "group", "the group column %q holds more than %d groups: at most %d can be compared; choose a column with fewer groups (lines, shifts, cavities), or leave the group choice empty", cs.group.Name, method.MaxGroups, method.MaxGroups)
+		}
+	}
 	return cs, nil
+}
+
+// pickWide reads Request.Groups: several value columns side by side, one
+// per group, refused when mixed with a group column.
+func (cs *columnSet) pickWide(tab *ingest.Table, req Request) error {
+	if len(req.Groups) == 0 {
+		return nil
+	}
+	if strings.TrimSpace(req.Group) != "" {
+		return errorf(CodeBadRequest, "groups", "the request names a group column (%q) and side-by-side group columns (groups): give one of them, a group column for data in one column or the list of columns for data side by side", req.Group)
+	}
+	if len(req.Groups) < 2 {
+		return errorf(CodeColumn, "groups", "groups names one column: name two or more value columns to compare them side by side")
+	}
+	if len(req.Groups) > method.MaxGroups {
+		return errorf(CodeTooManyGroups, "groups", "groups names %d columns: at most %d can be compared", len(req.Groups), method.MaxGroups)
+	}
+	seen := map[*ingest.Column]bool{}
+	for _, name := range req.Groups {
+		c, err := findColumn(tab, name, "groups")
+		if err != nil {
+			return err
+		}
+		if seen[c] {
+			return errorf(CodeColumn, "groups", "column %q is named twice in groups: name each column once", c.Name)
+		}
+		seen[c] = true
+		if c.Numbers == 0 {
+			return errorf(CodeColumn, "groups", "column %q in groups holds %s, not measurements: name the value columns to compare", c.Name, kindWords(c.Kind))
+		}
+		cs.wide = append(cs.wide, c)
+	}
+	return nil
 }
 
 func kindWords(kind string) string {

@@ -92,47 +92,15 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	if allFixed && onGrid {
 		grid, _ = decimal.NewGrid(int(maxD))
 	}
-	sorted := xs
-	if !grid.CountSort(sorted) {
-		decimal.SortFloats(sorted)
-	}
+	s, ps := prepareSample(xs, grid, opts.Quantile)
+	sorted := s.sorted
 	xs = nil
-	lo, hi := sorted[0], sorted[n-1]
-
-	// Moments: exact sums of powers on the grid, else compensated binary.
-	var mo moments
-	var ps *decimal.PowerSums
-	if grid.Valid() && grid.Holds(sorted) {
-		p := grid.PowerSums(sorted)
-		if dm, ok := p.Moments(grid); ok {
-			mo, ps = fromDecimal(dm), &p
-		}
-	}
-	if ps == nil {
-		mo = compensatedMoments(sorted, lo, hi)
-	}
-	s := newSample(sorted, grid, mo, quantileDef(opts.Quantile), opts.Quantile)
-	if s.constant {
-		s.mo.mean, s.mo.sd, s.mo.popSD, s.mo.varN1, s.mo.varN, s.mo.varInf = lo, 0, 0, 0, 0, false
-	}
 	if !s.exact {
 		rep.Notes = append(rep.Notes, Note{Field: "counts.decimals", Text: w.binaryPath(allFixed)})
 	}
 
 	// Counts: distinct values, the effective step.
-	distinct, maxRun := 1, 1
-	run := 1
-	for i := 1; i < n; i++ {
-		if sorted[i] != sorted[i-1] {
-			distinct++
-			run = 1
-		} else {
-			run++
-			if run > maxRun {
-				maxRun = run
-			}
-		}
-	}
+	distinct, maxRun := runs(sorted)
 	rep.Counts.Distinct = distinct
 	step := 0.0
 	if s.exact {
@@ -202,6 +170,7 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 		rep.Notes = append(rep.Notes, notes...)
 		rep.Settings.Coverage, rep.Settings.CpkGoal = opts.Coverage, opts.CpkGoal
 	}
+	rep.Groups = groupsSection(rep, w, cv, opts)
 
 	// Charts.
 	ch := &Charts{}
@@ -450,4 +419,52 @@ func probPlotRows(pts []ProbPt, cv *colView) {
 			got[id] = rows[1:]
 		}
 	}
+}
+
+// prepareSample sorts xs in place and prepares its sample, the same way for
+// the whole column and for each group of the groups section: the moments
+// from exact sums of powers of the decimals when every value lies on grid
+// (ps, else nil), otherwise compensated binary sums; the quartiles under
+// the quantile definition code; constant data get mean = the value and
+// SD = 0 exactly.
+func prepareSample(xs []float64, grid decimal.Grid, code string) (s *sample, ps *decimal.PowerSums) {
+	sorted := xs
+	if !grid.CountSort(sorted) {
+		decimal.SortFloats(sorted)
+	}
+	var mo moments
+	if n := len(sorted); n > 0 {
+		lo, hi := sorted[0], sorted[n-1]
+		if grid.Valid() && grid.Holds(sorted) {
+			p := grid.PowerSums(sorted)
+			if dm, ok := p.Moments(grid); ok {
+				mo, ps = fromDecimal(dm), &p
+			}
+		}
+		if ps == nil {
+			mo = compensatedMoments(sorted, lo, hi)
+		}
+	}
+	s = newSample(sorted, grid, mo, quantileDef(code), code)
+	if s.constant {
+		lo := sorted[0]
+		s.mo.mean, s.mo.sd, s.mo.popSD, s.mo.varN1, s.mo.varN, s.mo.varInf = lo, 0, 0, 0, 0, false
+	}
+	return s, ps
+}
+
+// runs counts the distinct values of sorted data and the longest run of
+// one value (1 for empty data).
+func runs(sorted []float64) (distinct, maxRun int) {
+	distinct, maxRun = 1, 1
+	run := 1
+	for i := 1; i < len(sorted); i++ {
+		if sorted[i] != sorted[i-1] {
+			distinct++
+			run = 1
+		} else if run++; run > maxRun {
+			maxRun = run
+		}
+	}
+	return distinct, maxRun
 }

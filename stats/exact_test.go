@@ -2,6 +2,7 @@ package stats
 
 import (
 	"fmt"
+	"lotlens/stats/internal/rref"
 	"math"
 	"path/filepath"
 	"strconv"
@@ -100,7 +101,7 @@ func TestFiguresShownExactly(t *testing.T) {
 // figuresRef reads testdata/rref/figures.tsv (Python fractions, exact).
 func figuresRef(t *testing.T) map[string]map[string]float64 {
 	t.Helper()
-	return readRefTSV(t, filepath.Join("..", "testdata", "rref", "figures.tsv"))
+	return rref.Load(t, "figures.tsv", 20)
 }
 
 // Every quantile definition, the hinges, the median, the MAD, the IQR, the

@@ -43,7 +43,7 @@ func TestGuardFiniteDropsSections(t *testing.T) {
 // from that report.
 func TestGuardCoversEveryField(t *testing.T) {
 	lsl, usl, target := 4.9, 5.3, 5.1
-	base, err := Analyze(Request{Text: guardFullData, Options: Options{Target: &target, LSL: &lsl, USL: &usl, PopulationSD: true}})
+	base, err := Analyze(Request{Text: guardFullData, Value: "Weight", Group: "Line", Options: Options{Target: &target, LSL: &lsl, USL: &usl, PopulationSD: true}})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -103,8 +103,9 @@ func TestGuardKeepsMedianWhenIntervalOverflows(t *testing.T) {
 }
 
 // guardFullData: 40 readings with two far values, so every rule flags
-// something and every section is filled.
-const guardFullData = "Weight (g)\n5.11\n5.09\n5.12\n5.10\n5.08\n5.13\n5.10\n5.11\n5.09\n5.12\n5.10\n5.07\n5.11\n5.14\n5.10\n5.09\n5.12\n5.11\n5.10\n5.08\n5.55\n5.10\n5.12\n5.09\n5.11\n5.10\n5.13\n5.08\n5.10\n5.11\n4.70\n5.12\n5.09\n5.10\n5.11\n5.10\n5.12\n5.09\n5.10\n5.11\n"
+// something and every section is filled, in three lines (A, B, C) for the
+// groups section.
+const guardFullData = "Line\tWeight (g)\nA\t5.11\nB\t5.09\nC\t5.12\nA\t5.10\nB\t5.08\nC\t5.13\nA\t5.10\nB\t5.11\nC\t5.09\nA\t5.12\nB\t5.10\nC\t5.07\nA\t5.11\nB\t5.14\nC\t5.10\nA\t5.09\nB\t5.12\nC\t5.11\nA\t5.10\nB\t5.08\nC\t5.55\nA\t5.10\nB\t5.12\nC\t5.09\nA\t5.11\nB\t5.10\nC\t5.13\nA\t5.08\nB\t5.10\nC\t5.11\nA\t4.70\nB\t5.12\nC\t5.09\nA\t5.10\nB\t5.11\nC\t5.10\nA\t5.12\nB\t5.09\nC\t5.10\nA\t5.11\n"
 
 type floatPath struct {
 	path   string

@@ -36,6 +36,10 @@ type Request struct {
 	Group    string `json:"group,omitempty"`
 	Order    string `json:"order,omitempty"`
 	Subgroup string `json:"subgroup,omitempty"`
+	// Groups names several value columns side by side, one per group
+	// ("wide" data), to compare as groups; the alternative to Group. The
+	// single-column sections read Value (default: the first of these).
+	Groups []string `json:"groups,omitempty"`
 
 	Options Options `json:"options"`
 }
@@ -106,6 +110,7 @@ type Report struct {
 	Suspects  *Suspects  `json:"suspects,omitempty"`
 	Target    *Target    `json:"target,omitempty"`
 	Spec      *Spec      `json:"spec,omitempty"`
+	Groups    *Groups    `json:"groups,omitempty"`
 	Charts    *Charts    `json:"charts,omitempty"`
 	Stability *Stability `json:"stability,omitempty"`
 	Notes     []Note     `json:"notes,omitempty"`

@@ -67,7 +67,8 @@ func (e errString) Error() string { return string(e) }
 
 // TestColumnsAligned: order, subgroup and group columns are read with the
 // value column, rows aligned; a row missing its partner cell is listed; a
-// column no section reads is refused, never ignored.
+// column no section reads is refused, never ignored. (Values and rows
+// worked by hand from the table below.)
 func TestColumnsAligned(t *testing.T) {
 	text := "Seq\tShift\tWeight (g)\tLot\n3\tA\t5.12\tL1\n1\tA\t5.08\tL1\n2\tB\t5.10\tL2\n\tB\t5.11\tL2\n5\tA\t5.09\t\n4\tB\t5.13\tL3\n"
 	rep, err := Analyze(Request{Text: text, Value: "Weight", Order: "Seq"})
@@ -105,11 +106,19 @@ func TestColumnsAligned(t *testing.T) {
 	if rep, err := Analyze(Request{Text: text, Value: "Weight", Subgroup: "Lot"}); err != nil || rep.Stability == nil {
 		t.Errorf("subgroup column refused or unread: %v", err)
 	}
+	// the group column is read by the groups section, cell by cell with
+	// the values: Shift A holds rows 2, 3 and 6
+	grp, err := Analyze(Request{Text: text, Value: "Weight", Group: "Shift"})
+	if err != nil || grp.Groups == nil || len(grp.Groups.Levels) != 2 {
+		t.Fatalf("group Shift: %v %+v", err, grp)
+	}
+	if a := grp.Groups.Levels[0]; a.Name != "A" || a.N != 3 || a.Min != 5.08 || a.Max != 5.12 {
+		t.Errorf("group A: %s n %d %g..%g, want A, 3 readings 5.08..5.12 (rows 2, 3, 6)", a.Name, a.N, a.Min, a.Max)
+	}
 	for _, c := range []struct {
 		req  Request
 		code string
 	}{
-		{Request{Text: text, Value: "Weight", Group: "Shift"}, CodeUnused},
 		{Request{Text: text, Value: "Weight", Order: "Weight"}, CodeColumn},
 		{Request{Text: text, Value: "Weight", Order: "Shift"}, CodeColumn},
 		{Request{Text: text, Value: "Weight", Order: "Nope"}, CodeColumn},
@@ -119,6 +128,24 @@ func TestColumnsAligned(t *testing.T) {
 		if CodeOf(err) != c.code {
 			t.Errorf("%+v: got %v (%s), want code %s", c.req, err, CodeOf(err), c.code)
 		}
+	}
+}
+
+// TestUnreadColumnRefused: a column role that no section reads is refused
+// with CodeUnused, never ignored. Every role has a reader today, so the
+// test takes the group column's reader away for its duration.
+func TestUnreadColumnRefused(t *testing.T) {
+	text := "Shift\tWeight\nA\t5.12\nA\t5.08\nB\t5.10\nB\t5.11\n"
+	saved := columnReaders["group"]
+	defer func() { columnReaders["group"] = saved }()
+	columnReaders["group"] = nil
+	_, err := Analyze(Request{Text: text, Value: "Weight", Group: "Shift"})
+	if CodeOf(err) != CodeUnused {
+		t.Errorf("group column without a reader: %v (code %s), want code %s", err, CodeOf(err), CodeUnused)
+	}
+	columnReaders["group"] = saved
+	if _, err := Analyze(Request{Text: text, Value: "Weight", Group: "Shift"}); err != nil {
+		t.Errorf("group column with its reader: %v", err)
 	}
 }
 

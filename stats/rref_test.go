@@ -1,8 +1,8 @@
 package stats
 
 import (
-	"bufio"
 	"fmt"
+	"lotlens/stats/internal/rref"
 	"math"
 	"os"
 	"path/filepath"
@@ -18,42 +18,7 @@ import (
 
 func loadRef(t *testing.T) map[string]map[string]float64 {
 	t.Helper()
-	return readRefTSV(t, filepath.Join("..", "testdata", "rref", "core.tsv"))
-}
-
-// readRefTSV reads a reference table written by the scripts in
-// testdata/rref: a header line, then set<TAB>statistic<TAB>value.
-func readRefTSV(t *testing.T, path string) map[string]map[string]float64 {
-	t.Helper()
-	f, err := os.Open(path)
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	ref := map[string]map[string]float64{}
-	sc := bufio.NewScanner(f)
-	sc.Scan() // header
-	for sc.Scan() {
-		p := strings.Split(sc.Text(), "\t")
-		if len(p) != 3 {
-			t.Fatalf("%s: bad line %q", path, sc.Text())
-		}
-		v, err := strconv.ParseFloat(p[2], 64)
-		if err != nil {
-			t.Fatalf("%s: bad value in %q", path, sc.Text())
-		}
-		if ref[p[0]] == nil {
-			ref[p[0]] = map[string]float64{}
-		}
-		ref[p[0]][p[1]] = v
-	}
-	if err := sc.Err(); err != nil {
-		t.Fatal(err)
-	}
-	if len(ref) < 20 {
-		t.Fatalf("only %d sets in %s", len(ref), path)
-	}
-	return ref
+	return rref.Load(t, "core.tsv", 20)
 }
 
 func analyzeFile(t *testing.T, path string, o Options) *Report {

@@ -3,6 +3,7 @@ package stats
 import (
 	"math"
 	"math/big"
+	"sort"
 
 	"lotlens/stats/decimal"
 	"lotlens/stats/method"
@@ -126,34 +127,6 @@ func scaled(f fig, num, den int64) fig {
 	return fig{f: f.f * float64(num) / float64(den)}
 }
 
-// lowerBound is the first index with s[i] >= v; upperBound the first with
-// s[i] > v.
-func lowerBound(s []float64, v float64) int {
-	lo, hi := 0, len(s)
-	for lo < hi {
-		h := int(uint(lo+hi) >> 1)
-		if s[h] < v {
-			lo = h + 1
-		} else {
-			hi = h
-		}
-	}
-	return lo
-}
-
-func upperBound(s []float64, v float64) int {
-	lo, hi := 0, len(s)
-	for lo < hi {
-		h := int(uint(lo+hi) >> 1)
-		if s[h] <= v {
-			lo = h + 1
-		} else {
-			hi = h
-		}
-	}
-	return lo
-}
-
 func finite(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }
 
 // add is a + b.
@@ -162,4 +135,12 @@ func (s *sample) add(a, b fig) fig {
 		return exactFig(new(big.Rat).Add(a.r, b.r))
 	}
 	return fig{f: a.f + b.f}
+}
+
+// lowerBound is the first index with s[i] >= v (sort.SearchFloat64s);
+// upperBound the first with s[i] > v.
+func lowerBound(s []float64, v float64) int { return sort.SearchFloat64s(s, v) }
+
+func upperBound(s []float64, v float64) int {
+	return sort.Search(len(s), func(i int) bool { return s[i] > v })
 }

@@ -61,27 +61,17 @@ func shapeSection(w words, sorted []float64, mean, sd float64, ps *decimal.Power
 		note("shape", w.shapeConstant())
 		return nil, notes
 	}
-	var sm method.ShapeMoments
-	ok := false
-	if ps != nil {
-		sm, ok = method.ShapeExact(*ps)
-	}
-	if !ok {
-		sm, ok = method.ShapeBinary(sorted, mean, sd)
-	}
-	if ok && finite(sm.G1) && finite(sm.SES) {
-		sh.Skewness = &Moment{Value: sm.G1, SE: sm.SES}
-	} else {
+	sk, sm, ok := skewness(w, sorted, mean, sd, ps)
+	sh.Skewness = sk
+	if sk == nil {
 		failed("shape.skewness")
 	}
 	var zs, zk float64
 	okS, okK := false, false
-	if n >= method.SkewTestMinN {
-		if z, ok := method.DAgostinoSkewZ(sm.Sqrtb1, n); ok && sh.Skewness != nil {
-			zs, okS = z, true
-			sh.Skewness.Test = &Test{Name: testSkew, Statistic: z, P: method.TwoSidedNormalP(z), Method: w.skewMethod()}
-		}
-	} else {
+	if sk != nil && sk.Test != nil {
+		zs, okS = sk.Test.Statistic, true
+	}
+	if n < method.SkewTestMinN {
 		needs("shape.skewness.test", method.SkewTestMinN)
 	}
 	if n >= 4 {
@@ -142,4 +132,33 @@ func shapeSection(w words, sorted []float64, mean, sd float64, ps *decimal.Power
 		needs("shape.andersonDarling", method.AndersonMinN)
 	}
 	return sh, notes
+}
+
+// skewness is the adjusted skewness G1 with its standard error and, from
+// method.SkewTestMinN readings, D'Agostino's (1970) test: the figures the
+// verdict's rules read. sm are the moments behind it, exact from ps when
+// given (method.ShapeExact), else binary (method.ShapeBinary); ok is false
+// when they cannot be computed, and sk is nil when G1 is not finite. The
+// shape section and each group of the groups section use it.
+func skewness(w words, sorted []float64, mean, sd float64, ps *decimal.PowerSums) (sk *Moment, sm method.ShapeMoments, ok bool) {
+	n := len(sorted)
+	if n < 3 || !(sd > 0) || math.IsInf(sd, 0) || !finite(mean) {
+		return nil, sm, false
+	}
+	if ps != nil {
+		sm, ok = method.ShapeExact(*ps)
+	}
+	if !ok {
+		sm, ok = method.ShapeBinary(sorted, mean, sd)
+	}
+	if !ok || !finite(sm.G1) || !finite(sm.SES) {
+		return nil, sm, ok
+	}
+	sk = &Moment{Value: sm.G1, SE: sm.SES}
+	if n >= method.SkewTestMinN {
+		if z, zok := method.DAgostinoSkewZ(sm.Sqrtb1, n); zok {
+			sk.Test = &Test{Name: testSkew, Statistic: z, P: method.TwoSidedNormalP(z), Method: w.skewMethod()}
+		}
+	}
+	return sk, sm, ok
 }

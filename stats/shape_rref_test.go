@@ -1,6 +1,7 @@
 package stats
 
 import (
+	"lotlens/stats/internal/rref"
 	"math"
 	"os"
 	"path/filepath"
@@ -18,7 +19,7 @@ import (
 
 func methodsRef(t *testing.T) map[string]map[string]float64 {
 	t.Helper()
-	ref := readRefTSV(t, filepath.Join("..", "testdata", "rref", "methods.tsv"))
+	ref := rref.Load(t, "methods.tsv", 20)
 	if len(ref) < 24 {
 		t.Fatalf("methods.tsv holds %d sets, want 24", len(ref))
 	}

@@ -3,7 +3,6 @@ package stats
 import (
 	"math"
 	"math/big"
-	"sort"
 	"strconv"
 
 	"lotlens/stats/method"
@@ -247,13 +246,7 @@ func buildSpec(w words, in specInput, opts Options) (*Spec, []Note) {
 	// double is monotone and maps distinct short decimals to distinct
 	// doubles, so comparing the doubles decides exactly as the decimals
 	// would (a reading typed 5.10 against a limit 5.1 is equal, not out).
-	below, above := 0, 0
-	if !math.IsNaN(lsl) {
-		below = sort.SearchFloat64s(in.sorted, lsl) // values < lsl
-	}
-	if !math.IsNaN(usl) {
-		above = n - sort.Search(n, func(i int) bool { return in.sorted[i] > usl })
-	}
+	below, above := specCounts(in.sorted, lsl, usl)
 	cf, err := method.ConformanceFromCounts(n, below, above, !math.IsNaN(lsl), !math.IsNaN(usl), conf)
 	if err != nil {
 		return nil, []Note{{Field: "spec", Text: w.specFailed(err)}}
@@ -408,6 +401,22 @@ func buildSpec(w words, in specInput, opts Options) (*Spec, []Note) {
 	sp.Cautions = specCautions(w, sp, in, opts, n)
 	sp.Statement = specStatement(w, sp, opts)
 	return sp, notes
+}
+
+// specCounts counts the sorted readings below lsl and above usl (NaN: no
+// limit on that side); a reading on a limit conforms. The limits are
+// numbers as the user typed them and the readings were parsed from their
+// decimals; rounding to the nearest double is monotone and maps distinct
+// short decimals to distinct doubles, so comparing the doubles decides
+// exactly as the decimals would.
+func specCounts(sorted []float64, lsl, usl float64) (below, above int) {
+	if !math.IsNaN(lsl) {
+		below = lowerBound(sorted, lsl) // values < lsl
+	}
+	if !math.IsNaN(usl) {
+		above = len(sorted) - upperBound(sorted, usl)
+	}
+	return below, above
 }
 
 // index returns the named index on a basis, or nil.

@@ -4,10 +4,11 @@ import (
 	"encoding/json"
 	"fmt"
 	"math"
-	"path/filepath"
 	"strconv"
 	"strings"
 	"testing"
+
+	"lotlens/stats/internal/rref"
 )
 
 // The section's figures against R 4.2.2 (testdata/rref/control.R, base R
@@ -17,7 +18,7 @@ import (
 
 func loadControl(t *testing.T) map[string]map[string]float64 {
 	t.Helper()
-	return readRefTSV(t, filepath.Join("..", "testdata", "rref", "control.tsv"))
+	return rref.Load(t, "control.tsv", 5)
 }
 
 // seriesText writes the readings x:1..x:n of a set, one a line, with dec

@@ -72,17 +72,23 @@ func checkWithin(o Options, hasSubgroup bool) error {
 // estimateWithin computes the within-process sigma for the used readings of
 // cv (excluded readings and empty cells left out), in time order.
 func estimateWithin(cv *colView, sub *ingest.Column, choice string) *withinSigma {
-	w := &withinSigma{}
-	used := func(i int) bool {
-		x := cv.vals[i]
-		return x == x && !math.IsInf(x, 0) && !cv.excludedByUser[cv.rows[i]]
-	}
+	var series []float64
+	var cells []int32
 	for i := range cv.inOrder() {
-		if used(i) {
-			w.series = append(w.series, cv.vals[i])
-			w.cells = append(w.cells, int32(i))
+		if x := cv.vals[i]; x == x && !math.IsInf(x, 0) && !cv.excludedByUser[cv.rows[i]] {
+			series = append(series, x)
+			cells = append(cells, int32(i))
 		}
 	}
+	return withinOf(series, cells, sub, choice)
+}
+
+// withinOf is the within-process sigma of readings given in time order
+// (series, with their cell indices, aligned with sub): the estimator of
+// estimateWithin, for the whole column or for one group of the groups
+// section.
+func withinOf(series []float64, cells []int32, sub *ingest.Column, choice string) *withinSigma {
+	w := &withinSigma{series: series, cells: cells}
 	if sub == nil {
 		w.method = choice
 		if w.method == "" {

@@ -1173,6 +1173,252 @@ func (w words) stabLeadSignals(n int, first *SignalInfo) string {
 // stabLeadBaseline joins the lead and the baseline's sentence.
 func (w words) stabLeadBaseline(lead, baseline string) string { return lead + "; " + baseline }
 
+// ---- Groups ---------------------------------------------------------------
+
+// grpFig writes a figure of the groups' statement with dec decimals (dec
+// < 0: three significant digits), without a negative zero.
+func (w words) grpFig(x float64, dec int) string {
+	var s string
+	if dec < 0 {
+		s = w.g3(x)
+	} else {
+		s = w.fixed(x, dec)
+	}
+	if strings.HasPrefix(s, "-") && strings.Trim(s[1:], "0.,") == "" {
+		s = s[1:]
+	}
+	return s
+}
+
+// grpWithUnit adds the data's unit (as typed) to a figure.
+func grpWithUnit(s, unit string) string {
+	if unit != "" {
+		return s + " " + unit
+	}
+	return s
+}
+
+func (w words) grpTooMany(k, most int) string {
+	return fmt.Sprintf("%d groups: at most %d can be compared", k, most)
+}
+
+func (w words) grpNotExact() string {
+	return "Some readings are not plain decimals as typed (exponent form or too many digits): the rank tests and fences of the groups use binary doubles, so ties and comparisons may differ in the last digit."
+}
+
+func (w words) grpLeftOut(n, need int) string {
+	return fmt.Sprintf("only %d %s: left out of the tests (at least %d are needed to estimate a group's own spread)", n, plural(n, "reading", "readings"), need)
+}
+
+func (w words) grpTooFew(k, need int) string {
+	return fmt.Sprintf("%d %s with %d or more readings: at least two are needed to compare groups", k, plural(k, "group", "groups"), need)
+}
+
+// grpReason is a group's verdict reason, named by the group's title.
+func (w words) grpReason(title, reason string) string { return title + ": " + reason }
+
+func (w words) grpAllMean() string {
+	return "every group is roughly symmetric without far-out readings (the verdict's rules, group by group), so the tests of means lead"
+}
+
+// grpNoWithin: no within-process sigma for the group title (so no Cpk).
+func (w words) grpNoWithin(title string, err error) string {
+	var why string
+	if f, ok := err.(withinFlat); ok {
+		why = w.withinFlat(f.subgroups)
+	} else {
+		why = "too few readings in time order"
+	}
+	return fmt.Sprintf("%s: no Cpk, the within-process sigma cannot be estimated (%s); Ppk, from the group's overall SD, is given", title, why)
+}
+
+// grpTestName names a test of the section by its code.
+func (w words) grpTestName(code string) string {
+	return map[string]string{
+		"welch-t":        "Welch's t test",
+		"welch-anova":    "Welch's ANOVA",
+		"anova":          "One-way ANOVA",
+		"mann-whitney":   "Mann-Whitney (Wilcoxon rank-sum)",
+		"kruskal-wallis": "Kruskal-Wallis",
+		"brown-forsythe": "Brown-Forsythe (Levene about the medians)",
+		"bartlett":       "Bartlett",
+		"f-ratio":        "F test of the variance ratio",
+	}[code]
+}
+
+// grpTestShort is the test's name in the statement.
+func (w words) grpTestShort(code string) string {
+	n := w.grpTestName(code)
+	if i := strings.Index(n, " ("); i >= 0 {
+		return n[:i]
+	}
+	return n
+}
+
+// grpTestMethod says how a test of the section is computed.
+func (w words) grpTestMethod(code string) string {
+	return map[string]string{
+		"welch-t":     "Welch-Satterthwaite degrees of freedom",
+		"welch-anova": "F with Welch's fractional denominator degrees of freedom",
+		"anova":       "F test, equal variances assumed",
+		"bartlett":    "chi-squared; assumes normal data",
+		"f-ratio":     "assumes normal data",
+	}[code]
+}
+
+func (w words) grpMannWhitneyMethod(exact bool) string {
+	if exact {
+		return "exact distribution (no ties, both groups under 50)"
+	}
+	return "normal approximation with tie and continuity corrections"
+}
+
+func (w words) grpKruskalMethod(tieFactor float64) string {
+	return "chi-squared approximation, corrected for ties (factor " + w.g(tieFactor, 4) + ")"
+}
+
+func (w words) grpCentreWhy(lead string, k int) string {
+	switch {
+	case lead == "means" && k == 2:
+		return "Welch's t test leads: both groups suit the mean, and Welch's test does not assume equal spreads. The rank test is shown beside it."
+	case lead == "means":
+		return "Welch's ANOVA leads: every group suits the mean, and Welch's test does not assume equal spreads (the classic one-way ANOVA, which does, is shown too). Kruskal-Wallis is shown beside them."
+	case k == 2:
+		return "The Mann-Whitney test leads: at least one group is skewed or holds far-out readings, so the comparison rests on ranks, and the Hodges-Lehmann shift gives the difference. Welch's t test is shown beside it."
+	}
+	return "Kruskal-Wallis leads: at least one group is skewed or holds far-out readings, so the comparison rests on ranks. The tests of means are shown beside it."
+}
+
+func (w words) grpLeadMissing() string {
+	return "The leading test could not be computed for these data (see the notes); the others are shown."
+}
+
+func (w words) grpSpreadWhy(lead string) string {
+	if lead == "bartlett" {
+		return "Bartlett's test leads: every group looks normal, where it is the most sensitive test of equal spreads. Brown-Forsythe, which does not need normal data, is shown beside it."
+	}
+	return "The Brown-Forsythe test leads: it compares the spread about each group's median and stays honest for skewed data or far-out readings. Bartlett's test assumes normal data."
+}
+
+func (w words) grpMeansPairsWhy(m string, spreadsDiffer, equalN bool) string {
+	if m == "tukey-kramer" {
+		return "Tukey-Kramer: the groups are of equal size and their spreads are alike, so a pooled SD serves every pair."
+	}
+	switch {
+	case spreadsDiffer && !equalN:
+		return "Games-Howell: the spreads differ and the group sizes are unequal, so each pair uses its own SDs."
+	case spreadsDiffer:
+		return "Games-Howell: the spreads differ, so each pair uses its own SDs."
+	}
+	return "Games-Howell: the group sizes are unequal, so each pair uses its own SDs rather than a pooled one."
+}
+
+func (w words) grpDunnWhy() string {
+	return "Dunn's test on the joint ranks of the Kruskal-Wallis test, with Holm's adjustment for the number of pairs; the Hodges-Lehmann shift of each pair gives the difference in the data's unit."
+}
+
+func (w words) grpNoShifts(n, k, most int) string {
+	return fmt.Sprintf("the Hodges-Lehmann shift of each pair is left out for %s readings in %d groups (it is computed up to %s readings × (groups − 1)); the differences in means are given", w.grouped(n), k, w.grouped(most))
+}
+
+// grpMethodFailed: a method of the section could not run (code a
+// method.GroupsCode; who the group's title, or "").
+func (w words) grpMethodFailed(code method.GroupsCode, who string) string {
+	if who != "" {
+		who = " (" + who + ")"
+	}
+	switch code {
+	case method.GroupsNoSpread:
+		return "not computed: a group has no variation where this test needs some" + who
+	case method.GroupsNotFinite:
+		return "not computed: the result would not be a finite number for these values" + who
+	case method.GroupsTooComplex:
+		return "the letters are left out: the pattern of differences would need too many letters"
+	}
+	return "not computed for these data" + who
+}
+
+func (w words) grpNoComparison(k, need int) string {
+	return "No comparison: " + w.grpTooFew(k, need) + "."
+}
+
+// grpTwo opens the statement for two groups A and B: B minus A is d (the
+// Hodges-Lehmann shift when shift, else the difference in means), with
+// its interval ci (nil: none), differing clearly or not, by the leading
+// test's p.
+func (w words) grpTwo(a, b string, differ, shift bool, d float64, ci *Interval, dec int, unit string, p float64) string {
+	test, what, in := "Welch's t test", "on average", ""
+	if shift {
+		test, what, in = "Mann-Whitney test", "in centre", "Hodges-Lehmann shift; "
+	}
+	iv := ""
+	if differ {
+		dir := "higher"
+		if d < 0 {
+			dir = "lower"
+		}
+		if ci != nil {
+			lo, hi := ci.Lo, ci.Hi
+			if d < 0 {
+				lo, hi = -hi, -lo // the interval of the distance "lower"
+			}
+			iv = fmt.Sprintf("%s interval %s to %s, ", w.level(ci.Level), w.grpFig(lo, dec), grpWithUnit(w.grpFig(hi, dec), unit))
+		}
+		return fmt.Sprintf("%s reads %s %s than %s %s (%s%s%s %s)", b, grpWithUnit(w.grpFig(math.Abs(d), dec), unit), dir, a, what, in, iv, test, w.p(p))
+	}
+	if ci != nil {
+		iv = fmt.Sprintf("%s interval %s to %s, ", w.level(ci.Level), w.grpFig(ci.Lo, dec), grpWithUnit(w.grpFig(ci.Hi, dec), unit))
+	}
+	return fmt.Sprintf("%s and %s show no clear difference in centre: %s minus %s is %s %s (%s%s%s %s)", b, a, b, a, grpWithUnit(w.grpFig(d, dec), unit), what, in, iv, test, w.p(p))
+}
+
+// grpMany opens the statement for k groups: the leading test (code) and
+// its p, the highest and lowest centre (medians or means); of np pairs nd
+// differ clearly (np < 0: no pairwise comparisons).
+func (w words) grpMany(k int, code string, medians, differ bool, p float64, hiName string, hi float64, loName string, lo float64, dec int, unit string, nd, np int) string {
+	word := "mean"
+	if medians {
+		word = "median"
+	}
+	name := w.grpTestShort(code)
+	if !differ {
+		return fmt.Sprintf("The %d groups show no clear difference in centre (%s %s; %ss from %s to %s)", k, name, w.p(p), word, w.grpFig(lo, dec), grpWithUnit(w.grpFig(hi, dec), unit))
+	}
+	s := fmt.Sprintf("The %d groups differ in centre (%s %s): %s has the highest %s (%s), %s the lowest (%s)",
+		k, name, w.p(p), hiName, word, grpWithUnit(w.grpFig(hi, dec), unit), loName, grpWithUnit(w.grpFig(lo, dec), unit))
+	if np >= 0 {
+		s += fmt.Sprintf("; %d of %d pairs differ clearly (groups sharing a letter do not)", nd, np)
+	}
+	return s
+}
+
+func (w words) grpCentreFailed() string {
+	return "The tests of a difference in centre could not be computed for these data (see the notes)"
+}
+
+// grpSpreadPart continues the statement with the spreads of k groups by
+// the leading spread test (code, p); ratio is the largest SD over the
+// smallest.
+func (w words) grpSpreadPart(k int, differ bool, code string, p, ratio float64) string {
+	both := "their spreads"
+	if k > 2 {
+		both = "the spreads"
+	}
+	if differ {
+		return fmt.Sprintf("; %s differ (%s %s; the largest SD is %s times the smallest)", both, w.grpTestShort(code), w.p(p), w.fixed(ratio, 2))
+	}
+	return fmt.Sprintf("; %s are alike (%s %s)", both, w.grpTestShort(code), w.p(p))
+}
+
+// grpOfTolerance: the leading difference is frac of the tolerance.
+func (w words) grpOfTolerance(frac float64) string {
+	return " The difference is " + w.fixed(100*frac, 0) + " % of the tolerance."
+}
+
+func (w words) grpSkipped(k, need int) string {
+	return fmt.Sprintf(" %d %s fewer than %d readings %s listed but left out of the tests.", k, plural(k, "group with", "groups with"), need, plural(k, "is", "are"))
+}
+
 // ---- Charts ---------------------------------------------------------------
 
 // probPlotPositions names the plotting positions of the probability plot.

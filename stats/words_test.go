@@ -51,8 +51,9 @@ func TestWordsFormatters(t *testing.T) {
 
 // userText lists the JSON paths of report strings that are the user's own
 // text or identifiers (not written by the engine): readings as typed,
-// column names and units, the reader's view of the input, the fingerprint.
-var userText = regexp.MustCompile(`^(schema|input\.(fingerprint|column|order|unit|columns|reader)|input\.problems\[\d+\]\.(text|column)|(settings\.excluded|suspects\.readings)\[\d+\]\.(text|column)|centre\.modes\[\d+\]\.text)(\.|\[|$)`)
+// column names and units, the reader's view of the input, the fingerprint,
+// the groups' labels and titles.
+var userText = regexp.MustCompile(`^(schema|input\.(fingerprint|column|order|unit|columns|reader)|input\.problems\[\d+\]\.(text|column)|(settings\.excluded|suspects\.readings)\[\d+\]\.(text|column)|centre\.modes\[\d+\]\.text|groups\.(column|columns|spread\.(largest|smallest)|effect\.[ab]|levels\[\d+\]\.(name|title|suspects\[\d+\]\.(text|column))|pairwise\.(means|medians)\.pairs\[\d+\]\.[ab]))(\.|\[|$)`)
 
 // sentencePairs walks a report read with a decimal point and the same
 // report read with a decimal comma side by side and returns every string
@@ -143,31 +144,50 @@ func TestSentencesFollowDecimalMark(t *testing.T) {
 		}
 		shifted = append(shifted, strconv.FormatFloat(5.1+step+0.01*float64([]int{0, 2, -1, 1, -2, 0, 1, -1}[i%8]), 'f', 2, 64))
 	}
+	// grouped: three lines (the third with a far reading, so the rank
+	// tests and the Hodges-Lehmann shifts lead), and two lines
+	var three, two []string
+	for i := 0; i < 12; i++ {
+		three = append(three, "A\t"+strconv.FormatFloat(5.10+float64(i%5)/100, 'f', 2, 64),
+			"B\t"+strconv.FormatFloat(5.16+float64(i%4)/100, 'f', 2, 64),
+			"C\t"+strconv.FormatFloat(5.05+float64(i%6)/100, 'f', 2, 64))
+		two = append(two, "A\t"+strconv.FormatFloat(5.10+float64(i%5)/100, 'f', 2, 64),
+			"B\t"+strconv.FormatFloat(5.13+float64(i%3)/100, 'f', 2, 64))
+	}
+	three = append([]string{"Line\tW"}, append(three, "C\t5.61")...)
+	two = append([]string{"Line\tW"}, two...)
+	grouped := Request{Value: "W", Group: "Line"}
 	sets := []struct {
 		name string
 		vals []string
 		opts Options
+		req  Request // the columns, when not one column
 	}{
-		{"symmetric with suspects", sym, Options{Target: f(5.1), LSL: f(4.95), USL: f(5.25), Exclude: []int{3, 999}, PopulationSD: true}},
-		{"skewed", skew, Options{Target: f(2.5), LSL: f(1.9), USL: f(5.5), Confidence: 0.9, CpkGoal: 1.67}},
-		{"lognormal", lognormal, Options{Target: f(5), LSL: f(1.9), USL: f(15)}},
-		{"bimodal", bimodal, Options{LSL: f(4.8), USL: f(6.3), Coverage: 0.95}},
-		{"coarse", coarse, Options{LSL: f(5.0), USL: f(5.4)}},
-		{"five", []string{"5.12", "5.08", "5.10", "5.15", "5.11"}, Options{Target: f(5.1)}},
-		{"near the largest double", []string{"1.7e308", "1.6e308", "1.5e308", "1.7e308"}, Options{LSL: f(1e308)}},
-		{"few, hf1", []string{"5.10", "5.30", "5.20", "5.60", "5.40", "5.50"}, Options{Target: f(5.25), Quantile: "hf1", LSL: f(5.0), USL: f(5.7)}},
-		{"equal", []string{"5.10", "5.10", "5.10", "5.10"}, Options{Target: f(5.1), LSL: f(5.0), USL: f(5.2)}},
-		{"ordered, shifting", shifted, Options{LSL: f(4.9), USL: f(5.4)}},
-		{"ordered, shifting, baseline", shifted, Options{LSL: f(4.9), USL: f(5.4), Baseline: "1-30", Signals: map[string]bool{"alternating": true}}},
+		{"three groups", three, Options{LSL: f(4.95), USL: f(5.35), Confidence: 0.9}, grouped},
+		{"two groups", two, Options{LSL: f(4.95), USL: f(5.35)}, grouped},
+		{"symmetric with suspects", sym, Options{Target: f(5.1), LSL: f(4.95), USL: f(5.25), Exclude: []int{3, 999}, PopulationSD: true}, Request{}},
+		{"skewed", skew, Options{Target: f(2.5), LSL: f(1.9), USL: f(5.5), Confidence: 0.9, CpkGoal: 1.67}, Request{}},
+		{"lognormal", lognormal, Options{Target: f(5), LSL: f(1.9), USL: f(15)}, Request{}},
+		{"bimodal", bimodal, Options{LSL: f(4.8), USL: f(6.3), Coverage: 0.95}, Request{}},
+		{"coarse", coarse, Options{LSL: f(5.0), USL: f(5.4)}, Request{}},
+		{"five", []string{"5.12", "5.08", "5.10", "5.15", "5.11"}, Options{Target: f(5.1)}, Request{}},
+		{"near the largest double", []string{"1.7e308", "1.6e308", "1.5e308", "1.7e308"}, Options{LSL: f(1e308)}, Request{}},
+		{"few, hf1", []string{"5.10", "5.30", "5.20", "5.60", "5.40", "5.50"}, Options{Target: f(5.25), Quantile: "hf1", LSL: f(5.0), USL: f(5.7)}, Request{}},
+		{"equal", []string{"5.10", "5.10", "5.10", "5.10"}, Options{Target: f(5.1), LSL: f(5.0), USL: f(5.2)}, Request{}},
+		{"ordered, shifting", shifted, Options{LSL: f(4.9), USL: f(5.4)}, Request{}},
+		{"ordered, shifting, baseline", shifted, Options{LSL: f(4.9), USL: f(5.4), Baseline: "1-30", Signals: map[string]bool{"alternating": true}}, Request{}},
 	}
-	seenP, seenStatement, seenStability := false, false, false
+	seenP, seenStatement, seenStability, seenGroups := false, false, false, 0
 	for _, set := range sets {
 		text := strings.Join(set.vals, "\n") + "\n"
-		pt, err := Analyze(Request{Text: text, Options: set.opts})
+		req := set.req
+		req.Text, req.Options = text, set.opts
+		pt, err := Analyze(req)
 		if err != nil {
 			t.Fatalf("%s: %v", set.name, err)
 		}
-		cm, err := Analyze(Request{Text: strings.ReplaceAll(text, ".", ","), Options: set.opts})
+		req.Text = strings.ReplaceAll(text, ".", ",")
+		cm, err := Analyze(req)
 		if err != nil {
 			t.Fatalf("%s, comma: %v", set.name, err)
 		}
@@ -199,6 +219,14 @@ func TestSentencesFollowDecimalMark(t *testing.T) {
 			}
 			seenStability = true
 		}
+		if set.req.Group != "" {
+			g := cm.Groups
+			if g == nil || g.Statement == "" || !regexp.MustCompile(`\d,\d`).MatchString(g.Statement) {
+				t.Errorf("%s: groups %+v, want a statement with decimal commas", set.name, g)
+			} else {
+				seenGroups++
+			}
+		}
 		if set.name == "symmetric with suspects" {
 			st := cm.Target.Statement
 			if !regexp.MustCompile(`^The target 5,10+ lies inside the 95% interval for the mean, 5,\d+ to 5,\d+\.`).MatchString(st) {
@@ -210,7 +238,7 @@ func TestSentencesFollowDecimalMark(t *testing.T) {
 			seenStatement = true
 		}
 	}
-	if !seenP || !seenStatement || !seenStability {
-		t.Errorf("no p-value (%v), target statement (%v) or over-time verdict (%v) was checked", seenP, seenStatement, seenStability)
+	if !seenP || !seenStatement || !seenStability || seenGroups != 2 {
+		t.Errorf("no p-value (%v), target statement (%v), over-time verdict (%v) or groups statements (%d of 2) was checked", seenP, seenStatement, seenStability, seenGroups)
 	}
 }

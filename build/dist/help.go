@@ -43,6 +43,8 @@ import (
 //	```lotlens-example
 //	caption: what the data are
 //	target: 5.0          (optional; also lsl, usl, confidence, quantile)
+//	group: Line          (optional: the group column; value: the value column;
+//	                      groups: A, B, C for columns side by side)
 //	show: centre.mean, centre.meanCI
 //	data: 5.02 4.98 5.01 ...   (and/or on the lines below, as pasted)
 //	```
@@ -164,6 +166,12 @@ func ParseExample(body string) (*Example, error) {
 			}
 		case "quantile":
 			ex.Request.Options.Quantile = v
+		case "value":
+			ex.Request.Value = v
+		case "group":
+			ex.Request.Group = v
+		case "groups":
+			ex.Request.Groups = splitList(v)
 		case "show":
 			ex.Show = splitList(v)
 		case "data":
@@ -276,6 +284,12 @@ func renderExample(body string) (string, []string, error) {
 	}
 	if o.Quantile != "" {
 		opts = append(opts, "quantile definition "+o.Quantile)
+	}
+	if g := ex.Request.Group; g != "" {
+		opts = append(opts, "groups from column "+g)
+	}
+	if len(ex.Request.Groups) > 0 {
+		opts = append(opts, "groups side by side: "+strings.Join(ex.Request.Groups, ", "))
 	}
 	if len(opts) > 0 {
 		fmt.Fprintf(&b, "<p class=\"settings\">Settings: %s.</p>\n", html.EscapeString(strings.Join(opts, ", ")))

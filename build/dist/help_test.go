@@ -17,11 +17,12 @@ var helpSlugs = []string{"verdict", "reading-your-report", "data-formats", "priv
 	"mean", "median", "trimmed-mean", "mode", "standard-deviation", "range-iqr", "mad", "cv", "sem", "quantiles",
 	"confidence-intervals", "skewness-kurtosis", "dagostino", "shapiro-wilk", "anderson-darling", "probability-plot",
 	"histogram", "box-plot", "tukey-fences", "adjusted-boxplot", "modified-z", "gesd", "t-test", "wilcoxon",
-	"resolution", "run-chart", "control-charts", "control-constants", "signal-checks", "ewma", "cusum", "drift-tests", "change-point"}
+	"resolution", "run-chart", "control-charts", "control-constants", "signal-checks", "ewma", "cusum", "drift-tests", "change-point",
+	"groups", "anova", "kruskal-wallis", "two-groups", "spread-tests", "pairwise", "letters"}
 
 // general pages explain the tool rather than one method.
 var general = map[string]bool{"index": true, "reading-your-report": true, "data-formats": true, "privacy": true,
-	"sharing": true, "cautions": true, "automation": true, "verdict": true}
+	"sharing": true, "cautions": true, "automation": true, "verdict": true, "groups": true}
 
 // ruleCodes are the outlier rules stats/report.go names for Rule.Code.
 var ruleCodes = []string{"tukey-inner", "tukey-outer", "adjusted-box", "modified-z", "gesd"}
@@ -196,13 +197,16 @@ func TestHelpExamples(t *testing.T) {
 }
 
 func TestParseExample(t *testing.T) {
-	ex, err := ParseExample("caption: c\ntarget: 5\nlsl: 4.5\nusl: 5.5\nconfidence: 0.9\nquantile: hf8\nshow: centre.mean, spread.sd\ndata: 1\n2\n3\n")
+	ex, err := ParseExample("caption: c\ntarget: 5\nlsl: 4.5\nusl: 5.5\nconfidence: 0.9\nquantile: hf8\nvalue: W\ngroup: Line\ngroups: A, B\nshow: centre.mean, spread.sd\ndata: 1\n2\n3\n")
 	if err != nil {
 		t.Fatal(err)
 	}
 	o := ex.Request.Options
 	if *o.Target != 5 || *o.LSL != 4.5 || *o.USL != 5.5 || o.Confidence != 0.9 || o.Quantile != "hf8" {
 		t.Errorf("options %+v", o)
+	}
+	if r := ex.Request; r.Value != "W" || r.Group != "Line" || strings.Join(r.Groups, "|") != "A|B" {
+		t.Errorf("columns %q %q %q", r.Value, r.Group, r.Groups)
 	}
 	if ex.Request.Text != "1\n2\n3" || strings.Join(ex.Show, "|") != "centre.mean|spread.sd" || ex.Caption != "c" {
 		t.Errorf("parsed %+v", ex)

@@ -39,6 +39,7 @@ package ingest
 import (
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 )
 
@@ -163,17 +164,7 @@ func (c *Column) Label(i int) int {
 func (c *Column) LabelNames() []string { return c.labels }
 
 func (c *Column) sparse(i int) (int, bool) {
-	idx := c.spIdx
-	lo, hi := 0, len(idx)
-	for lo < hi {
-		m := int(uint(lo+hi) >> 1)
-		if int(idx[m]) < i {
-			lo = m + 1
-		} else {
-			hi = m
-		}
-	}
-	return lo, lo < len(idx) && int(idx[lo]) == i
+	return slices.BinarySearch(c.spIdx, int32(i))
 }
 
 func (c *Column) keep(i int, b string) {

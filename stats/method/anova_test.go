@@ -3,6 +3,7 @@ package method
 import (
 	"bufio"
 	"errors"
+	"lotlens/stats/internal/rref"
 	"math"
 	"os"
 	"path/filepath"
@@ -98,29 +99,7 @@ func grpMantissa(t testing.TB, v string, scale int) int64 {
 
 func grpLoadRef(t testing.TB) map[string]map[string]float64 {
 	t.Helper()
-	f, err := os.Open(filepath.Join(grpRefDir, "groups.tsv"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	ref := map[string]map[string]float64{}
-	sc := bufio.NewScanner(f)
-	sc.Scan()
-	for sc.Scan() {
-		p := strings.Split(sc.Text(), "\t")
-		if len(p) != 3 {
-			t.Fatalf("bad line %q", sc.Text())
-		}
-		v, err := strconv.ParseFloat(p[2], 64)
-		if err != nil {
-			t.Fatalf("bad value %q", sc.Text())
-		}
-		if ref[p[0]] == nil {
-			ref[p[0]] = map[string]float64{}
-		}
-		ref[p[0]][p[1]] = v
-	}
-	return ref
+	return rref.Load(t, "groups.tsv", 1)
 }
 
 func grpSetNames(sets map[string]*grpSet) []string {

@@ -2,6 +2,7 @@ package method
 
 import (
 	"bufio"
+	"lotlens/stats/internal/rref"
 	"math"
 	"os"
 	"strconv"
@@ -13,29 +14,7 @@ import (
 // testdata/rref/capability.R): set -> statistic -> value.
 func capRef(t testing.TB) map[string]map[string]float64 {
 	t.Helper()
-	f, err := os.Open("../../testdata/rref/capability.tsv")
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	ref := map[string]map[string]float64{}
-	sc := bufio.NewScanner(f)
-	sc.Scan() // header
-	for sc.Scan() {
-		p := strings.Split(sc.Text(), "\t")
-		if len(p) != 3 {
-			t.Fatalf("bad line %q", sc.Text())
-		}
-		v, err := strconv.ParseFloat(p[2], 64)
-		if err != nil {
-			t.Fatal(err)
-		}
-		if ref[p[0]] == nil {
-			ref[p[0]] = map[string]float64{}
-		}
-		ref[p[0]][p[1]] = v
-	}
-	return ref
+	return rref.Load(t, "capability.tsv", 1)
 }
 
 // capData reads the invented data sets of testdata/rref/capability_data.tsv

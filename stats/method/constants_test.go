@@ -1,10 +1,8 @@
 package method
 
 import (
-	"bufio"
+	"lotlens/stats/internal/rref"
 	"math"
-	"os"
-	"path/filepath"
 	"sort"
 	"strconv"
 	"strings"
@@ -15,32 +13,7 @@ import (
 // testdata/rref/control.R with R 4.2.2 (Debian r-base-core).
 func ctlRef(t testing.TB) map[string]map[string]float64 {
 	t.Helper()
-	f, err := os.Open(filepath.Join("..", "..", "testdata", "rref", "control.tsv"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	ref := map[string]map[string]float64{}
-	sc := bufio.NewScanner(f)
-	sc.Scan()
-	for sc.Scan() {
-		p := strings.Split(sc.Text(), "\t")
-		if len(p) != 3 {
-			t.Fatalf("control.tsv: bad line %q", sc.Text())
-		}
-		v, err := strconv.ParseFloat(p[2], 64)
-		if err != nil {
-			t.Fatalf("control.tsv: bad value in %q", sc.Text())
-		}
-		if ref[p[0]] == nil {
-			ref[p[0]] = map[string]float64{}
-		}
-		ref[p[0]][p[1]] = v
-	}
-	if len(ref) < 40 {
-		t.Fatalf("control.tsv holds %d sets", len(ref))
-	}
-	return ref
+	return rref.Load(t, "control.tsv", 40)
 }
 
 // ctlSeries returns the values "prefix:1", "prefix:2", ... of a set.

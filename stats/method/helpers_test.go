@@ -1,7 +1,7 @@
 package method
 
 import (
-	"bufio"
+	"lotlens/stats/internal/rref"
 	"math"
 	"os"
 	"path/filepath"
@@ -15,41 +15,9 @@ import (
 // testdata/rref/methods.R with R 4.2.2 (r-cran-nortest 1.0-4,
 // r-cran-robustbase 0.95-0) from the invented sets in testdata/sets.
 
-// readRefTSV reads a reference table written by the scripts in
-// testdata/rref: a header line, then set<TAB>statistic<TAB>value.
-func readRefTSV(t *testing.T, path string) map[string]map[string]float64 {
-	t.Helper()
-	f, err := os.Open(path)
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	ref := map[string]map[string]float64{}
-	sc := bufio.NewScanner(f)
-	sc.Scan() // header
-	for sc.Scan() {
-		p := strings.Split(sc.Text(), "\t")
-		if len(p) != 3 {
-			t.Fatalf("%s: bad line %q", path, sc.Text())
-		}
-		v, err := strconv.ParseFloat(p[2], 64)
-		if err != nil {
-			t.Fatalf("%s: bad value in %q", path, sc.Text())
-		}
-		if ref[p[0]] == nil {
-			ref[p[0]] = map[string]float64{}
-		}
-		ref[p[0]][p[1]] = v
-	}
-	if err := sc.Err(); err != nil {
-		t.Fatal(err)
-	}
-	return ref
-}
-
 func methodsRef(t *testing.T) map[string]map[string]float64 {
 	t.Helper()
-	ref := readRefTSV(t, filepath.Join("..", "..", "testdata", "rref", "methods.tsv"))
+	ref := rref.Load(t, "methods.tsv", 0)
 	if len(ref) < 24 {
 		t.Fatalf("methods.tsv holds %d sets, want 24", len(ref))
 	}

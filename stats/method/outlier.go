@@ -3,6 +3,7 @@ package method
 import (
 	"math"
 	"math/big"
+	"sort"
 
 	"gonum.org/v1/gonum/stat/distuv"
 
@@ -65,7 +66,7 @@ func MedianAbsDev(sorted []float64, med float64) float64 {
 	if n == 0 {
 		return 0
 	}
-	s := olLowerBound(sorted, med)
+	s := sort.SearchFloat64s(sorted, med)
 	i, j := s-1, s // next deviation from each run
 	next := func() float64 {
 		var d float64
@@ -99,15 +100,7 @@ func MedianAbsDevExact(sorted []float64, g decimal.Grid, med2 int64) *big.Rat {
 		return new(big.Rat)
 	}
 	// first index with 2m >= med2
-	lo, hi := 0, n
-	for lo < hi {
-		h := int(uint(lo+hi) >> 1)
-		if 2*g.M(sorted[h]) < med2 {
-			lo = h + 1
-		} else {
-			hi = h
-		}
-	}
+	lo := sort.Search(n, func(h int) bool { return 2*g.M(sorted[h]) >= med2 })
 	// di, dj: the next deviation of each run (-1 when the run is spent)
 	i, j := lo-1, lo
 	di, dj := int64(-1), int64(-1)
@@ -148,19 +141,6 @@ func MedianAbsDevExact(sorted []float64, g decimal.Grid, med2 int64) *big.Rat {
 		den.Mul(den, big.NewInt(2))
 	}
 	return new(big.Rat).SetFrac(num, den)
-}
-
-func olLowerBound(s []float64, v float64) int {
-	lo, hi := 0, len(s)
-	for lo < hi {
-		h := int(uint(lo+hi) >> 1)
-		if s[h] < v {
-			lo = h + 1
-		} else {
-			hi = h
-		}
-	}
-	return lo
 }
 
 // GESDStep is one step of the generalized ESD procedure: the index (into

@@ -2,6 +2,7 @@ package method
 
 import (
 	"math"
+	"sort"
 )
 
 // SignRankExactMaxN: the exact null distribution of the signed-rank
@@ -35,7 +36,7 @@ type SignedRankResult struct {
 // ok is false when no difference is non-zero.
 func SignedRank(sorted []float64, mu float64) (r SignedRankResult, ok bool) {
 	n := len(sorted)
-	a := olLowerBound(sorted, mu)
+	a := sort.SearchFloat64s(sorted, mu)
 	b := a
 	for b < n && sorted[b] == mu {
 		b++

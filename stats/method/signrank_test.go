@@ -4,6 +4,7 @@ import (
 	"math"
 	"math/rand/v2"
 	"slices"
+	"sort"
 	"testing"
 )
 
@@ -17,7 +18,7 @@ func TestWalshSelectionMatchesSort(t *testing.T) {
 			x := randomSample(rng, kind, n)
 			slices.Sort(x)
 			mu := x[len(x)/2] // some values equal the target
-			a := olLowerBound(x, mu)
+			a := sort.SearchFloat64s(x, mu)
 			b := a
 			for b < len(x) && x[b] == mu {
 				b++

@@ -1,0 +1,72 @@
+// Package rref reads the reference tables the tests check against: the
+// files testdata/rref/*.tsv written by the committed scripts beside them
+// (R 4.2.2, Python fractions), each a header line then
+// set<TAB>statistic<TAB>value. One reader for every package's tests.
+package rref
+
+import (
+	"bufio"
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"testing"
+)
+
+// Path returns the path of testdata/rref/name from the working directory of
+// a test anywhere in the module (the directory holding go.mod is searched
+// upwards).
+func Path(tb testing.TB, name string) string {
+	tb.Helper()
+	dir, err := os.Getwd()
+	if err != nil {
+		tb.Fatal(err)
+	}
+	for {
+		if _, err := os.Stat(filepath.Join(dir, "go.mod")); err == nil {
+			return filepath.Join(dir, "testdata", "rref", name)
+		}
+		up := filepath.Dir(dir)
+		if up == dir {
+			tb.Fatalf("no go.mod above the test's directory: cannot find testdata/rref/%s", name)
+		}
+		dir = up
+	}
+}
+
+// Load reads testdata/rref/name: set -> statistic -> value. It fails the
+// test on a missing file, a malformed line or fewer than minSets sets.
+func Load(tb testing.TB, name string, minSets int) map[string]map[string]float64 {
+	tb.Helper()
+	path := Path(tb, name)
+	f, err := os.Open(path)
+	if err != nil {
+		tb.Fatal(err)
+	}
+	defer f.Close()
+	ref := map[string]map[string]float64{}
+	sc := bufio.NewScanner(f)
+	sc.Buffer(make([]byte, 1<<16), 1<<24)
+	sc.Scan() // header
+	for sc.Scan() {
+		p := strings.Split(sc.Text(), "\t")
+		if len(p) != 3 {
+			tb.Fatalf("%s: bad line %q", name, sc.Text())
+		}
+		v, err := strconv.ParseFloat(p[2], 64)
+		if err != nil {
+			tb.Fatalf("%s: bad value in %q", name, sc.Text())
+		}
+		if ref[p[0]] == nil {
+			ref[p[0]] = map[string]float64{}
+		}
+		ref[p[0]][p[1]] = v
+	}
+	if err := sc.Err(); err != nil {
+		tb.Fatal(err)
+	}
+	if len(ref) < minSets {
+		tb.Fatalf("%s holds %d sets, want at least %d", name, len(ref), minSets)
+	}
+	return ref
+}
