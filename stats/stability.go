@@ -241,7 +241,13 @@ type CUSUMPt struct {
 type DriftInfo struct {
 	Readings int `json:"readings"`
 	// Exact: ties and sides were decided on the decimals as typed.
-	Exact           bool          `json:"exact"`
+	Exact bool `json:"exact"`
+	// Blocks and BlockSize: above driftMax readings the runs test, the
+	// trend test, Sen's slope and the change point use the means of Blocks
+	// blocks of BlockSize consecutive readings (the last readings, fewer
+	// than BlockSize, in none); 0 when they use every reading.
+	Blocks          int           `json:"blocks,omitempty"`
+	BlockSize       int           `json:"blockSize,omitempty"`
 	Autocorrelation *AutocorrInfo `json:"autocorrelation,omitempty"`
 	Runs            *RunsInfo     `json:"runs,omitempty"`
 	Trend           *TrendInfo    `json:"trend,omitempty"`
@@ -339,10 +345,16 @@ const (
 	gapFactor = 5
 	// senMax: Sen's slope forms every pairwise slope; above this many
 	// readings (stats/method limits it to 2000) it is computed from every
-	// k-th reading, k chosen so that at most senSub readings remain (the
-	// sorting of their half million slopes stays quick).
+	// k-th reading (or block mean), k chosen so that at most senSub remain
+	// (the sorting of their 45,000 slopes takes a few milliseconds).
 	senMax = 2000
-	senSub = 1000
+	senSub = 300
+	// driftMax: above this many readings the runs test, Mann-Kendall,
+	// Sen's slope and the change point run on the means of blocks of
+	// ceil(n/driftMax) consecutive readings (at most driftMax blocks), so
+	// the section stays quick on a million readings; the autocorrelation,
+	// the charts, their checks, EWMA and CUSUM use every reading.
+	driftMax = 100_000
 	// maxSignalsListed and maxSignalRows bound the listing; the checks
 	// count every signal.
 	maxSignalsListed = 200
@@ -456,20 +468,6 @@ func orDefault(v, d float64) float64 {
 	return v
 }
 
-// stabPoint is one plotted reading or subgroup while the section is built.
-// It is kept small (one per reading on long series): a subgroup's label is
-// ws.labels at its index, and the signal codes of a point are in
-// stabBuild.flags.
-type stabPoint struct {
-	y, s, t    float64
-	row        int32
-	n          int32
-	used       int32 // index into the judged series, -1 for a reading left out
-	hasS, hasT bool
-	leftOut    bool
-	outside    bool
-}
-
 // buildStability fills the "Over time" section from the used readings in
 // time order (ws, from estimateWithin, shared with the spec section) and
 // the subgroup column (cv.subgroup; nil for individual readings). smp is
@@ -490,6 +488,9 @@ func buildStability(w words, cv *colView, ws *withinSigma, smp *sample, opts Opt
 
 	// the readings left out by the user, listed
 	for i := range cv.inOrder() {
+		if len(cv.excludedByUser) == 0 {
+			break
+		}
 		x := cv.vals[i]
 		if x == x && !math.IsInf(x, 0) && cv.excludedByUser[cv.rows[i]] && len(st.LeftOut) < maxLeftOutListed {
 			st.LeftOut = append(st.LeftOut, Reading{Row: int(cv.rows[i]), Column: cv.name, Text: cv.text(i), Value: x})
@@ -548,15 +549,53 @@ type stabBuild struct {
 	exact bool
 	notes []Note
 
-	pts      []stabPoint
-	flags    map[int][]string // signal codes by plotted position
-	judged   []float64        // the judged points (readings or means) in order
-	posOf    []int            // plotted position (0-based) of each judged point
+	// The plotted points are the judged points (readings, or subgroup
+	// means) and, for individuals, the readings left out, in time order;
+	// nothing is kept per reading beyond the shared series (ws): a point's
+	// figures are computed when it is drawn or listed.
 	subgroup bool
-	signals  []method.Signal
-	spreadSg []int // judged indices with a spread beyond its limits
-	ewma     *method.EWMAChart
-	cusum    *method.CUSUMChart
+	judged   []float64 // the judged points in order
+	nPlot    int       // plotted points
+	// individuals: the readings left out, by cell, with their plotted
+	// positions (ascending)
+	leftCell []int32
+	leftPos  []int32
+	// subgroups: the spread (range or SD) of each, and its marks
+	gSpread     []float64
+	gLeft, gOut []bool
+	signals     []stabSig
+	keep        []int32 // plotted positions drawn (ascending); nil: all
+	extra       []int32 // positions of EWMA and CUSUM alarms drawn too
+	flagged     int     // points of signals chosen for drawing
+}
+
+// stabSig is one signal while the section is built: the judged points
+// First..Last, or the listed Points.
+type stabSig struct {
+	code, chart string
+	side        int
+	first, last int
+	points      []int
+}
+
+func (g stabSig) count() int {
+	if g.points != nil {
+		return len(g.points)
+	}
+	return g.last - g.first + 1
+}
+
+// each calls f for the first up to limit points of the signal.
+func (g stabSig) each(limit int, f func(j int)) {
+	if g.points != nil {
+		for _, j := range g.points[:min(limit, len(g.points))] {
+			f(j)
+		}
+		return
+	}
+	for j := g.first; j <= g.last && j-g.first < limit; j++ {
+		f(j)
+	}
 }
 
 func allSingles(groups [][]float64) bool {
@@ -627,61 +666,73 @@ func (b *stabBuild) diff(j, k int) float64 {
 	return math.Abs(x - y)
 }
 
+// posOf is the plotted position (0-based) of judged point j.
+func (b *stabBuild) posOf(j int) int {
+	if b.subgroup || len(b.leftPos) == 0 {
+		return j
+	}
+	// left-out readings plotted before j: those with fewer than j+1
+	// judged readings before them, i.e. leftPos[i] - i <= j
+	return j + sort.Search(len(b.leftPos), func(i int) bool { return int(b.leftPos[i])-i > j })
+}
+
+// atPos says what is plotted at position p: judged point j (left < 0) or
+// the left-out reading left (j < 0).
+func (b *stabBuild) atPos(p int) (j, left int) {
+	if b.subgroup || len(b.leftPos) == 0 {
+		return p, -1
+	}
+	i, found := slices.BinarySearch(b.leftPos, int32(p))
+	if found {
+		return -1, i
+	}
+	return p - i, -1
+}
+
 // individuals builds the individuals and moving range chart.
 func (b *stabBuild) individuals(settings method.SignalSettings) error {
 	cv, ws, st := b.cv, b.ws, b.st
-	// plotted points: every finite reading in time order, left-out ones too
-	k := 0
-	for i := range cv.inOrder() {
-		x := cv.vals[i]
-		if x != x || math.IsInf(x, 0) {
-			continue
+	n := len(ws.series)
+	// readings left out stay on the chart: their cells and positions
+	if len(cv.excludedByUser) > 0 {
+		k := 0
+		for i := range cv.inOrder() {
+			x := cv.vals[i]
+			if x != x || math.IsInf(x, 0) {
+				continue
+			}
+			if cv.excludedByUser[cv.rows[i]] {
+				b.leftPos = append(b.leftPos, int32(k+len(b.leftCell)))
+				b.leftCell = append(b.leftCell, int32(i))
+			} else {
+				k++
+			}
 		}
-		p := stabPoint{row: cv.rows[i], y: x, used: -1}
-		if b.pts == nil {
-			b.pts = make([]stabPoint, 0, len(ws.series)+len(cv.excludedByUser))
-			b.posOf = make([]int, 0, len(ws.series))
-		}
-		if t, ok := orderKey(cv, i); ok {
-			p.t, p.hasT = t, true
-		}
-		if cv.excludedByUser[cv.rows[i]] {
-			p.leftOut = true
-		} else {
-			p.used = int32(k)
-			p.outside = !b.inBase(p.row)
-			b.posOf = append(b.posOf, len(b.pts))
-			k++
-		}
-		b.pts = append(b.pts, p)
 	}
+	b.nPlot = n + len(b.leftCell)
 	b.judged = ws.series
 	var base []int
 	if b.opts.Baseline != "" {
-		for j, pos := range b.posOf {
-			if !b.pts[pos].outside {
+		for j := range n {
+			if b.inBase(cv.rows[ws.cell(j)]) {
 				base = append(base, j)
 			}
 		}
 		if len(base) < 2 {
-			return fmt.Errorf("the baseline rows %q hold %d of the readings used: the limits need at least 2 in a row", b.opts.Baseline, len(base))
+			return errors.New(b.w.stabBaselineFew(b.opts.Baseline, len(base)))
 		}
 	}
 	// without a baseline the limits rest on the shared estimate (the same
 	// computation as method.Individuals, which is run only for a baseline)
 	est := ws.est
+	centre := b.mean(nil)
 	if base != nil {
 		ch, err := method.Individuals(ws.series, method.IndividualsOptions{Median: ws.method == WithinMedianMovingRange, Baseline: base})
 		if err != nil {
 			return err
 		}
 		est = ch.Sigma
-	}
-	var centre float64
-	if base == nil {
-		centre = b.mean(nil)
-	} else {
-		keep := make([]bool, len(ws.series))
+		keep := make([]bool, n)
 		for _, j := range base {
 			keep[j] = true
 		}
@@ -689,30 +740,38 @@ func (b *stabBuild) individuals(settings method.SignalSettings) error {
 	}
 	sigma := est.Sigma
 	if !(sigma > 0) {
-		return errors.New("the baseline readings do not vary: no limits can be set from them")
+		return errors.New(b.w.stabBaselineFlat(false))
 	}
 	c2 := roundedConstants(2)
 	st.Chart = &ControlChart{Kind: "individuals", KindRule: b.w.stabRuleIndividuals(), Spread: "moving-range",
 		Centre: centre, Sigma: sigma, SigmaMethod: ws.method, SigmaDF: est.DF, SigmaShared: base == nil, Width: 3}
-	lim := CtlLimits{From: 1, To: len(b.pts), Lower: centre - 3*sigma, Upper: centre + 3*sigma,
+	lim := CtlLimits{From: 1, To: b.nPlot, Lower: centre - 3*sigma, Upper: centre + 3*sigma,
 		SpreadCentre: c2.SmallD2 * sigma, SpreadLower: math.Max(0, c2.SmallD2-3*c2.SmallD3) * sigma, SpreadUpper: (c2.SmallD2 + 3*c2.SmallD3) * sigma}
 	st.Chart.Limits = []CtlLimits{lim}
-	// moving ranges between consecutive used readings, at the second
-	for j := 1; j < len(ws.series); j++ {
-		p := &b.pts[b.posOf[j]]
-		p.s, p.hasS = b.diff(j, j-1), true
-		if b.on[method.SignalBeyondLimits] && p.s > lim.SpreadUpper {
-			b.spreadSg = append(b.spreadSg, j)
-		}
-	}
-	var err error
-	b.signals, err = method.Signals(ws.series, centre, []float64{sigma}, settings)
+	sigs, err := method.Signals(ws.series, centre, []float64{sigma}, settings)
 	if err != nil {
 		return err
 	}
-	b.baselineInfo(base, len(ws.series))
+	b.addMethodSignals(sigs)
+	// moving ranges between consecutive used readings, judged by their
+	// upper limit (a moving range is made by two readings)
+	if b.on[method.SignalBeyondLimits] {
+		for j := 1; j < n; j++ {
+			if math.Abs(ws.series[j]-ws.series[j-1]) > lim.SpreadUpper*(1-1e-12) && b.diff(j, j-1) > lim.SpreadUpper {
+				b.signals = append(b.signals, stabSig{code: SignalSpreadBeyond, chart: "spread", first: j - 1, last: j})
+			}
+		}
+	}
+	b.baselineInfo(base, n)
 	b.ewmaCusum(ws.series, centre, sigma, "data")
 	return nil
+}
+
+// addMethodSignals keeps the method's signals of the values chart.
+func (b *stabBuild) addMethodSignals(sigs []method.Signal) {
+	for _, s := range sigs {
+		b.signals = append(b.signals, stabSig{code: s.Rule, chart: "values", side: s.Side, first: s.First, last: s.Last, points: s.Points})
+	}
 }
 
 // subgroups builds the mean chart with its range or SD chart.
@@ -720,6 +779,7 @@ func (b *stabBuild) subgroups(settings method.SignalSettings) error {
 	cv, ws, st := b.cv, b.ws, b.st
 	b.subgroup = true
 	k := len(ws.groups)
+	b.nPlot = k
 	maxn := 0
 	for _, g := range ws.groups {
 		maxn = max(maxn, len(g))
@@ -733,36 +793,32 @@ func (b *stabBuild) subgroups(settings method.SignalSettings) error {
 		}
 		rule = b.w.stabRuleAuto(maxn)
 	}
-	// the subgroup of each used reading, for the baseline and left-out marks
+	// the subgroups wholly in the baseline, and those holding a reading
+	// the user left out
 	var base []int
+	b.gOut = make([]bool, k)
 	for g := range k {
-		p := stabPoint{row: cv.rows[ws.gcells[g][0]], n: int32(len(ws.groups[g])), used: int32(g)}
-		if t, ok := orderKey(cv, int(ws.gcells[g][0])); ok {
-			p.t, p.hasT = t, true
-		}
 		inAll := true
 		for _, c := range ws.gcells[g] {
 			if !b.inBase(cv.rows[c]) {
 				inAll = false
 			}
 		}
-		p.outside = !inAll
+		b.gOut[g] = !inAll
 		if inAll {
 			base = append(base, g)
 		}
-		b.posOf = append(b.posOf, g)
-		b.pts = append(b.pts, p)
 	}
-	// readings left out by the user: mark their subgroup
-	if len(cv.excludedByUser) > 0 && b.cv.subgroup != nil {
+	if len(cv.excludedByUser) > 0 && cv.subgroup != nil {
+		b.gLeft = make([]bool, k)
 		idx := map[string]int{}
 		for g, l := range ws.labels {
 			idx[l] = g
 		}
 		for i := range cv.inOrder() {
-			if cv.excludedByUser[cv.rows[i]] && !partnerMissing(b.cv.subgroup, i) {
-				if g, ok := idx[b.cv.subgroup.Text(i)]; ok {
-					b.pts[g].leftOut = true
+			if cv.excludedByUser[cv.rows[i]] && !partnerMissing(cv.subgroup, i) {
+				if g, ok := idx[cv.subgroup.Text(i)]; ok {
+					b.gLeft[g] = true
 				}
 			}
 		}
@@ -770,7 +826,7 @@ func (b *stabBuild) subgroups(settings method.SignalSettings) error {
 	if b.opts.Baseline == "" {
 		base = nil
 	} else if len(base) == 0 {
-		return fmt.Errorf("no subgroup lies wholly in the baseline rows %q: the limits need at least one", b.opts.Baseline)
+		return errors.New(b.w.stabBaselineNoSubgroup(b.opts.Baseline))
 	}
 	sigma, df := ws.est.Sigma, ws.est.DF
 	if base != nil {
@@ -785,17 +841,17 @@ func (b *stabBuild) subgroups(settings method.SignalSettings) error {
 		sigma, df = est.Sigma, est.DF
 	}
 	if !(sigma > 0) {
-		return errors.New("the readings do not vary within the baseline subgroups: no limits can be set from them")
+		return errors.New(b.w.stabBaselineFlat(true))
 	}
 	// centre: the grand mean of the baseline readings, exact when typed as decimals
-	var centre float64
-	{
+	centre := b.mean(nil)
+	if base != nil {
 		member := make([]bool, len(ws.series))
 		pos := map[int32]int{}
-		for kk, c := range ws.cells {
-			pos[c] = kk
+		for kk := range ws.series {
+			pos[ws.cell(kk)] = kk
 		}
-		for _, g := range baseOrAll(base, k) {
+		for _, g := range base {
 			for _, c := range ws.gcells[g] {
 				member[pos[c]] = true
 			}
@@ -807,7 +863,9 @@ func (b *stabBuild) subgroups(settings method.SignalSettings) error {
 	means := make([]float64, k)
 	sig := make([]float64, k)
 	z := make([]float64, k)
+	b.gSpread = make([]float64, k)
 	equal := true
+	var spreadOut []int
 	for g, grp := range ws.groups {
 		n := len(grp)
 		if n != len(ws.groups[0]) {
@@ -817,16 +875,15 @@ func (b *stabBuild) subgroups(settings method.SignalSettings) error {
 		means[g] = mean
 		sig[g] = sigma / math.Sqrt(float64(n))
 		z[g] = (mean - centre) / sig[g]
-		b.pts[g].y = mean
 		lim := subgroupLimits(n, centre, sigma, spread)
 		if n >= 2 {
 			v := r
 			if spread == "sd" {
 				v = sd
 			}
-			b.pts[g].s, b.pts[g].hasS = v, true
+			b.gSpread[g] = v
 			if b.on[method.SignalBeyondLimits] && (v > lim.SpreadUpper || v < lim.SpreadLower) {
-				b.spreadSg = append(b.spreadSg, g)
+				spreadOut = append(spreadOut, g)
 			}
 		}
 		if last := len(st.Chart.Limits) - 1; last >= 0 && sameLimits(st.Chart.Limits[last], lim) {
@@ -837,10 +894,13 @@ func (b *stabBuild) subgroups(settings method.SignalSettings) error {
 		}
 	}
 	b.judged = means
-	var err error
-	b.signals, err = method.Signals(means, centre, sig, settings)
+	sigs, err := method.Signals(means, centre, sig, settings)
 	if err != nil {
 		return err
+	}
+	b.addMethodSignals(sigs)
+	for _, g := range spreadOut {
+		b.signals = append(b.signals, stabSig{code: SignalSpreadBeyond, chart: "spread", first: g, last: g})
 	}
 	b.baselineInfo(base, k)
 	if equal {
@@ -849,17 +909,6 @@ func (b *stabBuild) subgroups(settings method.SignalSettings) error {
 		b.ewmaCusum(z, 0, 1, "standardized")
 	}
 	return nil
-}
-
-func baseOrAll(base []int, k int) []int {
-	if base != nil {
-		return base
-	}
-	out := make([]int, k)
-	for i := range out {
-		out[i] = i
-	}
-	return out
 }
 
 func sameLimits(a, b CtlLimits) bool {
@@ -917,29 +966,141 @@ func (b *stabBuild) baselineInfo(base []int, total int) {
 	if b.opts.Baseline == "" {
 		return
 	}
-	first, last := b.posOf[base[0]]+1, b.posOf[base[len(base)-1]]+1
+	first, last := b.posOf(base[0])+1, b.posOf(base[len(base)-1])+1
 	b.st.Baseline = &BaselineInfo{Rows: b.opts.Baseline, Points: len(base), First: first, Last: last,
 		Text: b.w.stabBaseline(len(base), total, first, last, b.subgroup)}
 }
 
-// ewmaCusum adds the EWMA and CUSUM charts of the judged points.
+// ewmaCusum runs the EWMA and CUSUM on the judged points x, once each:
+// their alarms become signals (a run of points beyond, for the CUSUM from
+// the point after its sum last left zero), and the values are kept only
+// for the points drawn: those thin chose from the values chart, and the
+// points of the alarms themselves (a long run by its ends).
 func (b *stabBuild) ewmaCusum(x []float64, centre, sigma float64, scale string) {
 	lam, L := orDefault(b.opts.EWMALambda, defaultLambda), orDefault(b.opts.EWMAL, defaultL)
 	k, h := orDefault(b.opts.CUSUMK, defaultK), orDefault(b.opts.CUSUMH, defaultH)
-	if e, err := method.EWMA(x, centre, sigma, lam, L); err == nil {
-		info := &EWMAInfo{Lambda: lam, L: L, Scale: scale, Centre: centre, Sigma: sigma, Beyond: len(e.Beyond), Points: []EWMAPt{}}
-		info.ARL0 = cachedARL("ewma", lam, L, 0)
-		info.ARL1 = cachedARL("ewma", lam, L, 1)
-		b.st.EWMA = info
-		b.ewma = &e
+	b.thin(maxChartPoints)
+	var keepJ []int // judged points drawn, ascending (nil: all)
+	if b.keep != nil {
+		for _, p := range b.keep {
+			if j, _ := b.atPos(int(p)); j >= 0 {
+				keepJ = append(keepJ, j)
+			}
+		}
 	}
-	if c, err := method.CUSUM(x, centre, sigma, k, h); err == nil {
-		info := &CUSUMInfo{K: k, H: h, Scale: scale, Centre: centre, Sigma: sigma, Decision: c.Decision, Beyond: len(c.Beyond), Points: []CUSUMPt{}}
-		info.ARL0 = cachedARL("cusum", k, h, 0)
-		info.ARL1 = cachedARL("cusum", k, h, 1)
-		b.st.CUSUM = info
-		b.cusum = &c
+	// alarms: a run open while start >= 0; its first points (up to
+	// maxSignalRows + 1) wait in buf, its last in last
+	type alarm struct {
+		j    int
+		a, b float64 // z, or the upper and lower sums
 	}
+	var runs struct {
+		start, side int
+		buf         []alarm
+		last        alarm
+	}
+	// record adds a drawn point and closes runs; add adds an alarm's
+	// points to the drawing
+	scan := func(on bool, code, chart string, out func(j int, v alarm)) func(j int, v alarm, beyond bool, side, start int) {
+		next := 0 // into keepJ
+		runs.start = -1
+		closeRun := func(lastJ int) {
+			if on {
+				b.signals = append(b.signals, stabSig{code: code, chart: chart, side: runs.side, first: runs.start, last: lastJ})
+			}
+			if b.keep != nil && b.flagged < maxChartPoints {
+				pts := runs.buf
+				if lastJ-runs.start+1 > maxSignalRows {
+					pts = []alarm{runs.buf[0], runs.last}
+				}
+				for _, v := range pts {
+					out(v.j, v)
+					b.extra = append(b.extra, int32(b.posOf(v.j)))
+				}
+				b.flagged += len(pts)
+			}
+			runs.start, runs.buf = -1, runs.buf[:0]
+		}
+		return func(j int, v alarm, beyond bool, side, start int) {
+			if keepJ == nil && b.keep == nil {
+				out(j, v)
+			} else {
+				for next < len(keepJ) && keepJ[next] < j {
+					next++
+				}
+				if next < len(keepJ) && keepJ[next] == j {
+					out(j, v)
+				}
+			}
+			if beyond {
+				if runs.start < 0 {
+					runs.start, runs.side = start, side
+				}
+				if len(runs.buf) <= maxSignalRows {
+					runs.buf = append(runs.buf, v)
+				}
+				runs.last = v
+			}
+			if runs.start >= 0 && (!beyond || j == len(x)-1) {
+				lastJ := j - 1
+				if beyond {
+					lastJ = j
+				}
+				closeRun(lastJ)
+			}
+		}
+	}
+	var ewma []EWMAPt
+	lims := method.EWMAChart{Lambda: lam, L: L, Centre: centre, Sigma: sigma}
+	beyond := 0
+	step := scan(b.on[SignalEWMA], SignalEWMA, "ewma", func(j int, v alarm) {
+		lo, hi := lims.Limits(j)
+		ewma = append(ewma, EWMAPt{I: b.posOf(j) + 1, Z: v.a, Lo: lo, Hi: hi})
+	})
+	err := method.EWMAScan(x, centre, sigma, lam, L, func(j int, z float64, out bool) {
+		side := 1
+		if z < centre {
+			side = -1
+		}
+		if out {
+			beyond++
+		}
+		step(j, alarm{j: j, a: z}, out, side, j)
+	})
+	if err == nil {
+		b.st.EWMA = &EWMAInfo{Lambda: lam, L: L, Scale: scale, Centre: centre, Sigma: sigma, Beyond: beyond, Points: sortedPts(ewma, func(p EWMAPt) int { return p.I }),
+			ARL0: cachedARL("ewma", lam, L, 0), ARL1: cachedARL("ewma", lam, L, 1)}
+	}
+	var cusum []CUSUMPt
+	beyond = 0
+	decision := h * sigma
+	step = scan(b.on[SignalCUSUM], SignalCUSUM, "cusum", func(j int, v alarm) {
+		cusum = append(cusum, CUSUMPt{I: b.posOf(j) + 1, Up: v.a, Down: v.b})
+	})
+	err = method.CUSUMScan(x, centre, sigma, k, h, func(j int, up, lo float64, nu, nl int32, out bool) {
+		// the shift began about the point after the sum was last zero
+		side, start := 1, j-int(nu)+1
+		if up <= decision {
+			side, start = -1, j-int(nl)+1
+		}
+		if out {
+			beyond++
+		}
+		step(j, alarm{j: j, a: up, b: lo}, out, side, max(0, start))
+	})
+	if err == nil {
+		b.st.CUSUM = &CUSUMInfo{K: k, H: h, Scale: scale, Centre: centre, Sigma: sigma, Decision: decision, Beyond: beyond, Points: sortedPts(cusum, func(p CUSUMPt) int { return p.I }),
+			ARL0: cachedARL("cusum", k, h, 0), ARL1: cachedARL("cusum", k, h, 1)}
+	}
+}
+
+// sortedPts orders points by position, one per position.
+func sortedPts[P any](pts []P, at func(P) int) []P {
+	if pts == nil {
+		return []P{}
+	}
+	slices.SortStableFunc(pts, func(a, b P) int { return at(a) - at(b) })
+	return slices.CompactFunc(pts, func(a, b P) bool { return at(a) == at(b) })
 }
 
 // orderKey returns the order column's key of cell i.
@@ -1008,20 +1169,15 @@ func quickMedian(s []float64) float64 {
 }
 
 // drift runs the drift tests and the change point on the readings in
-// time order.
+// time order: every reading up to driftMax, above that the means of
+// blocks of consecutive readings (block sums on the decimals as typed, so
+// ties and order among them stay exact). The ranks are computed once and
+// shared by the runs test, Mann-Kendall and Pettitt.
 func (b *stabBuild) drift() {
 	ws := b.ws
 	n := len(ws.series)
 	d := &DriftInfo{Readings: n, Exact: b.exact}
-	unit := 1.0
-	var mant []int64
-	if b.exact {
-		unit = b.grid.Float(1)
-		mant = make([]int64, n)
-		for k, x := range ws.series {
-			mant[k] = b.grid.M(x)
-		}
-	} else {
+	if !b.exact {
 		b.notes = append(b.notes, Note{Field: "stability.drift", Text: b.w.stabNotExact()})
 	}
 	if a, err := method.Lag1Autocorrelation(ws.series); err == nil {
@@ -1029,78 +1185,114 @@ func (b *stabBuild) drift() {
 	} else {
 		b.notes = append(b.notes, Note{Field: "stability.drift.autocorrelation", Text: b.w.stabTestFailed("lag-1 autocorrelation", err)})
 	}
-	var rt method.RunsTest
-	var mk method.MannKendall
-	var cp method.ChangePoint
-	var errR, errM, errC error
-	if b.exact {
-		rt, errR = method.RunsAboutMedian(mant)
-		mk, errM = method.MannKendallTest(mant)
-		cp, errC = method.PettittChange(mant)
-	} else {
-		rt, errR = method.RunsAboutMedian(ws.series)
-		mk, errM = method.MannKendallTest(ws.series)
-		cp, errC = method.PettittChange(ws.series)
+	size := 1
+	if n > driftMax {
+		size = (n + driftMax - 1) / driftMax
 	}
-	if errR == nil {
-		med := rt.Median * unit
-		if b.exact {
-			// the middle of two mantissas, correctly rounded
-			med = decimal.Float64(new(big.Rat).SetFrac(big.NewInt(int64(rt.Median*2)), new(big.Int).Mul(big.NewInt(2), b.grid.Denom())))
+	blocks := n / size
+	if size > 1 {
+		d.BlockSize, d.Blocks = size, blocks
+		b.notes = append(b.notes, Note{Field: "stability.drift", Text: b.w.stabDriftBlocks(n, driftMax, size, blocks)})
+	}
+	// keys: mantissas (or their block sums) on the exact path, else the
+	// readings (or block means); toValue turns a key into a data value
+	if b.exact && size < 1024 { // block sums below 2^61
+		keys := make([]int64, blocks)
+		for k := range keys {
+			var sum int64
+			for _, x := range ws.series[k*size : (k+1)*size] {
+				sum += b.grid.M(x)
+			}
+			keys[k] = sum
 		}
-		d.Runs = &RunsInfo{Median: med, Above: rt.Above, Below: rt.Below, OnMedian: rt.OnMedian, Runs: rt.Runs,
-			Expected: rt.Expected, Z: rt.Z, P: rt.P, Exact: rt.Exact, Longest: rt.Longest, LongestSide: rt.LongestSide,
-			LongestFirst: int(b.cv.rows[ws.cells[rt.LongestFirst]]), LongestLast: int(b.cv.rows[ws.cells[rt.LongestLast]])}
-	} else {
-		b.notes = append(b.notes, Note{Field: "stability.drift.runs", Text: b.w.stabTestFailed("runs test", errR)})
+		driftOn(b, d, keys, b.grid.Float(1)/float64(size), size)
+		return
 	}
-	if errM == nil {
+	d.Exact = false
+	keys := ws.series
+	if size > 1 {
+		keys = make([]float64, blocks)
+		for k := range keys {
+			sum := 0.0
+			for _, x := range ws.series[k*size : (k+1)*size] {
+				sum += x
+			}
+			keys[k] = sum / float64(size)
+		}
+	}
+	driftOn(b, d, keys, 1, size)
+}
+
+// driftOn runs the rank tests and Sen's slope on keys (one a block of size
+// readings; a key times toValue is the block's mean) and fills d.
+func driftOn[T int64 | float64](b *stabBuild, d *DriftInfo, keys []T, toValue float64, size int) {
+	ws, cv := b.ws, b.cv
+	row := func(j int) int { return int(cv.rows[ws.cell(j)]) }
+	// value of a key median (a half-integer of keys on the exact path)
+	value := func(m float64) float64 {
+		if _, ok := any(keys).([]int64); ok {
+			return decimal.Float64(new(big.Rat).SetFrac(big.NewInt(int64(m*2)), new(big.Int).Mul(big.NewInt(int64(2*size)), b.grid.Denom())))
+		}
+		return m * toValue
+	}
+	ranks, err := method.RankSeries(keys)
+	if err != nil {
+		b.notes = append(b.notes, Note{Field: "stability.drift", Text: b.w.stabTestFailed("drift tests", err)})
+		b.st.Drift = d
+		return
+	}
+	if rt, err := method.RunsRanked(ranks); err == nil {
+		d.Runs = &RunsInfo{Median: value(rt.Median), Above: rt.Above, Below: rt.Below, OnMedian: rt.OnMedian, Runs: rt.Runs,
+			Expected: rt.Expected, Z: rt.Z, P: rt.P, Exact: rt.Exact, Longest: rt.Longest, LongestSide: rt.LongestSide,
+			LongestFirst: row(rt.LongestFirst * size), LongestLast: row(rt.LongestLast*size + size - 1)}
+	} else {
+		b.notes = append(b.notes, Note{Field: "stability.drift.runs", Text: b.w.stabTestFailed("runs test", err)})
+	}
+	if mk, err := method.MannKendallRanked(ranks); err == nil {
 		d.Trend = &TrendInfo{S: mk.S, VarS: mk.VarS, Z: mk.Z, P: mk.P, Tau: mk.Tau, TieGroups: mk.TieGroups}
 	} else {
-		b.notes = append(b.notes, Note{Field: "stability.drift.trend", Text: b.w.stabTestFailed("Mann-Kendall trend test", errM)})
+		b.notes = append(b.notes, Note{Field: "stability.drift.trend", Text: b.w.stabTestFailed("Mann-Kendall trend test", err)})
 	}
+	m := len(keys)
 	every := 1
-	if n > senMax {
-		every = (n + senSub - 1) / senSub
+	if m > senMax {
+		every = (m + senSub - 1) / senSub
 	}
-	var sen method.SenSlope
-	var errS error
-	if b.exact {
-		sen, errS = method.SenSlopeEstimate(everyKth(mant, every), b.opts.Confidence)
-	} else {
-		sen, errS = method.SenSlopeEstimate(everyKth(ws.series, every), b.opts.Confidence)
-	}
-	if errS == nil {
-		f := unit / float64(every)
-		d.Slope = &SlopeInfo{Slope: sen.Slope * f, Lower: sen.Lower * f, Upper: sen.Upper * f, Confidence: sen.Confidence,
-			Intercept: sen.Intercept * unit, Every: every, Used: sen.N}
-		if every > 1 {
-			b.notes = append(b.notes, Note{Field: "stability.drift.slope", Text: b.w.stabSenThinned(n, every, sen.N)})
+	if sen, err := method.SenSlopeEstimate(everyKth(keys, every), b.opts.Confidence); err == nil {
+		// a key step is every·size readings
+		f := toValue / float64(every*size)
+		slope := sen.Slope * f
+		d.Slope = &SlopeInfo{Slope: slope, Lower: sen.Lower * f, Upper: sen.Upper * f, Confidence: sen.Confidence,
+			Intercept: sen.Intercept*toValue - slope*float64(size-1)/2, Every: every * size, Used: sen.N}
+		if every*size > 1 {
+			b.notes = append(b.notes, Note{Field: "stability.drift.slope", Text: b.w.stabSenThinned(m, every, sen.N)})
 		}
 	} else {
-		b.notes = append(b.notes, Note{Field: "stability.drift.slope", Text: b.w.stabTestFailed("Sen's slope", errS)})
+		b.notes = append(b.notes, Note{Field: "stability.drift.slope", Text: b.w.stabTestFailed("Sen's slope", err)})
 	}
 	b.st.Drift = d
-	if errC == nil {
-		c := &ChangeInfo{Statistic: cp.Statistic, P: cp.P, MeanBefore: cp.MeanBefore * unit, MeanAfter: cp.MeanAfter * unit, Found: cp.P < driftAlpha}
-		c.Shift = c.MeanAfter - c.MeanBefore
-		cell := ws.cells[cp.Index]
-		c.Row = int(b.cv.rows[cell])
-		if b.subgroup {
-			for g, cs := range ws.gcells {
-				if slices.Contains(cs, cell) {
-					c.Position, c.Subgroup = g+1, ws.labels[g]
-					break
-				}
+	cp, err := method.PettittRanked(ranks, keys)
+	if err != nil {
+		b.notes = append(b.notes, Note{Field: "stability.changePoint", Text: b.w.stabTestFailed("change point", err)})
+		return
+	}
+	c := &ChangeInfo{Statistic: cp.Statistic, P: cp.P, MeanBefore: cp.MeanBefore * toValue, MeanAfter: cp.MeanAfter * toValue, Found: cp.P < driftAlpha}
+	c.Shift = c.MeanAfter - c.MeanBefore
+	j := cp.Index * size // the first reading after the change
+	cell := ws.cell(j)
+	c.Row = int(cv.rows[cell])
+	if b.subgroup {
+		for g, cs := range ws.gcells {
+			if slices.Contains(cs, cell) {
+				c.Position, c.Subgroup = g+1, ws.labels[g]
+				break
 			}
-		} else {
-			c.Position = b.posOf[cp.Index] + 1
-		}
-		if c.Position > 0 {
-			b.st.Change = c
 		}
 	} else {
-		b.notes = append(b.notes, Note{Field: "stability.changePoint", Text: b.w.stabTestFailed("change point", errC)})
+		c.Position = b.posOf(j) + 1
+	}
+	if c.Position > 0 {
+		b.st.Change = c
 	}
 }
 
@@ -1115,76 +1307,35 @@ func everyKth[T int64 | float64](x []T, k int) []T {
 	return out
 }
 
-// finishChart lists the signals with their rows, marks the points and
-// thins long charts.
+// finishChart lists the signals with their rows, chooses the points to
+// draw (all, or a thinned selection keeping every signal and every
+// reading left out) and fills them.
 func (b *stabBuild) finishChart() {
 	st := b.st
 	counts := map[string]int{}
 	total := 0
-	b.flags = map[int][]string{}
-	add := func(si SignalInfo, judgedIdx []int) {
-		counts[si.Code]++
+	for _, g := range b.signals {
+		counts[g.code]++
 		total++
-		for _, j := range judgedIdx {
-			pos := b.posOf[j]
-			if !slices.Contains(b.flags[pos], si.Code) {
-				b.flags[pos] = append(b.flags[pos], si.Code)
-			}
-		}
 		if len(st.Signals) >= maxSignalsListed {
 			st.SignalsCut = true
-			return
+			continue
 		}
-		si.Points = len(judgedIdx)
-		for _, j := range judgedIdx[:min(len(judgedIdx), maxSignalRows)] {
-			p := b.pts[b.posOf[j]]
+		si := SignalInfo{Code: g.code, Chart: g.chart, Side: g.side, Points: g.count()}
+		first, last := g.first, g.last
+		if g.points != nil {
+			first, last = g.points[0], g.points[len(g.points)-1]
+		}
+		si.First, si.Last = b.posOf(first)+1, b.posOf(last)+1
+		g.each(maxSignalRows, func(j int) {
 			if b.subgroup {
-				si.Subgroups = append(si.Subgroups, b.ws.labels[b.posOf[j]])
+				si.Subgroups = append(si.Subgroups, b.ws.labels[j])
 			} else {
-				si.Rows = append(si.Rows, int(p.row))
+				si.Rows = append(si.Rows, int(b.cv.rows[b.ws.cell(j)]))
 			}
-		}
+		})
 		si.Text = b.w.stabSignal(si, b.subgroup)
 		st.Signals = append(st.Signals, si)
-	}
-	span := func(code, chart string, side int, idx []int) SignalInfo {
-		return SignalInfo{Code: code, Chart: chart, Side: side, First: b.posOf[idx[0]] + 1, Last: b.posOf[idx[len(idx)-1]] + 1}
-	}
-	for _, s := range b.signals {
-		idx := s.Indices()
-		add(span(s.Rule, "values", s.Side, idx), idx)
-	}
-	for _, j := range b.spreadSg {
-		idx := []int{j}
-		if !b.subgroup {
-			idx = []int{j - 1, j} // a moving range is made by two readings
-		}
-		si := span(SignalSpreadBeyond, "spread", 0, idx)
-		add(si, idx)
-	}
-	if b.ewma != nil && b.on[SignalEWMA] {
-		for _, run := range runsOf(b.ewma.Beyond) {
-			side := 1
-			if b.ewma.Z[run[0]] < b.ewma.Centre {
-				side = -1
-			}
-			add(span(SignalEWMA, "ewma", side, run), run)
-		}
-	}
-	if b.cusum != nil && b.on[SignalCUSUM] {
-		for _, run := range runsOf(b.cusum.Beyond) {
-			side, cnt := 1, int(b.cusum.UpperCount[run[0]])
-			if b.cusum.Upper[run[0]] <= b.cusum.Decision {
-				side, cnt = -1, int(b.cusum.LowerCount[run[0]])
-			}
-			// the shift began about the point after the sum was last zero
-			start := max(0, run[0]-cnt+1)
-			idx := run
-			if start < run[0] {
-				idx = append([]int{start}, run...)
-			}
-			add(span(SignalCUSUM, "cusum", side, idx), idx)
-		}
 	}
 	for _, c := range checkOrder {
 		cnt := counts[c]
@@ -1196,98 +1347,170 @@ func (b *stabBuild) finishChart() {
 	if st.SignalsCut {
 		b.notes = append(b.notes, Note{Field: "stability.signals", Text: b.w.stabSignalsCut(total, maxSignalsListed)})
 	}
-	// points, thinned when long
 	ch := st.Chart
-	ch.Count = len(b.pts)
+	ch.Count = b.nPlot
 	ch.TimeAxis = b.cv.order != nil && b.cv.order.Kind == "time"
-	keep := thinPoints(b.pts, b.flags, maxChartPoints)
-	ch.Thinned = keep != nil
-	ch.Points = make([]CtlPoint, 0, min(len(b.pts), 2*maxChartPoints))
-	for i, p := range b.pts {
-		if keep != nil && !keep[i] {
+	if b.keep != nil && len(b.extra) > 0 {
+		// the EWMA and CUSUM alarms' points join the drawing
+		b.keep = append(b.keep, b.extra...)
+		slices.Sort(b.keep)
+		b.keep = slices.Compact(b.keep)
+	}
+	ch.Thinned = b.keep != nil
+	b.drawPoints()
+}
+
+// y is the plotted value at position p.
+func (b *stabBuild) y(p int) float64 {
+	j, left := b.atPos(p)
+	if left >= 0 {
+		return b.cv.vals[b.leftCell[left]]
+	}
+	return b.judged[j]
+}
+
+// thin chooses the points to draw when there are more than limit: the
+// lowest and highest of each of limit/2 blocks, the points of every
+// signal (a long run by its ends) and every reading left out, each up to
+// limit more. b.keep stays nil when every point is drawn.
+func (b *stabBuild) thin(limit int) {
+	n := b.nPlot
+	if n <= limit {
+		return
+	}
+	keep := make([]int32, 0, 3*limit)
+	blocks := limit / 2
+	for k := range blocks {
+		a, e := k*n/blocks, (k+1)*n/blocks
+		lo, hi := a, a
+		ylo, yhi := b.y(a), b.y(a)
+		for p := a + 1; p < e; p++ {
+			v := b.y(p)
+			if v < ylo {
+				lo, ylo = p, v
+			}
+			if v > yhi {
+				hi, yhi = p, v
+			}
+		}
+		keep = append(keep, int32(lo), int32(hi))
+	}
+	for _, g := range b.signals {
+		if b.flagged >= limit {
+			break
+		}
+		if g.count() <= maxSignalRows {
+			g.each(maxSignalRows, func(j int) { keep = append(keep, int32(b.posOf(j))) })
+			b.flagged += g.count()
+		} else {
+			keep = append(keep, int32(b.posOf(g.first)), int32(b.posOf(g.last)))
+			b.flagged += 2
+		}
+	}
+	keep = append(keep, b.leftPos[:min(limit, len(b.leftPos))]...)
+	if b.subgroup && b.gLeft != nil {
+		left := 0
+		for g, l := range b.gLeft {
+			if l && left < limit {
+				keep = append(keep, int32(g))
+				left++
+			}
+		}
+	}
+	slices.Sort(keep)
+	b.keep = slices.Compact(keep)
+}
+
+// drawPoints fills the chart's points (and the EWMA and CUSUM values) at
+// the positions drawn, with the codes of the signals each is part of.
+func (b *stabBuild) drawPoints() {
+	st, cv, ws := b.st, b.cv, b.ws
+	ch := st.Chart
+	kept := func(p int) bool {
+		if b.keep == nil {
+			return true
+		}
+		_, ok := slices.BinarySearch(b.keep, int32(p))
+		return ok
+	}
+	// flags by drawn position
+	flags := map[int][]string{}
+	mark := func(p int, code string) {
+		if !slices.Contains(flags[p], code) {
+			flags[p] = append(flags[p], code)
+		}
+	}
+	for _, g := range b.signals {
+		if g.points != nil {
+			for _, j := range g.points {
+				if p := b.posOf(j); kept(p) {
+					mark(p, g.code)
+				}
+			}
 			continue
 		}
-		cp := CtlPoint{I: i + 1, Row: int(p.row), N: int(p.n), Y: p.y, LeftOut: p.leftOut, Outside: p.outside, Flags: b.flags[i]}
-		if b.subgroup {
-			cp.Label = b.ws.labels[i]
+		lo, hi := b.posOf(g.first), b.posOf(g.last)
+		if b.keep == nil {
+			for p := lo; p <= hi; p++ {
+				if j, _ := b.atPos(p); j >= 0 {
+					mark(p, g.code)
+				}
+			}
+			continue
 		}
-		if p.hasS {
-			v := p.s
-			cp.S = &v
+		i, _ := slices.BinarySearch(b.keep, int32(lo))
+		for ; i < len(b.keep) && int(b.keep[i]) <= hi; i++ {
+			if j, _ := b.atPos(int(b.keep[i])); j >= 0 {
+				mark(int(b.keep[i]), g.code)
+			}
 		}
-		if p.hasT {
-			v := p.t
-			cp.T = &v
+	}
+	count := b.nPlot
+	if b.keep != nil {
+		count = len(b.keep)
+	}
+	ch.Points = make([]CtlPoint, 0, count)
+	point := func(p int) {
+		j, left := b.atPos(p)
+		cp := CtlPoint{I: p + 1, Flags: flags[p]}
+		var cell int32
+		switch {
+		case left >= 0:
+			cell = b.leftCell[left]
+			cp.Y, cp.LeftOut = cv.vals[cell], true
+		case b.subgroup:
+			cell = ws.gcells[j][0]
+			cp.Y, cp.Label, cp.N = b.judged[j], ws.labels[j], len(ws.groups[j])
+			cp.LeftOut = b.gLeft != nil && b.gLeft[j]
+			cp.Outside = b.gOut[j]
+			if cp.N >= 2 {
+				v := b.gSpread[j]
+				cp.S = &v
+			}
+		default:
+			cell = ws.cell(j)
+			cp.Y = b.judged[j]
+			cp.Outside = b.opts.Baseline != "" && !b.inBase(cv.rows[cell])
+			if j >= 1 {
+				v := b.diff(j, j-1)
+				cp.S = &v
+			}
+		}
+		cp.Row = int(cv.rows[cell])
+		if t, ok := orderKey(cv, int(cell)); ok {
+			cp.T = &t
 		}
 		ch.Points = append(ch.Points, cp)
 	}
-	for j := range b.judged {
-		pos := b.posOf[j]
-		if keep != nil && !keep[pos] {
-			continue
+	if b.keep == nil {
+		for p := range b.nPlot {
+			point(p)
 		}
-		if b.ewma != nil {
-			lo, hi := b.ewma.Limits(j)
-			st.EWMA.Points = append(st.EWMA.Points, EWMAPt{I: pos + 1, Z: b.ewma.Z[j], Lo: lo, Hi: hi})
-		}
-		if b.cusum != nil {
-			st.CUSUM.Points = append(st.CUSUM.Points, CUSUMPt{I: pos + 1, Up: b.cusum.Upper[j], Down: b.cusum.Lower[j]})
+	} else {
+		for _, p := range b.keep {
+			point(int(p))
 		}
 	}
-}
-
-// runsOf splits ascending indices into runs of consecutive ones.
-func runsOf(idx []int) [][]int {
-	var out [][]int
-	for i := 0; i < len(idx); {
-		j := i + 1
-		for j < len(idx) && idx[j] == idx[j-1]+1 {
-			j++
-		}
-		out = append(out, idx[i:j])
-		i = j
-	}
-	return out
-}
-
-// thinPoints selects at most about 2·limit points for drawing: the lowest
-// and highest of each of limit/2 blocks, every point with a signal and
-// every reading left out (each up to limit more). nil keeps all.
-func thinPoints(pts []stabPoint, flags map[int][]string, limit int) []bool {
-	n := len(pts)
-	if n <= limit {
-		return nil
-	}
-	keep := make([]bool, n)
-	blocks := limit / 2
-	for k := 0; k < blocks; k++ {
-		a, bnd := k*n/blocks, (k+1)*n/blocks
-		lo, hi := a, a
-		for i := a; i < bnd; i++ {
-			if pts[i].y < pts[lo].y {
-				lo = i
-			}
-			if pts[i].y > pts[hi].y {
-				hi = i
-			}
-		}
-		keep[lo], keep[hi] = true, true
-	}
-	flagged := 0
-	for i := range flags {
-		if flagged < limit {
-			keep[i] = true
-			flagged++
-		}
-	}
-	left := 0
-	for i := range pts {
-		if pts[i].leftOut && left < limit {
-			keep[i] = true
-			left++
-		}
-	}
-	return keep
 }
 
 // verdict decides Stable and writes the lead sentence.

@@ -4,11 +4,13 @@ import (
 	"encoding/json"
 	"fmt"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 	"testing"
 
 	"lotlens/stats/internal/rref"
+	"lotlens/stats/method"
 )
 
 // The section's figures against R 4.2.2 (testdata/rref/control.R, base R
@@ -400,4 +402,89 @@ func TestSpecCautionFromStability(t *testing.T) {
 	if rep.Spec == nil || len(rep.Spec.Cautions) == 0 || rep.Spec.Cautions[0].Code != "stability-not-judged" || !strings.Contains(rep.Spec.Cautions[0].Text, "not the process") {
 		t.Errorf("two readings: spec %+v", rep.Spec)
 	}
+}
+
+// TestStabilityLongSeries: above driftMax readings the drift tests run on
+// block means (said in a Note and in drift.blocks), the chart is thinned
+// with the signals' points kept, and the EWMA and CUSUM are given at the
+// drawn points. Data constructed: a repeating pattern typed to 0.01, 0.05
+// higher from reading 150,001. The trend statistic is checked against
+// method.MannKendallTest on the block sums computed here (Mann 1945, the
+// definition on the blocks).
+func TestStabilityLongSeries(t *testing.T) {
+	const n, size = 250_007, 3 // 83,335 blocks of 3; the last 2 readings in none
+	pattern := []int64{0, 3, -2, 1, -4, 2, 0, -1, 4, -3, 1}
+	var b strings.Builder
+	mant := make([]int64, n)
+	for i := range n {
+		m := 1000 + pattern[i%len(pattern)]
+		if i >= 150_000 {
+			m += 5
+		}
+		mant[i] = m
+		fmt.Fprintf(&b, "%d.%02d\n", m/100, m%100)
+	}
+	rep, err := Analyze(Request{Text: b.String()})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := rep.Stability
+	d := s.Drift
+	if d == nil || d.Blocks != n/size || d.BlockSize != size || !d.Exact {
+		t.Fatalf("drift %+v", d)
+	}
+	if !hasNote(rep, "stability.drift") {
+		t.Errorf("no note on the block means: %+v", rep.Notes)
+	}
+	sums := make([]int64, n/size)
+	for k := range sums {
+		sums[k] = mant[k*size] + mant[k*size+1] + mant[k*size+2]
+	}
+	mk, err := method.MannKendallTest(sums)
+	if err != nil || d.Trend == nil || d.Trend.S != mk.S {
+		t.Errorf("trend S %+v, want %d (%v)", d.Trend, mk.S, err)
+	}
+	if c := s.Change; c == nil || !c.Found || c.Position != 150_001 || c.Row != 150_001 {
+		t.Errorf("change point %+v, want reading 150001", s.Change)
+	}
+	ch := s.Chart
+	if ch == nil || !ch.Thinned || ch.Count != n || len(ch.Points) > 3*maxChartPoints+2*maxSignalRows {
+		t.Fatalf("chart: thinned %v, %d of %d points", ch != nil && ch.Thinned, len(ch.Points), ch.Count)
+	}
+	drawn := map[int]bool{}
+	for k, p := range ch.Points {
+		drawn[p.I] = true
+		if k > 0 && p.I <= ch.Points[k-1].I {
+			t.Fatalf("points out of order at %d", k)
+		}
+		if p.Row != p.I { // no header: reading i is row i
+			t.Fatalf("point %d on row %d", p.I, p.Row)
+		}
+	}
+	for _, sg := range s.Signals[:min(20, len(s.Signals))] {
+		if !drawn[sg.First] {
+			t.Errorf("signal %q at %d-%d not drawn", sg.Code, sg.First, sg.Last)
+		}
+	}
+	for _, pts := range [][]int{ewmaIs(s.EWMA.Points), cusumIs(s.CUSUM.Points)} {
+		if len(pts) < 2*maxChartPoints/2 || !slices.IsSorted(pts) {
+			t.Errorf("EWMA or CUSUM: %d points, sorted %v", len(pts), slices.IsSorted(pts))
+		}
+	}
+}
+
+func ewmaIs(p []EWMAPt) []int {
+	out := make([]int, len(p))
+	for i := range p {
+		out[i] = p[i].I
+	}
+	return out
+}
+
+func cusumIs(p []CUSUMPt) []int {
+	out := make([]int, len(p))
+	for i := range p {
+		out[i] = p[i].I
+	}
+	return out
 }
