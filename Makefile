@@ -38,13 +38,13 @@ test-wasm: ## the engine's tests again as js/wasm (-short: the long property run
 test-browser: deps-browser dist ## the page in headless Chromium
 	$(GO) test -count=1 ./site/
 
-deps-browser:
-	@if ! [ -x "$(CHROMIUM)" ]; then \
+deps-browser: ## Chromium, and pdftotext (poppler-utils) for the print test, from Debian's packages
+	@if ! [ -x "$(CHROMIUM)" ] || ! command -v pdftotext >/dev/null; then \
 	  if [ "$$(id -u)" = 0 ] && command -v apt-get >/dev/null; then \
-	    echo "installing Chromium from Debian's packages"; \
-	    apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium >/dev/null; \
+	    echo "installing Chromium and poppler-utils from Debian's packages"; \
+	    apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium poppler-utils >/dev/null; \
 	  else \
-	    echo "Chromium is needed for the browser tests: run  sudo apt-get install chromium  (or set CHROMIUM=/path/to/chromium)"; exit 1; \
+	    echo "Chromium and pdftotext are needed for the browser tests: run  sudo apt-get install chromium poppler-utils  (or set CHROMIUM=/path/to/chromium)"; exit 1; \
 	  fi; \
 	fi
 

@@ -413,7 +413,7 @@ func TestExclusionRecomputes(t *testing.T) {
 // TestDemoScreensAndPrint runs the demo, checks the layout at three widths
 // (screens), then renders the print stylesheet: the input panel is hidden,
 // the print header carries title, date, fingerprint, settings and
-// exclusions, and Chromium prints a one- or two-page A4 PDF.
+// exclusions, and Chromium prints an A4 PDF of at most three pages.
 func TestDemoScreensAndPrint(t *testing.T) {
 	s := browser(t)
 	s.open(t)
@@ -453,8 +453,11 @@ func TestDemoScreensAndPrint(t *testing.T) {
 	}
 	pages := bytes.Count(pdf, []byte("/Type /Page")) - bytes.Count(pdf, []byte("/Type /Pages"))
 	t.Logf("print: %d bytes, %d A4 pages", len(pdf), pages)
-	if pages < 1 || pages > 2 {
-		t.Errorf("the report prints on %d A4 pages, want 1 or 2", pages)
+	// Three pages at most: the print holds every figure of every card,
+	// the sections folded on screen included (quantile table, the rules as
+	// applied, all centre and spread figures), so it stands as a record.
+	if pages < 1 || pages > 3 {
+		t.Errorf("the report prints on %d A4 pages, want 1 to 3", pages)
 	}
 	save(t, "05-print-a4.pdf", pdf)
 }

@@ -82,7 +82,9 @@ function groupsCard(rep) {
   if (!g) {
     if (state.cols.group) return card("groups", "Groups", missing("groups", "The comparison of groups"), helpLinks(LINKS));
     return card("groups placeholder", "Groups",
-      el("p", { class: "needs", text: "To compare lines, shifts or suppliers, choose a group column under Columns (data with more than one column)." }),
+      el("p", { class: "needs", text: (rep.input.columns || []).length > 1
+        ? "To compare lines, shifts or suppliers, choose a group column under Columns, or tick columns side by side below."
+        : "To compare lines, shifts or suppliers, paste or drop data with a column that names the group of each reading (or one column per group)." }),
       sideBySide(rep), helpLinks(LINKS));
   }
   const kids = [];

@@ -25,30 +25,49 @@ function excludedItem(r) {
     input, printed);
 }
 
+// The box plot comes right after the card's opening sentence, so that on
+// paper it floats beside the list of flagged readings.
+function boxPlot() {
+  return chartFigure("box", "Box plot: box from Q1 to Q3 with the median; whiskers to the last values inside the inner fences; flagged readings labelled by row.");
+}
+
 function suspectsCard(rep) {
   const links = helpLinks([["tukey-fences", "Tukey's fences"], ["adjusted-boxplot", "adjusted box plot"], ["modified-z", "modified z-score"], ["gesd", "generalized ESD"], ["box-plot", "box plot"]]);
   const s = rep.suspects;
   const excl = (rep.settings.excluded || []);
   const kids = [];
   if (!s) {
-    kids.push(missing("suspects", "The suspect-reading rules"));
+    kids.push(missing("suspects", "The suspect-reading rules"), boxPlot());
   } else {
     const n = s.readings.length;
-    kids.push(el("p", { class: "quote" }, el("span", { class: "quote-label", text: "Flagged readings " }), el("span", { class: "num big", "data-field": "suspects", "data-value": String(n), text: String(n) })));
-    kids.push(el("p", { class: "why", text: "Each reading is checked by several standard rules; one flagged by more than one rule deserves a look at the part or the gauge. Nothing is removed unless you choose to leave it out, and every exclusion is listed in the report." }));
+    const lead = s.lead;
+    const leadRule = lead ? (s.rules || []).find((r) => r.code === lead.rule) : null;
+    const headline = lead ? lead.count : n;
+    const plain = {};
+    for (const r of s.rules || []) plain[r.code] = r.plain || r.name || r.code;
+    kids.push(el("p", { class: "quote" }, el("span", { class: "quote-label", text: "Flagged readings " }), el("span", { class: "num big", "data-field": "suspects.lead.count", "data-value": String(headline), text: String(headline) }),
+      leadRule ? el("span", { class: "quote-label", text: " by " + (leadRule.name || leadRule.code) }) : null));
+    if (lead) kids.push(el("p", { class: "why", "data-field": "suspects.lead", text: lead.text }));
+    kids.push(el("p", { class: "why", text: "The count is the leading rule's; readings only other rules flag are listed below it as \u201calso flagged by\u201d. Nothing is removed unless you choose to leave it out, and every exclusion is listed in the report." }));
+    kids.push(boxPlot());
     if (n) {
       const shown = state.allSuspects || n <= 50 ? s.readings : s.readings.slice(0, 50);
-      kids.push(table(["Row", "As typed", "Rules that flag it", "In the analysis"], shown.map((r) => {
+      kids.push(table(["Row", "As typed", "Why it is flagged", "In the analysis"], shown.map((r) => {
         const out = state.exclude.has(r.row);
+        const mine = (r.flags || []).filter((f) => f.lead);
+        const others = (r.flags || []).filter((f) => !f.lead);
+        const items = mine.map((f) => el("li", { "data-rule": f.rule, class: "lead", text: f.text || f.rule }));
+        if (others.length) items.push(el("li", { class: "also", text: "also flagged by: " + others.map((f) => plain[f.rule] || f.rule).join("; ") }));
         return [String(r.row), r.text + (unit() ? " " + unit() : ""),
-          el("ul", { class: "flags" }, ...(r.flags || []).map((f) => el("li", { "data-rule": f.rule, text: f.text || f.rule }))),
+          el("ul", { class: "flags", "data-lead": r.lead ? "true" : "false" }, ...items),
           [el("span", { class: out ? "state out" : "state in", text: out ? "left out" : "used" }),
             el("button", { type: "button", class: "toggle", "aria-pressed": out ? "true" : "false", "data-row": String(r.row),
               "aria-label": (out ? "Put back row " : "Leave out row ") + r.row, text: out ? "Put back" : "Leave out",
               onclick: () => actions.toggleExclude(r.row) })]];
       }), "figs suspects-t"));
       if (shown.length < n) kids.push(el("button", { type: "button", class: "small", text: "Show all " + n + " flagged readings",
-        onclick: () => { state.allSuspects = true; actions.render(); } }));
+        onclick: () => { state.allSuspects = true; actions.render(); } }),
+        el("p", { class: "print-only", text: "The first " + shown.length + " of " + n + " flagged readings are listed; all " + n + " are in the suspect-readings CSV and the report JSON." }));
     } else kids.push(el("p", { text: "No reading is flagged by any of the rules." }));
     if (s.rules && s.rules.length) kids.push(el("details", null, el("summary", { text: "The rules as applied" }),
       table(["Rule", "Lower limit", "Upper limit", "Flags", "Note"], s.rules.map((r) => [r.name || r.code,
@@ -56,7 +75,6 @@ function suspectsCard(rep) {
   }
   if (excl.length) kids.push(el("div", { class: "excluded" }, el("h4", { text: "Left out by you" }),
     el("ul", { class: "excluded-list" }, ...excl.map(excludedItem))));
-  kids.push(chartFigure("box", "Box plot: box from Q1 to Q3 with the median; whiskers to the last values inside the inner fences; flagged readings labelled by row."));
   kids.push(links);
   return card("suspects", "Suspect readings", ...kids);
 }

@@ -24,6 +24,12 @@ function timeCard(rep) {
       el("strong", { text: s.stable ? "\u2714 " : "\u26a0 " }), s.verdict + "."),
     el("p", { class: "basis", text: s.order.text }),
   ];
+  if (s.order.source === "rows") {
+    // advice names the Columns choice only where it is on screen
+    kids.push(el("p", { class: "needs", text: (rep.input.columns || []).length > 1
+      ? "To follow a time or sequence column instead of the rows, choose it as the order under Columns."
+      : "To follow the time of each reading, paste or drop the values with a second column giving its time or order, with a header row." }));
+  }
   const reasons = (s.reasons || []).filter((r) => r.code !== "no-signal");
   if (reasons.length) kids.push(el("ul", { class: "reasons" }, ...reasons.map((r) => el("li", { "data-code": r.code, text: r.text }))));
   if (s.warnings && s.warnings.length) kids.push(el("ul", { class: "warnings", "aria-label": "Warnings" },
@@ -71,7 +77,7 @@ function timeCard(rep) {
     table(["Test", "Result", "p or run length"], more, "figs drift-t")));
   kids.push(el("details", null, el("summary", { text: "The checks as applied" }),
     table(["Check", "On", "Signals", "Looks for"], (s.checks || []).map((c) => [c.name, c.on ? "on" : "off", String(c.count), c.text]))));
-  kids.push(el("details", null, el("summary", { text: "Run chart" }), chartFigure("run", "Run chart: values in data order with the median; flagged readings marked.")));
+  kids.push(chartFigure("run", (rep.input.order ? "Run chart: values in the order of " + rep.input.order : "Run chart: values in data order") + " with the median; flagged readings marked."));
   kids.push(helpLinks(LINKS));
   return card("time", "Over time", ...kids);
 }
@@ -104,17 +110,19 @@ export function fillOverTimeSettings(onChange) {
 // readOverTimeSettings adds the section's options to o; problems go to errs
 // and bad(id) marks the field (the first one gets the focus).
 export function readOverTimeSettings(o, errs, bad) {
+  // a field to fix is shown (its section opened) before it takes the focus
+  const openBad = (id) => { $("overtime-settings").open = true; bad(id); };
   const b = $("baseline").value.trim();
   $("baseline").removeAttribute("aria-invalid");
   if (b) {
     if (/^\s*\d+(\s*-\s*\d+)?(\s*[,;]\s*\d+(\s*-\s*\d+)?)*\s*$/.test(b)) o.baseline = b.replace(/\s+/g, "");
-    else { errs.push("Baseline rows: type rows like 2-61 or 2-61, 80-99."); bad("baseline"); }
+    else { errs.push("Baseline rows: type rows like 2-61 or 2-61, 80-99."); openBad("baseline"); }
   }
   for (const [id, key, label] of [["ewma-lambda", "ewmaLambda", "EWMA weight"], ["ewma-l", "ewmaL", "EWMA limit width"], ["cusum-k", "cusumK", "CUSUM k"], ["cusum-h", "cusumH", "CUSUM h"]]) {
     const v = parseNum($(id).value);
     $(id).removeAttribute("aria-invalid");
     if (v === null) continue;
-    if (isNaN(v) || v <= 0) { errs.push(label + " must be a positive number."); bad(id); continue; }
+    if (isNaN(v) || v <= 0) { errs.push(label + " must be a positive number."); openBad(id); continue; }
     o[key] = v;
   }
   if ($("chart-spread").value) o.chartSpread = $("chart-spread").value;

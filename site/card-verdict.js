@@ -6,7 +6,9 @@ function verdictCard(rep) {
   const v = rep.verdict || {};
   const med = quoteIsMedian();
   const kids = [];
-  if (med && rep.centre && rep.spread) {
+  if (v.quote === "value" && rep.centre) {
+    kids.push(el("p", { class: "lead" }, "One reading: ", ...withUnit(num(rep.centre.mean, 2, "verdict-mean")), ". No spread can be quoted from one reading."));
+  } else if (med && rep.centre && rep.spread) {
     kids.push(el("p", { class: "lead" }, "Quote the median, ", ...withUnit(num(rep.centre.median, 1, "verdict-median")), ", and the interquartile range, ", ...withUnit(num(rep.spread.iqr, 1, "verdict-iqr")), "."));
   } else if (rep.centre && rep.spread) {
     kids.push(el("p", { class: "lead" }, "Quote the mean, ", ...withUnit(num(rep.centre.mean, 2, "verdict-mean")), ", and the standard deviation, ", ...withUnit(num(rep.spread.sd, 2, "verdict-sd")), "."));

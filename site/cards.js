@@ -201,8 +201,21 @@ export function printHead(rep) {
     el("p", null, "Data fingerprint (SHA-256 of the input as read): ", el("code", { text: rep.input.fingerprint })),
     el("p", { text: "Settings: " + settingsLines(rep).join("; ") + "." }),
     el("p", { class: "print-excluded", text: excl.length ? "Left out by the user: " + excl.map(excludedLine).join(", ") + "." : "No reading left out by the user." }),
+    el("p", { class: "print-sign", text: "Made and readings left out by (name, signature): ____________________    Checked by: ____________________" }),
   ];
 }
+
+// On paper every figure a card holds is printed: the sections folded away
+// on screen (<details>) print open. style.css opens them through
+// ::details-content where the browser has it; for the others, beforeprint
+// opens each closed section and afterprint closes it again.
+const openedForPrint = [];
+window.addEventListener("beforeprint", () => {
+  for (const d of document.querySelectorAll("#report details:not([open])")) { d.open = true; openedForPrint.push(d); }
+});
+window.addEventListener("afterprint", () => {
+  for (const d of openedForPrint.splice(0)) d.open = false;
+});
 // warmRender draws every card of a report of invented data off screen (the
 // engine's warm-up report) and throws them away, so that the first real
 // report does not pay for compiling the page's rendering code. Only while

@@ -151,9 +151,19 @@ export function excludedLine(r) {
   const why = reasonText(r.row);
   return "row " + r.row + " (" + r.text + (why ? "; reason: " + why : "; no reason given") + ")";
 }
-// whenText: the report's date and time with its time zone.
+// whenText: the report's date and time with its time zone, in the reader's
+// words and as ISO 8601 with the offset from UTC and the zone's name, so a
+// printed record reads the same anywhere:
+// "3 Dec 2026, 14:05:09 GMT+5:30 (2026-12-03T14:05:09+05:30, Asia/Kolkata)".
 export function whenText() {
   const d = state.when || new Date();
-  return d.toLocaleString(undefined, { dateStyle: "medium", timeStyle: "long" });
+  const local = d.toLocaleString(undefined, { dateStyle: "medium", timeStyle: "long" });
+  const p2 = (n) => String(n).padStart(2, "0");
+  const off = -d.getTimezoneOffset(); // minutes east of UTC
+  const iso = d.getFullYear() + "-" + p2(d.getMonth() + 1) + "-" + p2(d.getDate()) + "T" + p2(d.getHours()) + ":" + p2(d.getMinutes()) + ":" + p2(d.getSeconds()) +
+    (off === 0 ? "Z" : (off > 0 ? "+" : "-") + p2(Math.floor(Math.abs(off) / 60)) + ":" + p2(Math.abs(off) % 60));
+  let zone = "";
+  try { zone = Intl.DateTimeFormat().resolvedOptions().timeZone || ""; } catch (e) { /* no zone name */ }
+  return local + " (" + iso + (zone ? ", " + zone : "") + ")";
 }
 export function sourceText() { return state.source === "file" && state.file ? "file " + state.file.name : "pasted text"; }

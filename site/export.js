@@ -48,7 +48,8 @@ export function summaryText() {
   L.push(rep.input.summary);
   L.push("");
   if (rep.centre && rep.spread) {
-    if (quoteIsMedian()) L.push("Quote: median " + fmt(rep.centre.median, 1) + u + ", IQR " + fmt(rep.spread.iqr, 1) + u);
+    if (rep.verdict && rep.verdict.quote === "value") L.push("Quote: the one reading, " + fmt(rep.centre.mean, 2) + u + "; no spread from one reading");
+    else if (quoteIsMedian()) L.push("Quote: median " + fmt(rep.centre.median, 1) + u + ", IQR " + fmt(rep.spread.iqr, 1) + u);
     else L.push("Quote: mean " + fmt(rep.centre.mean, 2) + u + ", SD " + fmt(rep.spread.sd, 2) + u);
   }
   for (const r of (rep.verdict && rep.verdict.reasons) || []) L.push("- " + r.text);

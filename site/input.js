@@ -93,7 +93,8 @@ export async function analyseNow(t0, how) {
   if (!options) { if (how.fromAction && state.settingsError) showActionError(state.settingsError); return; }
   if (!state.source) return;
   const req = buildRequest(options);
-  const key = JSON.stringify([state.dataVersion, state.source, req.options, req.value, req.group, req.order, req.subgroup]);
+  // every field of the request but the text (the data version stands for it)
+  const key = JSON.stringify([state.dataVersion, state.source, Object.assign({}, req, { text: undefined })]);
   if (key === state.lastKey) {
     // the same request again: nothing new to show (a run in flight will
     // show it); bring the report into view if the user asked

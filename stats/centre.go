@@ -10,11 +10,17 @@ import (
 
 // Centre: location statistics.
 type Centre struct {
-	Mean      float64   `json:"mean"`
-	MeanCI    *Interval `json:"meanCI,omitempty"`
-	Median    float64   `json:"median"`
-	MedianCI  *Interval `json:"medianCI,omitempty"`
-	Trimmed10 float64   `json:"trimmed10"`
+	Mean   float64   `json:"mean"`
+	MeanCI *Interval `json:"meanCI,omitempty"`
+	Median float64   `json:"median"`
+	// MedianCI is the interval for the median at exactly the chosen level:
+	// interpolated between order statistics (Hettmansperger and Sheather
+	// 1986) where that applies, else the exact order-statistic interval.
+	MedianCI *Interval `json:"medianCI,omitempty"`
+	// MedianCIExact is the exact order-statistic interval with the level
+	// it achieves (at least the chosen one, e.g. 95.7% for 95%).
+	MedianCIExact *Interval `json:"medianCIExact,omitempty"`
+	Trimmed10     float64   `json:"trimmed10"`
 	// Modes are the most repeated values with their count; empty with
 	// ModeNote "no repeated value" when all values are unique.
 	Modes      []Mode     `json:"modes,omitempty"`
@@ -42,7 +48,11 @@ func buildCentre(rep *Report, w words, s *sample, opts Options, maxRun int, cv *
 			rep.Notes = append(rep.Notes, Note{Field: "centre.meanCI", Text: w.meanCIOverflow()})
 		}
 		if k, level, reached := method.MedianInterval(n, opts.Confidence); k > 0 {
-			c.MedianCI = &Interval{Lo: s.sorted[k-1], Hi: s.sorted[n-k], Level: level, Method: "order-statistics"}
+			c.MedianCIExact = &Interval{Lo: s.sorted[k-1], Hi: s.sorted[n-k], Level: level, Method: "order-statistics"}
+			c.MedianCI = c.MedianCIExact
+			if lo, hi, ok := method.MedianIntervalInterpolated(s.sorted, opts.Confidence); ok {
+				c.MedianCI = &Interval{Lo: lo, Hi: hi, Level: opts.Confidence, Method: "interpolated-order-statistics"}
+			}
 			if !reached {
 				rep.Notes = append(rep.Notes, Note{Field: "centre.medianCI", Text: w.medianCINotReached(n, opts.Confidence, level)})
 			}

@@ -126,8 +126,8 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 
 	suspects := &Suspects{Rules: []Rule{}, Readings: []Suspect{}}
 	if n >= 3 {
-		rules, flags, flagged := outlierRules(w, s, 1-opts.Confidence)
-		suspects.Rules = rules
+		rules, flags, flagged, lead := outlierRules(w, s, 1-opts.Confidence, distinct)
+		suspects.Rules, suspects.Lead = rules, lead
 		var note *Note
 		suspects.Readings, note = mapFlags(w, sorted, flags, flagged, cv)
 		if note != nil {
@@ -187,7 +187,7 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	rep.Charts = ch
 
 	inner, outer := fenceCounts(s)
-	verdict(rep, w, opts, n, s.constant, maxRun, distinct, step, inner, outer)
+	verdict(rep, w, opts, n, s.constant, maxRun, distinct, step, inner, outer, restSkewOf(s))
 	guardFinite(rep)
 }
 
@@ -269,11 +269,22 @@ const stepMinDistinct = 11
 // common divisor of the gaps between the mantissas when it is coarser
 // (e.g. 0.5 for data typed to 0.1 but recorded in half units).
 func effectiveStep(s *sample, distinct int) float64 {
+	if distinct < stepMinDistinct {
+		return s.grid.Float(1)
+	}
+	return gapStep(s)
+}
+
+// gapStep is the greatest common divisor of the gaps between the values
+// (at least the typed resolution), on the exact path; 0 otherwise. With few
+// distinct values it may be coarser than the gauge's step by chance (see
+// stepMinDistinct), but every gap is a multiple of it.
+func gapStep(s *sample) float64 {
+	if !s.exact || s.n == 0 {
+		return 0
+	}
 	g := s.grid
 	typed := g.Float(1)
-	if distinct < stepMinDistinct {
-		return typed
-	}
 	m0 := g.M(s.sorted[0])
 	var d int64
 	prev := m0
@@ -382,10 +393,20 @@ func mapFlags(w words, sorted []float64, flags map[int][]Flag, flagged int, cv *
 	for i, x := range cv.vals {
 		if k := ix.get(x); k >= 0 && left[k] > 0 && !cv.excludedByUser[cv.rows[i]] {
 			left[k]--
-			out = append(out, Suspect{Reading: Reading{Row: int(cv.rows[i]), Column: cv.name, Text: cv.text(i), Value: x}, Flags: fl[k]})
+			lead := false
+			for _, f := range fl[k] {
+				lead = lead || f.Lead
+			}
+			out = append(out, Suspect{Reading: Reading{Row: int(cv.rows[i]), Column: cv.name, Text: cv.text(i), Value: x}, Lead: lead, Flags: fl[k]})
 		}
 	}
-	sort.SliceStable(out, func(a, b int) bool { return out[a].Row < out[b].Row })
+	// the leading rule's readings first, each group by row
+	sort.SliceStable(out, func(a, b int) bool {
+		if out[a].Lead != out[b].Lead {
+			return out[a].Lead
+		}
+		return out[a].Row < out[b].Row
+	})
 	return out, note
 }
 

@@ -446,7 +446,7 @@ func groupLevel(rep *Report, w words, gw *grpWork, cv *colView, opts Options) Gr
 		sk, _, _ := skewness(w, s.sorted, s.mo.mean, s.mo.sd, gw.ps)
 		own.Shape = &Shape{Skewness: sk}
 	}
-	verdict(own, w, Options{}, n, s.constant, maxRun, distinct, 0, inner, outer)
+	verdict(own, w, Options{}, n, s.constant, maxRun, distinct, 0, inner, outer, restSkewOf(s))
 	l.Quote, l.QuoteReasons = own.Verdict.Quote, own.Verdict.Reasons
 
 	if opts.LSL != nil || opts.USL != nil {

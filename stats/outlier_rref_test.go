@@ -18,7 +18,7 @@ func TestOutlierR(t *testing.T) {
 		x, _, _ := methodsSet(t, set)
 		smp := binarySample(x)
 		med := smp.median.f
-		rules, flags, _ := outlierRules(words{}, smp, 0.05)
+		rules, flags, _, _ := outlierRules(words{}, smp, 0.05, len(x))
 		byCode := map[string]Rule{}
 		for _, ru := range rules {
 			byCode[ru.Code] = ru

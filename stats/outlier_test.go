@@ -51,7 +51,7 @@ func TestGESDRosnerExample(t *testing.T) {
 func TestOutlierRulesDefinitions(t *testing.T) {
 	x := []float64{1, 2, 3, 4, 5, 6, 7, 8, 9, 30}
 	// type 7: q1 = 3.25, q3 = 7.75, IQR 4.5: inner hi 14.5, outer hi 21.25
-	rules, flags, _ := outlierRules(words{}, binarySample(x), 0.05)
+	rules, flags, _, _ := outlierRules(words{}, binarySample(x), 0.05, len(x))
 	got := map[string]Rule{}
 	for _, r := range rules {
 		got[r.Code] = r
@@ -88,7 +88,7 @@ func TestOutlierRulesDefinitions(t *testing.T) {
 // MAD = 0: the modified z-score is not defined and flags nothing.
 func TestModifiedZZeroMAD(t *testing.T) {
 	x := []float64{5, 5, 5, 5, 5, 5, 7, 9}
-	rules, flags, _ := outlierRules(words{}, binarySample(x), 0.05) // type 7: Q1 5, Q3 5.5, median 5
+	rules, flags, _, _ := outlierRules(words{}, binarySample(x), 0.05, len(x)) // type 7: Q1 5, Q3 5.5, median 5
 	for _, r := range rules {
 		if r.Code == "modified-z" && (r.Count != 0 || r.Lo != nil || r.Note == "") {
 			t.Errorf("modified z with MAD 0: %+v", r)

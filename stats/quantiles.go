@@ -18,9 +18,19 @@ type Quantiles struct {
 	Percentiles []Percentile  `json:"percentiles"` // 0.135, 1, 5, 95, 99, 99.865
 	All         []QuartileSet `json:"all"`         // hf1..hf9 and tukey
 	// Sensitive is set when another definition would flag different readings
-	// by Tukey's fences; Note says which rows.
-	Sensitive bool   `json:"sensitive,omitempty"`
-	Note      string `json:"note,omitempty"`
+	// by a quartile-based rule (Tukey's inner or outer fences, the adjusted
+	// box plot); Differ says which rules under which definitions, Note says
+	// it in words with the rows.
+	Sensitive bool         `json:"sensitive,omitempty"`
+	Differ    []RuleDiffer `json:"differ,omitempty"`
+	Note      string       `json:"note,omitempty"`
+}
+
+// RuleDiffer: a quartile-based rule flags another set of readings under
+// these definitions than under the chosen one.
+type RuleDiffer struct {
+	Rule    string   `json:"rule"` // "tukey-inner", "tukey-outer", "adjusted-box"
+	Methods []string `json:"methods"`
 }
 
 // Percentile is one named percentile.
@@ -111,49 +121,66 @@ func (s *sample) quartileSet(code string) QuartileSet {
 }
 
 // fenceSensitivity marks the report when another quantile definition would
-// put different readings beyond Tukey's fences (1.5 and 3 IQR beyond the
-// quartiles; Tukey 1977), and names their rows. Every count is decided on
-// the decimals as typed (exact fences) where the data are decimals.
+// put different readings beyond a quartile-based rule's fences: Tukey's
+// inner and outer fences (1.5 and 3 IQR beyond the quartiles; Tukey 1977)
+// and the adjusted box plot (Hubert and Vandervieren 2008, whose medcouple
+// does not depend on the definition), and names the rules, the
+// definitions and the rows. Tukey's counts are decided on the decimals as
+// typed (exact fences) where the data are decimals.
 func fenceSensitivity(w words, qs *Quantiles, s *sample, cv *colView) {
 	n := s.n
-	type cut struct{ loIn, hiIn, loOut, hiOut int } // counts beyond each fence
+	mc, mcOK := s.medcouple()
+	type cut struct{ loIn, hiIn, loOut, hiOut, loAdj, hiAdj int } // counts beyond each fence
 	cuts := func(q1, q3 fig) cut {
 		li, hi := s.fences(q1, q3, 3, 2)
 		lo, ho := s.fences(q1, q3, 3, 1)
-		return cut{s.countBelow(li), s.countAbove(hi), s.countBelow(lo), s.countAbove(ho)}
+		c := cut{s.countBelow(li), s.countAbove(hi), s.countBelow(lo), s.countAbove(ho), 0, 0}
+		if mcOK {
+			al, ah := s.adjustedFences(q1, q3, mc)
+			c.loAdj, c.hiAdj = s.countBelow(al), s.countAbove(ah)
+		}
+		return c
 	}
 	ref := cuts(s.q1, s.q3)
-	// the readings whose flag changes lie in sorted[minLo:maxLo] and sorted[n-maxHi:n-minHi]
-	minLo, maxLo, minHi, maxHi := ref.loIn, ref.loIn, ref.hiIn, ref.hiIn
-	minLoO, maxLoO, minHiO, maxHiO := ref.loOut, ref.loOut, ref.hiOut, ref.hiOut
-	var differ []string
+	// the readings whose flag changes lie between the smallest and largest count at each end
+	lo := [3][2]int{{ref.loIn, ref.loIn}, {ref.loOut, ref.loOut}, {ref.loAdj, ref.loAdj}}
+	hi := [3][2]int{{ref.hiIn, ref.hiIn}, {ref.hiOut, ref.hiOut}, {ref.hiAdj, ref.hiAdj}}
+	codes := [3]string{"tukey-inner", "tukey-outer", "adjusted-box"}
+	refPair := [3][2]int{{ref.loIn, ref.hiIn}, {ref.loOut, ref.hiOut}, {ref.loAdj, ref.hiAdj}}
+	var differ [3][]string
 	for _, code := range QuantileMethods {
 		def := quantileDef(code)
 		if def == s.def {
 			continue
 		}
 		c := cuts(s.quantile(method.Prob{Num: 1, Den: 4}, def), s.quantile(method.Prob{Num: 3, Den: 4}, def))
-		if c != ref {
-			differ = append(differ, code)
+		got := [3][2]int{{c.loIn, c.hiIn}, {c.loOut, c.hiOut}, {c.loAdj, c.hiAdj}}
+		for k := range codes {
+			if got[k] != refPair[k] {
+				differ[k] = append(differ[k], code)
+			}
+			lo[k][0], lo[k][1] = min(lo[k][0], got[k][0]), max(lo[k][1], got[k][0])
+			hi[k][0], hi[k][1] = min(hi[k][0], got[k][1]), max(hi[k][1], got[k][1])
 		}
-		minLo, maxLo = min(minLo, c.loIn), max(maxLo, c.loIn)
-		minHi, maxHi = min(minHi, c.hiIn), max(maxHi, c.hiIn)
-		minLoO, maxLoO = min(minLoO, c.loOut), max(maxLoO, c.loOut)
-		minHiO, maxHiO = min(minHiO, c.hiOut), max(maxHiO, c.hiOut)
 	}
-	if len(differ) == 0 {
-		return
-	}
-	qs.Sensitive = true
 	var vals []float64
-	addRange := func(a, b int) {
-		for i := a; i < b && len(vals) < 50; i++ {
+	var rules []string
+	for k := range codes {
+		if len(differ[k]) == 0 {
+			continue
+		}
+		qs.Differ = append(qs.Differ, RuleDiffer{Rule: codes[k], Methods: differ[k]})
+		rules = append(rules, w.differRule(codes[k], differ[k]))
+		for i := lo[k][0]; i < lo[k][1] && len(vals) < 50; i++ {
+			vals = append(vals, s.sorted[i])
+		}
+		for i := n - hi[k][1]; i < n-hi[k][0] && len(vals) < 50; i++ {
 			vals = append(vals, s.sorted[i])
 		}
 	}
-	addRange(minLo, maxLo)
-	addRange(n-maxHi, n-minHi)
-	addRange(minLoO, maxLoO)
-	addRange(n-maxHiO, n-minHiO)
-	qs.Note = w.fenceSensitive(differ, qs.Method, rowsHolding(w, vals, cv, 20))
+	if len(qs.Differ) == 0 {
+		return
+	}
+	qs.Sensitive = true
+	qs.Note = w.fenceSensitive(rules, qs.Method, rowsHolding(w, vals, cv, 20))
 }

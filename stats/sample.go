@@ -25,6 +25,20 @@ type sample struct {
 	q1, q3  fig                // quartiles under def
 	qmed    fig                // median under def
 	median  fig                // the centre's median: (n+1)/2-th order statistic
+
+	mcDone bool // mc and mcOK hold the medcouple (see medcouple)
+	mc     float64
+	mcOK   bool
+}
+
+// medcouple is the medcouple of the data (method.Medcouple), computed once
+// for the suspect rules and the quartile-definition check.
+func (s *sample) medcouple() (float64, bool) {
+	if !s.mcDone {
+		s.mc, s.mcOK = method.Medcouple(s.sorted)
+		s.mcDone = true
+	}
+	return s.mc, s.mcOK
 }
 
 // fig is a figure: its float64 and, on the exact path, its exact value
@@ -143,4 +157,60 @@ func lowerBound(s []float64, v float64) int { return sort.SearchFloat64s(s, v) }
 
 func upperBound(s []float64, v float64) int {
 	return sort.Search(len(s), func(i int) bool { return s[i] > v })
+}
+
+// partShape is the shape moments (method.ShapeMoments) of sorted[lo:hi]:
+// exact from the decimals as typed on the exact path, else binary.
+func (s *sample) partShape(lo, hi int) (method.ShapeMoments, bool) {
+	part := s.sorted[lo:hi]
+	if len(part) < 3 || part[0] == part[len(part)-1] {
+		return method.ShapeMoments{}, false
+	}
+	if s.exact {
+		if sm, ok := method.ShapeExact(s.grid.PowerSums(part)); ok {
+			return sm, true
+		}
+	}
+	mo := compensatedMoments(part, part[0], part[len(part)-1])
+	return method.ShapeBinary(part, mo.mean, mo.sd)
+}
+
+// partNormalP is the p-value of a normality test of sorted[lo:hi]:
+// Shapiro-Wilk (Royston 1995) up to method.ShapiroMaxN values, else the
+// D'Agostino-Pearson K² omnibus test; large tells which. ok is false when
+// neither can be computed.
+func (s *sample) partNormalP(lo, hi int) (p float64, large, ok bool) {
+	part := s.sorted[lo:hi]
+	if len(part) <= method.ShapiroMaxN {
+		mean := 0.0
+		for _, x := range part {
+			mean += x
+		}
+		mean /= float64(len(part))
+		_, p, ok = method.ShapiroWilk(part, mean)
+		return p, false, ok
+	}
+	sm, ok := s.partShape(lo, hi)
+	if !ok {
+		return 0, true, false
+	}
+	zs, ok1 := method.DAgostinoSkewZ(sm.Sqrtb1, len(part))
+	zk, ok2 := method.AnscombeGlynnZ(sm.B2, len(part))
+	if !ok1 || !ok2 {
+		return 0, true, false
+	}
+	return math.Exp(-(zs*zs + zk*zk) / 2), true, true
+}
+
+// adjustedFences are the adjusted box plot's fences (Hubert and
+// Vandervieren 2008, method.AdjustedBoxFences) on quartiles q1 and q3 with
+// medcouple mc. With mc = 0 they are Tukey's inner fences exactly, and are
+// computed as those (on the decimals as typed), so that a reading on a
+// fence is within it, not beyond by binary rounding.
+func (s *sample) adjustedFences(q1, q3 fig, mc float64) (lo, hi fig) {
+	if mc == 0 {
+		return s.fences(q1, q3, 3, 2)
+	}
+	l, h := method.AdjustedBoxFences(q1.f, q3.f, mc)
+	return fig{f: l}, fig{f: h}
 }

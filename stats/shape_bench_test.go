@@ -79,7 +79,7 @@ func benchOutliers(b *testing.B, n int) {
 	smp := decimalSample(x, 4)
 	b.ResetTimer()
 	for b.Loop() {
-		outlierRules(words{}, smp, 0.05)
+		outlierRules(words{}, smp, 0.05, smp.n)
 	}
 }
 

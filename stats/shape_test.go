@@ -70,7 +70,7 @@ func TestMethodsFinite(t *testing.T) {
 		sh, notes := shapeSection(words{}, x, m, sd, nil)
 		smp := binarySample(x)
 		med := smp.median.f
-		rules, flags, _ := outlierRules(words{}, smp, 0.05)
+		rules, flags, _, _ := outlierRules(words{}, smp, 0.05, len(x))
 		tg := targetSection(words{}, x, m, sd, med+sd/3, 0.95, decimal.Grid{})
 		pp := probPlot(x, m, sd, 0.95, 50)
 		out := map[string]any{"shape": sh, "notes": notes, "rules": rules, "flags": flags, "target": tg, "pp": pp}

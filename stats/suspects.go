@@ -8,14 +8,32 @@ import (
 
 // Suspects: readings flagged by standard rules. Nothing is removed.
 type Suspects struct {
+	// Lead is the rule that leads for these data, chosen by their shape,
+	// ties and resolution (see leadRule); the headline counts only the
+	// readings it flags. Absent below 3 readings.
+	Lead     *Lead     `json:"lead,omitempty"`
 	Rules    []Rule    `json:"rules"`
 	Readings []Suspect `json:"readings"`
+}
+
+// Lead is the leading rule with the reason it leads.
+type Lead struct {
+	Rule   string `json:"rule"`   // a Rule.Code
+	Reason string `json:"reason"` // "skewed", "few-distinct", "medcouple-unstable", "rest-normal", "rest-not-normal", "symmetric", "iqr-zero"
+	Count  int    `json:"count"`  // readings the leading rule flags
+	Text   string `json:"text"`   // why this rule leads, in words
+	// MC is the medcouple of the data and MCSpread the medcouple with
+	// tied readings spread over their rounding interval (present when it
+	// was needed to decide).
+	MC       *float64 `json:"mc,omitempty"`
+	MCSpread *float64 `json:"mcSpread,omitempty"`
 }
 
 // Rule is one outlier rule as applied.
 type Rule struct {
 	Code  string   `json:"code"` // "tukey-inner", "tukey-outer", "adjusted-box", "modified-z", "gesd"
 	Name  string   `json:"name"`
+	Plain string   `json:"plain"`        // what the rule checks, in plain words ("also flagged by ...")
 	Lo    *float64 `json:"lo,omitempty"` // lower limit, where the rule has one
 	Hi    *float64 `json:"hi,omitempty"`
 	Count int      `json:"count"`
@@ -25,6 +43,7 @@ type Rule struct {
 // Suspect is a flagged reading with every rule that flags it.
 type Suspect struct {
 	Reading
+	Lead  bool   `json:"lead"` // flagged by the leading rule
 	Flags []Flag `json:"flags"`
 }
 
@@ -33,6 +52,7 @@ type Flag struct {
 	Rule  string  `json:"rule"`
 	Score float64 `json:"score"` // rule's own measure: distance beyond the fence, |Mi|, R_i...
 	Text  string  `json:"text"`
+	Lead  bool    `json:"lead"` // the flag of the leading rule
 }
 
 // outlierRules applies the suspect-reading rules to the sample, whose
@@ -59,12 +79,16 @@ type Flag struct {
 // The report lists at most maxSuspects readings, the most extreme, so the
 // flags themselves are kept only for the indices within maxSuspects of
 // either end of sorted (see flagSet); flagged counts every flagged index.
-func outlierRules(w words, s *sample, alpha float64) (rules []Rule, flags map[int][]Flag, flagged int) {
+//
+// Then leadRule chooses the rule that leads (Suspects.Lead) and the flags
+// of that rule are marked Lead. distinct is the number of distinct values
+// (for the medcouple guard).
+func outlierRules(w words, s *sample, alpha float64, distinct int) (rules []Rule, flags map[int][]Flag, flagged int, lead *Lead) {
 	sorted := s.sorted
 	n := len(sorted)
 	rules = []Rule{}
 	if n == 0 {
-		return rules, map[int][]Flag{}, 0
+		return rules, map[int][]Flag{}, 0, nil
 	}
 	innerLo, innerHi := s.fences(s.q1, s.q3, 3, 2)
 	fs := newFlagSet(n, s.countBelow(innerLo)+s.countAbove(innerHi))
@@ -91,25 +115,27 @@ func outlierRules(w words, s *sample, alpha float64) (rules []Rule, flags map[in
 			}
 			return w.tukeyFlag(false, (x-q3)/iqr, outer)
 		})
-		r := Rule{Code: f.code, Name: w.tukeyRule(outer), Lo: fptr(lo.f), Hi: fptr(hi.f), Count: cnt,
+		r := Rule{Code: f.code, Name: w.tukeyRule(outer), Plain: w.tukeyPlain(outer), Lo: fptr(lo.f), Hi: fptr(hi.f), Count: cnt,
 			Note: w.tukeyNote(1.5*float64(f.k), caption, zeroIQR)}
 		rules = append(rules, r)
 	}
 
 	// Adjusted box plot.
-	if mc, ok := method.Medcouple(sorted); ok {
-		lo, hi := method.AdjustedBoxFences(q1, q3, mc)
-		nb, na := lowerBound(sorted, lo), n-upperBound(sorted, hi)
+	mc, mcOK := s.medcouple()
+	if mcOK {
+		lof, hif := s.adjustedFences(s.q1, s.q3, mc)
+		lo, hi := lof.f, hif.f
+		nb, na := s.countBelow(lof), s.countAbove(hif)
 		cnt := fenceFlags(sorted, nb, na, lo, hi, "adjusted-box", fs, func(x float64) string {
 			if x < lo {
-				return w.adjustedBoxFlag(true, lo-x, mc)
+				return w.adjustedBoxFlag(true, lo-x)
 			}
-			return w.adjustedBoxFlag(false, x-hi, mc)
+			return w.adjustedBoxFlag(false, x-hi)
 		})
-		rules = append(rules, Rule{Code: "adjusted-box", Name: w.adjustedBoxRule(), Lo: fptr(lo), Hi: fptr(hi), Count: cnt,
+		rules = append(rules, Rule{Code: "adjusted-box", Name: w.adjustedBoxRule(), Plain: w.adjustedBoxPlain(), Lo: fptr(lo), Hi: fptr(hi), Count: cnt,
 			Note: w.adjustedBoxNote(mc, caption, zeroIQR)})
 	} else {
-		rules = append(rules, Rule{Code: "adjusted-box", Name: w.adjustedBoxRule(), Note: w.adjustedBoxNotApplied()})
+		rules = append(rules, Rule{Code: "adjusted-box", Name: w.adjustedBoxRule(), Plain: w.adjustedBoxPlain(), Note: w.adjustedBoxNotApplied()})
 	}
 
 	// Modified z-scores.
@@ -148,14 +174,119 @@ func outlierRules(w words, s *sample, alpha float64) (rules []Rule, flags map[in
 				fs.add(i, Flag{Rule: "modified-z", Score: m, Text: text(sorted[i], m)})
 			}
 		}
-		rules = append(rules, Rule{Code: "modified-z", Name: w.modifiedZRule(), Lo: fptr(lo.f), Hi: fptr(hi.f), Count: nb + min(na, n-nb),
+		rules = append(rules, Rule{Code: "modified-z", Name: w.modifiedZRule(), Plain: w.modifiedZPlain(), Lo: fptr(lo.f), Hi: fptr(hi.f), Count: nb + min(na, n-nb),
 			Note: w.modifiedZNote(mad)})
 	} else {
-		rules = append(rules, Rule{Code: "modified-z", Name: w.modifiedZRule(), Note: w.modifiedZNotApplied()})
+		rules = append(rules, Rule{Code: "modified-z", Name: w.modifiedZRule(), Plain: w.modifiedZPlain(), Note: w.modifiedZNotApplied()})
 	}
 
 	rules = append(rules, gesdRule(w, sorted, alpha, fs))
-	return rules, fs.m, fs.total
+
+	outerLo, outerHi := s.fences(s.q1, s.q3, 3, 1)
+	lead = leadRule(w, s, zeroIQR, mc, mcOK, distinct, s.countBelow(outerLo), s.countAbove(outerHi))
+	for _, r := range rules {
+		if r.Code == lead.Rule {
+			lead.Count = r.Count
+		}
+	}
+	for _, fl := range fs.m {
+		for k := range fl {
+			fl[k].Lead = fl[k].Rule == lead.Rule
+		}
+	}
+	return rules, fs.m, fs.total, lead
+}
+
+// Thresholds of the choice of the leading rule (leadRule).
+const (
+	// mcMinDistinct: with fewer distinct values the medcouple's kernel
+	// takes only a handful of values and the medcouple jumps between them
+	// (our rule, shown on testdata/suspects: 17 distinct values already
+	// give -0.2 on rounded symmetric data; below 10 nothing is left).
+	mcMinDistinct = 10
+	// mcSkewMin and mcAsymVar: the medcouple counts as clearly skewed when
+	// |MC| >= max(0.1, 2·sqrt(1.25/n)): twice its standard error at the
+	// normal, whose asymptotic variance is 1.25 (Brys, Hubert and Struyf
+	// 2004; from memory), and never below 0.1 (our rule).
+	mcSkewMin = 0.1
+	mcAsymVar = 1.25
+	// esdMinN: the generalized ESD leads only from 25 readings, where
+	// Rosner's (1983) critical values are accurate (his paper).
+	esdMinN = 25
+	// restNormalAlpha: the readings inside Tukey's outer fences look
+	// normal when Shapiro-Wilk gives p >= 0.05 (common practice).
+	restNormalAlpha = 0.05
+)
+
+// mcSkewed tells whether a medcouple says clearly skewed for n readings.
+func mcSkewed(mc float64, n int) bool {
+	return math.Abs(mc) >= max(mcSkewMin, 2*math.Sqrt(mcAsymVar/float64(n)))
+}
+
+// leadRule chooses the rule whose flags the headline counts, in order:
+//
+//  1. IQR 0 (half the readings or more share one value): the fences sit
+//     on the quartiles and flag every other reading, so the generalized
+//     ESD leads ("iqr-zero").
+//  2. The medcouple says clearly skewed (mcSkewed): the adjusted box plot
+//     (Hubert and Vandervieren 2008) leads ("skewed"), unless the
+//     medcouple cannot be trusted on these data, and then Tukey's inner
+//     fences lead: fewer than mcMinDistinct distinct values
+//     ("few-distinct"), or tied readings whose medcouple, once each run of
+//     ties is spread over its rounding interval
+//     (method.MedcoupleTiesSpread), no longer says skewed to the same side
+//     or moves by more than one standard error, sqrt(1.25/n)
+//     ("medcouple-unstable").
+//  3. Otherwise the data are roughly symmetric. From esdMinN readings on,
+//     when the readings inside Tukey's outer fences look normal
+//     (Shapiro-Wilk, Royston 1995, p >= restNormalAlpha; above 5000 of
+//     them the D'Agostino-Pearson K² test; the outer fences, 3 IQR beyond
+//     the quartiles, cut a normal sample's tails only beyond about 4.7
+//     SD, so the test is not biased by the cut), the generalized ESD (Rosner 1983), which assumes that, leads
+//     ("rest-normal"); else Tukey's inner fences (Tukey 1977) lead
+//     ("rest-not-normal", or "symmetric" below esdMinN readings or when
+//     no normality test can be computed).
+//
+// The other rules' flags stay in the report as "also flagged by".
+func leadRule(w words, s *sample, zeroIQR bool, mc float64, mcOK bool, distinct int, outerBelow, outerAbove int) *Lead {
+	n := s.n
+	if zeroIQR {
+		return &Lead{Rule: "gesd", Reason: "iqr-zero", Text: w.leadIQRZero()}
+	}
+	if mcOK && mcSkewed(mc, n) {
+		l := &Lead{Rule: "tukey-inner", MC: fptr(mc)}
+		if distinct < mcMinDistinct {
+			l.Reason, l.Text = "few-distinct", w.leadFewDistinct(mc, distinct, mcMinDistinct)
+			return l
+		}
+		if gs := gapStep(s); distinct < n && gs > 0 {
+			if mcs, ok := method.MedcoupleTiesSpread(s.sorted, gs); ok {
+				l.MCSpread = fptr(mcs)
+				if !mcSkewed(mcs, n) || (mcs > 0) != (mc > 0) || math.Abs(mcs-mc) > math.Sqrt(mcAsymVar/float64(n)) {
+					l.Reason, l.Text = "medcouple-unstable", w.leadMCUnstable(mc, mcs, distinct, n, gs)
+					return l
+				}
+			}
+		}
+		l.Rule, l.Reason, l.Text = "adjusted-box", "skewed", w.leadSkewed(mc)
+		return l
+	}
+	var mcp *float64
+	if mcOK {
+		mcp = fptr(mc)
+	}
+	rest := n - outerAbove - outerBelow
+	if n < esdMinN || rest < 3 {
+		return &Lead{Rule: "tukey-inner", Reason: "symmetric", MC: mcp, Text: w.leadSymmetric(mc, mcOK, n, esdMinN)}
+	}
+	p, large, ok := s.partNormalP(outerBelow, n-outerAbove)
+	if !ok {
+		return &Lead{Rule: "tukey-inner", Reason: "symmetric", MC: mcp, Text: w.leadSymmetric(mc, mcOK, n, esdMinN)}
+	}
+	if p >= restNormalAlpha {
+		return &Lead{Rule: "gesd", Reason: "rest-normal", MC: mcp, Text: w.leadRestNormal(mc, mcOK, p, large, rest)}
+	}
+	return &Lead{Rule: "tukey-inner", Reason: "rest-not-normal", MC: mcp, Text: w.leadRestNotNormal(mc, mcOK, p, large, rest)}
 }
 
 // flagSet collects flags by index with few allocations: each flagged
@@ -240,7 +371,7 @@ func fenceFlags(sorted []float64, nb, na int, lo, hi float64, code string, flags
 func gesdRule(w words, sorted []float64, alpha float64, flags *flagSet) Rule {
 	n := len(sorted)
 	r := method.GESDMaxSuspects(n)
-	rule := Rule{Code: "gesd", Name: w.gesdRule(n >= 3 && r == 1)}
+	rule := Rule{Code: "gesd", Name: w.gesdRule(n >= 3 && r == 1), Plain: w.gesdPlain()}
 	if n < 3 {
 		rule.Note = w.gesdFew()
 		return rule
@@ -249,7 +380,7 @@ func gesdRule(w words, sorted []float64, alpha float64, flags *flagSet) Rule {
 	for i := 0; i < nout; i++ {
 		st := steps[i]
 		if flags.mark(st.Index) {
-			flags.add(st.Index, Flag{Rule: "gesd", Score: st.R, Text: w.gesdFlag(r == 1, i+1, st.R, st.Lambda)})
+			flags.add(st.Index, Flag{Rule: "gesd", Score: st.R, Text: w.gesdFlag(r == 1, i+1, st.R, st.Lambda, alpha)})
 		}
 	}
 	rule.Count = nout

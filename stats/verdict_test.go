@@ -25,7 +25,7 @@ func TestVerdictRules(t *testing.T) {
 		{"17-n20-two-outliers.txt", "median-iqr", "beyond-outer-fence"},
 		{"18-n1000-normal.txt", "mean-sd", "no-far-out"},
 		{"20-n6000-normal.txt", "mean-sd", "no-far-out"},
-		{"13-tiny-n3.txt", "mean-sd", "small-sample"},
+		{"13-tiny-n3.txt", "mean-sd", "few-readings"},
 		// skewness by construction (lognormal, right-skewed, left-skewed sets)
 		{"03-torque-lognormal-n60.txt", "median-iqr", "right-skewed"},
 		{"04-seal-rightskew-n120.txt", "median-iqr", "right-skewed"},
@@ -61,5 +61,32 @@ func TestVerdictRules(t *testing.T) {
 	rep = analyzeFile(t, "../testdata/sets/15-small-n8.txt", Options{})
 	if w := codes(rep.Verdict.Warnings); !strings.Contains(w, "small-sample") {
 		t.Errorf("15: warnings %q", w)
+	}
+}
+
+// One, two and three readings: what the verdict can and cannot say (our
+// rules, documented in verdict): one reading quotes the value alone (no
+// SD), two and three say what they cannot show; no "Only 1 values".
+func TestVerdictFewReadings(t *testing.T) {
+	for _, c := range []struct {
+		text, quote, code, want string
+	}{
+		{"5.02", "value", "single-value", "No spread"},
+		{"5.02\n5.06", "mean-sd", "few-readings", "Two readings"},
+		{"5.02\n5.06\n4.98", "mean-sd", "few-readings", "no test of the shape"},
+	} {
+		rep, err := Analyze(Request{Text: c.text})
+		if err != nil {
+			t.Fatal(err)
+		}
+		v := rep.Verdict
+		if v.Quote != c.quote || len(v.Reasons) == 0 || v.Reasons[0].Code != c.code || !strings.Contains(v.Reasons[0].Text, c.want) {
+			t.Errorf("%q: quote %s reasons %+v; want %s, %s containing %q", c.text, v.Quote, v.Reasons, c.quote, c.code, c.want)
+		}
+		for _, r := range append(append([]Reason{}, v.Reasons...), v.Warnings...) {
+			if strings.Contains(r.Text, "1 values") || strings.Contains(r.Text, "0.0000") || strings.Contains(r.Text, "far-out") && rep.Counts.Used < 4 {
+				t.Errorf("%q: %s: %q", c.text, r.Code, r.Text)
+			}
+		}
 	}
 }

@@ -273,7 +273,15 @@ func (w words) caution() string {
 }
 
 func (w words) reasonSingle() string {
-	return "Only one value: it is the mean and the median; no spread can be estimated."
+	return "One reading: it is its own mean and median, and that is all it can say. No spread (SD, range, IQR), no interval, no shape and no suspect reading can be told from one reading: measure more parts."
+}
+
+// reasonFewReadings: what two or three readings can and cannot show.
+func (w words) reasonFewReadings(n int) string {
+	if n == 2 {
+		return "Two readings: they give a mean and the range between them (the SD is that range divided by √2, a very rough figure). They say nothing about the shape, and no suspect-reading rule can be applied: with two readings neither can be called the odd one."
+	}
+	return "Three readings: they give a mean, a median and a rough SD, but no test of the shape can run, and one reading far from the other two cannot be told apart from real spread (the suspect-reading rules seldom flag anything with so few)."
 }
 
 func (w words) reasonConstant(n int, value float64) string {
@@ -291,6 +299,40 @@ func (w words) reasonSkew(side string, g1, p float64) string {
 		s += ", " + w.p(p)
 	}
 	return s + ")"
+}
+
+// reasonSkewRest: the readings inside the outer fences are side-skewed
+// (G1 g1, p < 0 without a test), far readings left out of that measure.
+func (w words) reasonSkewRest(side string, g1, p float64, far int) string {
+	s := fmt.Sprintf("the data are %s-skewed (G1 = %s without the %d far-out reading%s", side, w.g3(g1), far, plural(far, "", "s"))
+	if p >= 0 {
+		s += ", " + w.p(p)
+	}
+	return s + ")"
+}
+
+// reasonFarOutNotShape: below and above readings beyond the outer fences
+// alone make G1 (g1All) look skewed; the rest has G1 g1Rest.
+func (w words) reasonFarOutNotShape(below, above int, g1All, g1Rest float64) string {
+	k := below + above
+	where := "on opposite sides"
+	switch {
+	case above == 0:
+		where = "below the rest"
+	case below == 0:
+		where = "above the rest"
+	}
+	return fmt.Sprintf("the skewness of all readings (G1 = %s) comes from %s far out %s; the rest is roughly symmetric (G1 = %s without %s)",
+		w.g3(g1All), countWords(k, "reading", "readings"), where, w.g3(g1Rest), plural(k, "it", "them"))
+}
+
+// countWords writes small counts in words ("two readings").
+func countWords(k int, one, many string) string {
+	names := []string{"no", "one", "two", "three", "four", "five", "six", "seven", "eight", "nine", "ten"}
+	if k >= 0 && k < len(names) {
+		return names[k] + " " + plural(k, one, many)
+	}
+	return strconv.Itoa(k) + " " + many
 }
 
 func (w words) reasonBeyondOuter(k int) string {
@@ -322,6 +364,9 @@ func (w words) reasonOutOfRange() string {
 }
 
 func (w words) warnSmallSample(n, want int) string {
+	if n == 1 {
+		return fmt.Sprintf("Only one value: collect %d or more where you can.", want)
+	}
 	return fmt.Sprintf("Only %d values: intervals are wide and the shape is hard to judge; collect %d or more where you can.", n, want)
 }
 
@@ -412,11 +457,18 @@ func (w words) quantileMedian(code string, n int, qmed, median float64) string {
 		code, n, w.shortest(qmed), w.shortest(median), code)
 }
 
-// fenceSensitive: the definitions differ flag other readings than code;
-// rows is rowsWithText's list.
-func (w words) fenceSensitive(differ []string, code, rows string) string {
-	return fmt.Sprintf("Which readings lie beyond Tukey's fences depends on the quantile definition here: %s flag(s) a different set than %s. Readings affected: %s.",
-		strings.Join(differ, ", "), code, rows)
+// differRule: rule (a quartile-based rule code) flags another set under
+// the definitions methods.
+func (w words) differRule(rule string, methods []string) string {
+	name := map[string]string{"tukey-inner": "Tukey's inner fences", "tukey-outer": "Tukey's outer fences", "adjusted-box": "the adjusted box plot"}[rule]
+	return "by " + name + " under " + strings.Join(methods, ", ")
+}
+
+// fenceSensitive: rules (differRule phrases) flag other readings than under
+// code; rows is rowsWithText's list.
+func (w words) fenceSensitive(rules []string, code, rows string) string {
+	return fmt.Sprintf("Which readings are flagged depends on the quartile definition here: compared with %s, another set of readings is flagged %s. Readings affected: %s.",
+		code, strings.Join(rules, " and "), rows)
 }
 
 // ---- Shape ----------------------------------------------------------------
@@ -543,15 +595,29 @@ func (w words) tukeyFlag(below bool, iqrs float64, outer bool) string {
 
 func (w words) adjustedBoxRule() string { return "Adjusted box plot for skewed data" }
 
-func (w words) adjustedBoxFlag(below bool, dist, mc float64) string {
+// adjustedBoxFlag: a reading dist beyond the adjusted lower (below) or
+// upper fence.
+func (w words) adjustedBoxFlag(below bool, dist float64) string {
 	if below {
-		return fmt.Sprintf("%s below the adjusted lower fence (medcouple %s)", w.sig(dist, 3), w.sig(mc, 3))
+		return fmt.Sprintf("%s below the lower fence of the box plot adjusted for skewness", w.sig(dist, 3))
 	}
-	return fmt.Sprintf("%s above the adjusted upper fence (medcouple %s)", w.sig(dist, 3), w.sig(mc, 3))
+	return fmt.Sprintf("%s above the upper fence of the box plot adjusted for skewness", w.sig(dist, 3))
+}
+
+// mcWords explains a medcouple value in words.
+func (w words) mcWords(mc float64) string {
+	side := "the two sides are balanced"
+	switch {
+	case mc > 0:
+		side = "positive: the upper side is the longer"
+	case mc < 0:
+		side = "negative: the lower side is the longer"
+	}
+	return fmt.Sprintf("medcouple %s (a measure of skewness from -1 to 1 that far-out readings hardly move; 0 for symmetric data; %s)", w.sig(mc, 2), side)
 }
 
 func (w words) adjustedBoxNote(mc float64, caption string, zeroIQR bool) string {
-	return fmt.Sprintf("Hubert and Vandervieren (2008): Tukey's %s IQR fences stretched on the long side by the medcouple MC = %s (Brys, Hubert and Struyf 2004); %s.%s", w.mark("1.5"), w.sig(mc, 4), caption, w.zeroIQR(zeroIQR))
+	return fmt.Sprintf("Hubert and Vandervieren (2008): Tukey's %s IQR fences stretched on the long side and pulled in on the short side by the %s (Brys, Hubert and Struyf 2004); %s.%s", w.mark("1.5"), w.mcWords(mc), caption, w.zeroIQR(zeroIQR))
 }
 
 func (w words) adjustedBoxNotApplied() string {
@@ -586,11 +652,11 @@ func (w words) gesdFew() string {
 
 // gesdFlag: step (1-based) of the procedure flagged a reading with
 // statistic r against the critical value lambda; grubbs when one suspect.
-func (w words) gesdFlag(grubbs bool, step int, r, lambda float64) string {
+func (w words) gesdFlag(grubbs bool, step int, r, lambda, alpha float64) string {
 	if grubbs {
-		return fmt.Sprintf("Grubbs' G = %s above the critical %s", w.sig(r, 4), w.sig(lambda, 4))
+		return fmt.Sprintf("%s SDs from the mean (Grubbs' test); normal data of this size go beyond %s SDs only %s of the time", w.sig(r, 3), w.sig(lambda, 3), w.pct(alpha))
 	}
-	return fmt.Sprintf("step %d of the generalized ESD: R = %s, critical %s", step, w.sig(r, 4), w.sig(lambda, 4))
+	return fmt.Sprintf("%s SDs from the mean of the readings left at step %d of the generalized ESD; normal data go beyond %s SDs there only %s of the time", w.sig(r, 3), step, w.sig(lambda, 3), w.pct(alpha))
 }
 
 // gesdNote: at level alpha, up to r suspects; rough when n < 25; stopped
@@ -604,6 +670,82 @@ func (w words) gesdNote(alpha float64, r, n, steps int) string {
 		s += fmt.Sprintf(" Stopped after %d step(s): the remaining values are all equal.", steps)
 	}
 	return s
+}
+
+// Plain names of the rules, for "also flagged by ...".
+func (w words) tukeyPlain(outer bool) string {
+	if outer {
+		return "far out: more than 3 IQR beyond the quartiles (Tukey's outer fences)"
+	}
+	return "more than " + w.mark("1.5") + " IQR beyond the quartiles (Tukey's fences)"
+}
+
+func (w words) adjustedBoxPlain() string {
+	return "beyond the fences of the box plot adjusted for skewness"
+}
+
+func (w words) modifiedZPlain() string {
+	return "far from the median in units of the median absolute deviation (modified z-score)"
+}
+
+func (w words) gesdPlain() string {
+	return "too far from the mean for normal data (generalized ESD test)"
+}
+
+// Why the leading rule leads (Suspects.Lead.Text).
+
+func (w words) leadIQRZero() string {
+	return "Half the readings or more share one value (IQR 0), so fences built on the quartiles would flag every other reading; the count is the generalized ESD test's, which measures distance from the mean in SDs."
+}
+
+func (w words) leadSkewed(mc float64) string {
+	return fmt.Sprintf("The data are clearly skewed (%s), so the count is the box plot adjusted for skewness: it does not flag the long side's ordinary readings as Tukey's fences would.", w.mcWords(mc))
+}
+
+func (w words) leadFewDistinct(mc float64, distinct, want int) string {
+	return fmt.Sprintf("The %s would call the data skewed, but with only %d distinct values (fewer than %d) it cannot be trusted: it jumps between a few values. The count is Tukey's fences (%s IQR beyond the quartiles).", w.mcWords(mc), distinct, want, w.mark("1.5"))
+}
+
+func (w words) leadMCUnstable(mc, spread float64, distinct, n int, step float64) string {
+	return fmt.Sprintf("The %s would call the data skewed, but the readings are rounded to %s with many ties (%d distinct values among %d): with each group of equal readings spread over its rounding interval the medcouple moves to %s: its value here depends on the rounding more than on the process. The count is Tukey's fences (%s IQR beyond the quartiles); the adjusted box plot's other flags are listed as \"also flagged\".", w.mcWords(mc), w.shortest(step), distinct, n, w.sig(spread, 2), w.mark("1.5"))
+}
+
+func (w words) leadSymmetric(mc float64, mcOK bool, n, esdMin int) string {
+	s := "The data are roughly symmetric"
+	if mcOK {
+		s += fmt.Sprintf(" (medcouple %s, within what chance gives)", w.sig(mc, 2))
+	}
+	if n < esdMin {
+		return s + fmt.Sprintf(", and with fewer than %d readings the normality the ESD test needs cannot be checked: the count is Tukey's fences (%s IQR beyond the quartiles).", esdMin, w.mark("1.5"))
+	}
+	return s + fmt.Sprintf(": the count is Tukey's fences (%s IQR beyond the quartiles).", w.mark("1.5"))
+}
+
+// restTest names the normality test of the readings inside the fences.
+func (w words) restTest(large bool, p float64) string {
+	if large {
+		return testOmnibus + " " + w.p(p)
+	}
+	return testShapiro + " " + w.p(p)
+}
+
+func (w words) leadRestNormal(mc float64, mcOK bool, p float64, large bool, rest int) string {
+	s := "The data are roughly symmetric"
+	if mcOK {
+		s += fmt.Sprintf(" (medcouple %s, within what chance gives)", w.sig(mc, 2))
+	}
+	return s + fmt.Sprintf(" and the %d readings inside Tukey's outer fences (3 IQR beyond the quartiles) look normal (%s), so the count is the generalized ESD test's, which asks whether the extremes are too far out for normal data at this sample size.", rest, w.restTest(large, p))
+}
+
+func (w words) leadRestNotNormal(mc float64, mcOK bool, p float64, large bool, rest int) string {
+	s := "The data are roughly symmetric"
+	if mcOK {
+		s += fmt.Sprintf(" (medcouple %s, within what chance gives)", w.sig(mc, 2))
+	}
+	if p >= 0 {
+		s += fmt.Sprintf(", but the %d readings inside Tukey's outer fences (3 IQR beyond the quartiles) do not look normal (%s), which the ESD test assumes", rest, w.restTest(large, p))
+	}
+	return s + fmt.Sprintf(": the count is Tukey's fences (%s IQR beyond the quartiles).", w.mark("1.5"))
 }
 
 func (w words) suspectsMore(flagged, listed int) string {

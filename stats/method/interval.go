@@ -82,3 +82,31 @@ func MedianInterval(n int, conf float64) (k int, level float64, reached bool) {
 }
 
 func intervalStudentT(df float64) distuv.StudentsT { return distuv.StudentsT{Mu: 0, Sigma: 1, Nu: df} }
+
+// MedianIntervalInterpolated is the interpolated order-statistic interval
+// for the median of Hettmansperger and Sheather (1986), "Confidence
+// intervals based on interpolated order statistics", Statistics &
+// Probability Letters 4, 75-79, at exactly the level conf. With k from
+// MedianInterval (γk = 1 - 2·P(B <= k-1) >= conf > γk+1 for B ~
+// Binomial(n, 1/2)), I = (γk - conf)/(γk - γk+1), λ = (n-k)·I/(k + (n-2k)·I)
+// and the limits (1-λ)·x(k) + λ·x(k+1) and (1-λ)·x(n-k+1) + λ·x(n-k)
+// (1-based). ok is false when no interpolation applies (n < 2, conf not
+// reached even by the minimum and maximum, or no narrower pair of order
+// statistics): then use MedianInterval's exact interval.
+func MedianIntervalInterpolated(sorted []float64, conf float64) (lo, hi float64, ok bool) {
+	n := len(sorted)
+	k, gk, reached := MedianInterval(n, conf)
+	if k < 1 || !reached || k+1 > n-k {
+		return 0, 0, false
+	}
+	gk1 := 1 - 2*BinomialHalfCDF(k, n)
+	if !(gk > gk1) {
+		return 0, 0, false
+	}
+	I := (gk - conf) / (gk - gk1)
+	fn, fk := float64(n), float64(k)
+	lambda := (fn - fk) * I / (fk + (fn-2*fk)*I)
+	lo = (1-lambda)*sorted[k-1] + lambda*sorted[k]
+	hi = (1-lambda)*sorted[n-k] + lambda*sorted[n-k-1]
+	return lo, hi, normalFinite(lo) && normalFinite(hi)
+}

@@ -600,3 +600,39 @@ func mcMatrix(sorted []float64, m float64) *imMatrix {
 	}
 	return mx
 }
+
+// MedcoupleTiesSpread is the medcouple (Medcouple) of the data with every
+// run of k equal values spread evenly over its rounding interval: the j-th
+// of them (j = 0..k-1) becomes v + step·((j+½)/k - ½), the midpoints of k
+// equal parts of [v - step/2, v + step/2]. Readings recorded to a step
+// carry that much rounding; on tied, rounded data the medcouple's kernel
+// takes only a few values and the medcouple can jump between them (for
+// example -0.2 on rounded readings of a symmetric distribution), while the
+// spread readings show what the unrounded data could have given. The
+// spreading is our own stability check (not part of Brys, Hubert and Struyf
+// 2004). sorted is ascending on a grid of step (every gap a multiple of
+// step), so the spread values stay in order; ok is false for fewer than 3
+// values or a step that is not positive.
+func MedcoupleTiesSpread(sorted []float64, step float64) (mc float64, ok bool) {
+	n := len(sorted)
+	if n < 3 || !(step > 0) || !normalFinite(step) {
+		return 0, false
+	}
+	x := make([]float64, n)
+	for i := 0; i < n; {
+		j := i + 1
+		for j < n && sorted[j] == sorted[i] {
+			j++
+		}
+		k := float64(j - i)
+		for t := i; t < j; t++ {
+			if j-i == 1 {
+				x[t] = sorted[t]
+			} else {
+				x[t] = sorted[t] + step*((float64(t-i)+0.5)/k-0.5)
+			}
+		}
+		i = j
+	}
+	return Medcouple(x)
+}
