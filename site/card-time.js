@@ -54,7 +54,7 @@ function timeCard(rep) {
     kids.push(el("details", { open: s.signals.length <= 5 ? "" : null, class: "signals" },
       el("summary", { text: s.signals.length + (s.signals.length === 1 ? " signal" : " signals") + (s.signalsCut ? " (first ones listed)" : "") }),
       table(["Check", "Chart", "Where", "Rows or subgroups"], s.signals.map((g) => [
-        (CHECKS.find((c) => c[0] === g.code) || [g.code, g.code])[1], g.chart, g.text.split(": ").slice(1).join(": ") || g.text,
+        g.text.split(": ")[0], g.chart, g.text.split(": ").slice(1).join(": ") || g.text,
         el("span", { "data-code": g.code, text: (g.rows || g.subgroups || []).join(", ") + (g.points > (g.rows || g.subgroups || []).length ? " \u2026" : "") })]), "figs signals-t")));
   } else if (ch) kids.push(el("p", { text: "No signal from any of the checks switched on." }));
   // EWMA, CUSUM, drift, change point
@@ -76,7 +76,9 @@ function timeCard(rep) {
   if (more.length) kids.push(el("details", null, el("summary", { text: "Small shifts, drift and change point" }),
     table(["Test", "Result", "p or run length"], more, "figs drift-t")));
   kids.push(el("details", null, el("summary", { text: "The checks as applied" }),
-    table(["Check", "On", "Signals", "Looks for"], (s.checks || []).map((c) => [c.name, c.on ? "on" : "off", String(c.count), c.text]))));
+    table(["Check", "On", "Signals", "Looks for"], (s.checks || []).map((c) => [c.name, c.on ? "on" : "off", String(c.count), c.text]), "figs checks-t")));
+  // on paper the checks switched off are left out (class off on their rows)
+  kids[kids.length - 1].querySelectorAll(".checks-t tbody tr").forEach((tr, i) => { if (!(s.checks[i] || {}).on) tr.classList.add("off"); });
   kids.push(chartFigure("run", (rep.input.order ? "Run chart: values in the order of " + rep.input.order : "Run chart: values in data order") + " with the median; flagged readings marked."));
   kids.push(helpLinks(LINKS));
   return card("time", "Over time", ...kids);
