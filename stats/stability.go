@@ -980,7 +980,7 @@ func (b *stabBuild) ewmaCusum(x []float64, centre, sigma float64, scale string) 
 	lam, L := orDefault(b.opts.EWMALambda, defaultLambda), orDefault(b.opts.EWMAL, defaultL)
 	k, h := orDefault(b.opts.CUSUMK, defaultK), orDefault(b.opts.CUSUMH, defaultH)
 	b.thin(maxChartPoints)
-	var keepJ []int // judged points drawn, ascending (nil: all)
+	var keepJ []int // judged points drawn, ascending (nil with b.keep nil: all)
 	if b.keep != nil {
 		for _, p := range b.keep {
 			if j, _ := b.atPos(int(p)); j >= 0 {
@@ -988,110 +988,132 @@ func (b *stabBuild) ewmaCusum(x []float64, centre, sigma float64, scale string) 
 			}
 		}
 	}
-	// alarms: a run open while start >= 0; its first points (up to
-	// maxSignalRows + 1) wait in buf, its last in last
-	type alarm struct {
-		j    int
-		a, b float64 // z, or the upper and lower sums
-	}
-	var runs struct {
-		start, side int
-		buf         []alarm
-		last        alarm
-	}
-	// record adds a drawn point and closes runs; add adds an alarm's
-	// points to the drawing
-	scan := func(on bool, code, chart string, out func(j int, v alarm)) func(j int, v alarm, beyond bool, side, start int) {
-		next := 0 // into keepJ
-		runs.start = -1
-		closeRun := func(lastJ int) {
-			if on {
-				b.signals = append(b.signals, stabSig{code: code, chart: chart, side: runs.side, first: runs.start, last: lastJ})
-			}
-			if b.keep != nil && b.flagged < maxChartPoints {
-				pts := runs.buf
-				if lastJ-runs.start+1 > maxSignalRows {
-					pts = []alarm{runs.buf[0], runs.last}
-				}
-				for _, v := range pts {
-					out(v.j, v)
-					b.extra = append(b.extra, int32(b.posOf(v.j)))
-				}
-				b.flagged += len(pts)
-			}
-			runs.start, runs.buf = -1, runs.buf[:0]
-		}
-		return func(j int, v alarm, beyond bool, side, start int) {
-			if keepJ == nil && b.keep == nil {
-				out(j, v)
-			} else {
-				for next < len(keepJ) && keepJ[next] < j {
-					next++
-				}
-				if next < len(keepJ) && keepJ[next] == j {
-					out(j, v)
-				}
-			}
-			if beyond {
-				if runs.start < 0 {
-					runs.start, runs.side = start, side
-				}
-				if len(runs.buf) <= maxSignalRows {
-					runs.buf = append(runs.buf, v)
-				}
-				runs.last = v
-			}
-			if runs.start >= 0 && (!beyond || j == len(x)-1) {
-				lastJ := j - 1
-				if beyond {
-					lastJ = j
-				}
-				closeRun(lastJ)
-			}
-		}
-	}
 	var ewma []EWMAPt
 	lims := method.EWMAChart{Lambda: lam, L: L, Centre: centre, Sigma: sigma}
-	beyond := 0
-	step := scan(b.on[SignalEWMA], SignalEWMA, "ewma", func(j int, v alarm) {
-		lo, hi := lims.Limits(j)
-		ewma = append(ewma, EWMAPt{I: b.posOf(j) + 1, Z: v.a, Lo: lo, Hi: hi})
+	sc := newAlarmScan(b, b.on[SignalEWMA], SignalEWMA, "ewma", keepJ, len(x), func(v alarmPt) {
+		lo, hi := lims.Limits(v.j)
+		ewma = append(ewma, EWMAPt{I: b.posOf(v.j) + 1, Z: v.a, Lo: lo, Hi: hi})
 	})
 	err := method.EWMAScan(x, centre, sigma, lam, L, func(j int, z float64, out bool) {
-		side := 1
-		if z < centre {
-			side = -1
-		}
 		if out {
-			beyond++
+			sc.beyond++
 		}
-		step(j, alarm{j: j, a: z}, out, side, j)
+		if out || j == sc.nextJ || sc.start >= 0 { // else nothing to do here
+			side := 1
+			if z < centre {
+				side = -1
+			}
+			sc.step(alarmPt{j: j, a: z}, out, side, j)
+		}
 	})
 	if err == nil {
-		b.st.EWMA = &EWMAInfo{Lambda: lam, L: L, Scale: scale, Centre: centre, Sigma: sigma, Beyond: beyond, Points: sortedPts(ewma, func(p EWMAPt) int { return p.I }),
+		b.st.EWMA = &EWMAInfo{Lambda: lam, L: L, Scale: scale, Centre: centre, Sigma: sigma, Beyond: sc.beyond, Points: sortedPts(ewma, func(p EWMAPt) int { return p.I }),
 			ARL0: cachedARL("ewma", lam, L, 0), ARL1: cachedARL("ewma", lam, L, 1)}
 	}
 	var cusum []CUSUMPt
-	beyond = 0
 	decision := h * sigma
-	step = scan(b.on[SignalCUSUM], SignalCUSUM, "cusum", func(j int, v alarm) {
-		cusum = append(cusum, CUSUMPt{I: b.posOf(j) + 1, Up: v.a, Down: v.b})
+	sc = newAlarmScan(b, b.on[SignalCUSUM], SignalCUSUM, "cusum", keepJ, len(x), func(v alarmPt) {
+		cusum = append(cusum, CUSUMPt{I: b.posOf(v.j) + 1, Up: v.a, Down: v.b})
 	})
 	err = method.CUSUMScan(x, centre, sigma, k, h, func(j int, up, lo float64, nu, nl int32, out bool) {
-		// the shift began about the point after the sum was last zero
-		side, start := 1, j-int(nu)+1
-		if up <= decision {
-			side, start = -1, j-int(nl)+1
-		}
 		if out {
-			beyond++
+			sc.beyond++
 		}
-		step(j, alarm{j: j, a: up, b: lo}, out, side, max(0, start))
+		if out || j == sc.nextJ || sc.start >= 0 {
+			// the shift began about the point after the sum was last zero
+			side, start := 1, j-int(nu)+1
+			if up <= decision {
+				side, start = -1, j-int(nl)+1
+			}
+			sc.step(alarmPt{j: j, a: up, b: lo}, out, side, max(0, start))
+		}
 	})
 	if err == nil {
-		b.st.CUSUM = &CUSUMInfo{K: k, H: h, Scale: scale, Centre: centre, Sigma: sigma, Decision: decision, Beyond: beyond, Points: sortedPts(cusum, func(p CUSUMPt) int { return p.I }),
+		b.st.CUSUM = &CUSUMInfo{K: k, H: h, Scale: scale, Centre: centre, Sigma: sigma, Decision: decision, Beyond: sc.beyond, Points: sortedPts(cusum, func(p CUSUMPt) int { return p.I }),
 			ARL0: cachedARL("cusum", k, h, 0), ARL1: cachedARL("cusum", k, h, 1)}
 	}
+}
+
+// alarmPt is one point of an EWMA or CUSUM scan: its judged index and
+// values (the average, or the upper and lower sums).
+type alarmPt struct {
+	j    int
+	a, b float64
+}
+
+// alarmScan follows one EWMA or CUSUM scan: it records the points drawn
+// (keepJ, or every point when b.keep is nil) and turns each run of alarms
+// into a signal, whose first points (up to maxSignalRows + 1) wait in buf.
+type alarmScan struct {
+	b           *stabBuild
+	on          bool
+	code, chart string
+	keepJ       []int
+	next        int // into keepJ
+	nextJ       int // the next judged point to record, -1 for none
+	n           int
+	start, side int // the run of alarms open while start >= 0
+	buf         []alarmPt
+	last        alarmPt
+	beyond      int
+	out         func(v alarmPt)
+}
+
+func newAlarmScan(b *stabBuild, on bool, code, chart string, keepJ []int, n int, out func(v alarmPt)) *alarmScan {
+	sc := &alarmScan{b: b, on: on, code: code, chart: chart, keepJ: keepJ, n: n, start: -1, out: out, nextJ: -1}
+	switch {
+	case b.keep == nil:
+		sc.nextJ = 0 // every point
+	case len(keepJ) > 0:
+		sc.nextJ = keepJ[0]
+	}
+	return sc
+}
+
+func (sc *alarmScan) step(v alarmPt, beyond bool, side, start int) {
+	b, j := sc.b, v.j
+	if j == sc.nextJ {
+		sc.out(v)
+		if b.keep == nil {
+			sc.nextJ = j + 1
+		} else if sc.next++; sc.next < len(sc.keepJ) {
+			sc.nextJ = sc.keepJ[sc.next]
+		} else {
+			sc.nextJ = -1
+		}
+	}
+	if beyond {
+		if sc.start < 0 {
+			sc.start, sc.side = start, side
+		}
+		if len(sc.buf) <= maxSignalRows {
+			sc.buf = append(sc.buf, v)
+		}
+		sc.last = v
+	}
+	if sc.start < 0 || (beyond && j < sc.n-1) {
+		return
+	}
+	// the run closes at the point before (or at the last point)
+	lastJ := j - 1
+	if beyond {
+		lastJ = j
+	}
+	if sc.on {
+		b.signals = append(b.signals, stabSig{code: sc.code, chart: sc.chart, side: sc.side, first: sc.start, last: lastJ})
+	}
+	if b.keep != nil && b.flagged < maxChartPoints {
+		pts := sc.buf
+		if lastJ-sc.start+1 > maxSignalRows {
+			pts = []alarmPt{sc.buf[0], sc.last}
+		}
+		for _, p := range pts {
+			sc.out(p)
+			b.extra = append(b.extra, int32(b.posOf(p.j)))
+		}
+		b.flagged += len(pts)
+	}
+	sc.start, sc.buf = -1, sc.buf[:0]
 }
 
 // sortedPts orders points by position, one per position.
