@@ -48,7 +48,7 @@ deps-browser: ## Chromium, and pdftotext (poppler-utils) for the print test, fro
 	  fi; \
 	fi
 
-test-worker: deps-node dist ## the edge worker under workerd (wrangler dev) checked over HTTP; the reproducible-build and local-server tests
+test-worker: deps-node deps-browser dist ## the edge worker under workerd (wrangler dev) checked over HTTP, the stored link in headless Chromium against it; the reproducible-build and local-server tests
 	$(GO) run ./build worker -dir dist
 	LOTLENS_WORKER_TEST=1 $(GO) test -count=1 ./build/...
 

@@ -4,7 +4,7 @@
 // intervals and the sample sizes, as the engine reports them. Nothing is
 // computed here but the display of ppm.
 import { el, num, pct, comma, table, helpLinks, withUnit, missing } from "./dom.js";
-import { addCard, card, testRows } from "./card-kit.js";
+import { addCard, card, testRows, chartFigure } from "./card-kit.js";
 
 // ppm writes a fraction given in ppm: ppm below 1 %, a percentage above.
 function ppm(v) {
@@ -50,6 +50,8 @@ function specSection(rep) {
   if (!sp) return [el("p", { class: "missing", text: "The comparison with the limits could not be computed for these readings; see the notes." })];
   const out = [];
   out.push(el("p", { class: "lead-small spec-statement", text: sp.statement }));
+  out.push(chartFigure("spec", "Readings per bin against the limits, with the fitted curves."));
+  out.push(chartFigure("spec-spread", "Spread of the process against the tolerance."));
 
   // What is outside now.
   const o = sp.observed;

@@ -17,8 +17,8 @@ function verdictCard(rep) {
   }
   kids.push(el("p", { class: "basis", text: count(rep.counts.used, "value") + " used" +
     (rep.counts.excluded ? ", " + rep.counts.excluded + " left out by you" : "") +
-    (rep.counts.rejected ? ", " + count(rep.counts.rejected, "cell") + " not numbers" : "") +
-    (rep.counts.missing ? ", " + rep.counts.missing + " empty" : "") + "." }));
+    (rep.counts.rejected ? ", " + count(rep.counts.rejected, "cell") + (rep.counts.rejected === 1 ? " not a number" : " not numbers") : "") +
+    (rep.counts.missing ? ", " + rep.counts.missing + " empty or marked missing" : "") + "." }));
   if (v.reasons && v.reasons.length) kids.push(el("ul", { class: "reasons" }, ...v.reasons.map((r) => el("li", { "data-code": r.code, text: r.text }))));
   if (v.warnings && v.warnings.length) kids.push(el("ul", { class: "warnings", "aria-label": "Warnings" }, ...v.warnings.map((r) => el("li", { "data-code": r.code }, el("strong", { text: "Warning: " }), r.text))));
   kids.push(el("p", { class: "caution" }, el("strong", { text: "Caution: " }),

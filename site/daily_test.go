@@ -209,6 +209,11 @@ func TestDailyFlow(t *testing.T) {
 		if !strings.Contains(head, "row 5 (6.40; reason: "+why+")") || !strings.Contains(list, why) {
 			t.Errorf("print header %q / list %q lack the reason", head, list)
 		}
+		var sent string
+		s.run(t, chromedp.Evaluate(`lotlens.shownReport() || ""`, &sent))
+		if !strings.Contains(sent, `"reason":"`+why+`"`) {
+			t.Errorf("the report shown does not echo the reason in settings.excluded: %.400s", sent)
+		}
 		// the summary and the CSV carry it too
 		var copied string
 		s.run(t, chromedp.Evaluate(`navigator.clipboard.writeText = (t) => { window.__copied = t; return Promise.resolve() }; true`, nil),
@@ -229,6 +234,58 @@ func TestDailyFlow(t *testing.T) {
 			chromedp.Evaluate(`document.getElementById("print-head").textContent`, &head))
 		if value != why || !strings.Contains(head, why) {
 			t.Errorf("opened from the link: reason field %q, print header %q; want %q in both", value, head, why)
+		}
+		// the reason came back in the report (settings.excluded[].reason),
+		// the very report the sender showed
+		var got string
+		s.run(t, chromedp.Evaluate(`lotlens.shownReport() || ""`, &got))
+		if got != sent {
+			t.Errorf("the report opened from the link differs from the sender's:\n%.400s\n%.400s", got, sent)
+		}
+	})
+
+	t.Run("decimal-mark trouble in the verdict, one count of unused cells", func(t *testing.T) {
+		s.open(t)
+		// invented: row 3 a comma among points, row 4 NA, row 5 empty, row 6
+		// text, row 8 an empty label; by construction 4 values used, 2 cells
+		// not numbers, 2 empty or marked missing (stats.TestUnusedCellsAgree
+		// reads the same data)
+		text := "Line\tTorque\nA\t12.31\nB\t12,35\nA\tNA\nB\t\nA\tabc\nB\t12.40\n\t12.33\nA\t12.36\n"
+		s.run(t, paste(text), analysed(1))
+		s.state(t)
+		var warn, basis, heading, counts string
+		s.eval(t, `(document.querySelector('#card-verdict li[data-code="mixed-decimal-marks"]') || {}).textContent || ""`, &warn)
+		s.eval(t, `document.querySelector("#card-verdict .basis").textContent`, &basis)
+		s.eval(t, `document.querySelector("#card-data details.problems summary").textContent`, &heading)
+		s.eval(t, `document.querySelector("#card-data table.kv").textContent`, &counts)
+		if !strings.Contains(warn, "1 value of \"Torque\" was left out") || !strings.Contains(warn, "other 4 values") {
+			t.Errorf("verdict warning %q", warn)
+		}
+		if !strings.Contains(basis, "4 values used, 2 cells not numbers, 2 empty or marked missing") {
+			t.Errorf("verdict basis %q", basis)
+		}
+		if !strings.HasPrefix(heading, "4 cells of \u201cTorque\u201d not used (2 not numbers, 2 empty or marked missing)") {
+			t.Errorf("data card heading %q", heading)
+		}
+		if !strings.Contains(counts, "Cells not numbers2") || !strings.Contains(counts, "Empty or marked missing2") {
+			t.Errorf("data card counts %q", counts)
+		}
+		// "1,234"-like values read by the default decimal comma: warned in
+		// the verdict until a decimal mark is chosen
+		s.run(t, paste("Gap (mm)\n1,234\n1,256\n1,301\n1,199\n1,245\n1,262\n"), analysed(2))
+		s.state(t)
+		s.eval(t, `(document.querySelector('#card-verdict li[data-code="ambiguous-decimal-mark"]') || {}).textContent || ""`, &warn)
+		if !strings.Contains(warn, "read with a decimal comma") || !strings.Contains(warn, "1\u00a0000 times larger") {
+			t.Errorf("ambiguous warning %q", warn)
+		}
+		n := s.analysedCount(t)
+		s.run(t, chromedp.Evaluate(`(() => { const e = document.getElementById("decimal-mark"); e.value = "point"; e.dispatchEvent(new Event("change", {bubbles: true})); return true })()`, nil),
+			analysed(n+1))
+		s.state(t)
+		var still bool
+		s.eval(t, `!!document.querySelector('#card-verdict li[data-code="ambiguous-decimal-mark"]')`, &still)
+		if still {
+			t.Error("the warning stays after choosing the decimal point")
 		}
 	})
 

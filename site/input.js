@@ -23,7 +23,10 @@ export function readSettings() {
   if ($("decimal-mark").value) o.decimalMark = $("decimal-mark").value;
   const errs = [];
   let field = "";
-  const bad = (id) => { $(id).setAttribute("aria-invalid", "true"); if (!field) field = id; };
+  const bad = (id) => {
+    $(id).setAttribute("aria-invalid", "true"); if (!field) field = id;
+    const d = $(id).closest("details"); if (d) d.open = true; // the field to fix must be in view
+  };
   for (const [id, key, label] of [["target", "target", "Target"], ["lsl", "lsl", "LSL"], ["usl", "usl", "USL"]]) {
     const v = parseNum($(id).value);
     $(id).removeAttribute("aria-invalid");
@@ -33,6 +36,28 @@ export function readSettings() {
   }
   if (o.lsl !== undefined && o.usl !== undefined && !(o.lsl < o.usl)) {
     errs.push("LSL (" + $("lsl").value.trim() + ") must be below USL (" + $("usl").value.trim() + ")."); bad("lsl"); bad("usl");
+  }
+  // the spec section's settings: coverage typed in percent, the Cpk goal,
+  // and the within-process sigma where it fits the columns chosen
+  for (const [id, key, label, ok, hint, scale] of [
+    ["coverage", "coverage", "Coverage", (v) => v >= 50 && v < 100, "a percentage from 50 to below 100, e.g. 99", 100],
+    ["cpk-goal", "cpkGoal", "Cpk goal", (v) => v > 0 && v <= 10, "a number above 0 and at most 10, e.g. 1.33", 1]]) {
+    const v = parseNum($(id).value);
+    $(id).removeAttribute("aria-invalid");
+    if (v === null) continue;
+    if (isNaN(v) || !ok(v)) { errs.push(label + " “" + $(id).value + "”: type " + hint + "."); bad(id); continue; }
+    o[key] = scale === 100 ? Number((v / 100).toPrecision(12)) : v;
+  }
+  const ws = $("within-sigma");
+  const fits = state.cols.subgroup ? "subgroups" : "individuals";
+  for (const opt of ws.options) opt.disabled = !!opt.dataset.for && opt.dataset.for !== fits;
+  ws.removeAttribute("aria-invalid");
+  if (ws.value) {
+    const opt = ws.options[ws.selectedIndex];
+    if (opt.dataset.for && opt.dataset.for !== fits) {
+      errs.push("Within-process sigma “" + opt.text + "” " + (fits === "subgroups" ? "works on individual readings, but a subgroup column is chosen: choose a subgroup estimator or clear the subgroup column." : "needs a subgroup column: choose one under Columns, or an estimator for individual readings."));
+      bad("within-sigma");
+    } else o.withinSigma = ws.value;
   }
   const lo = $("leave-out").value.trim();
   $("leave-out").removeAttribute("aria-invalid");
@@ -52,6 +77,14 @@ export function readSettings() {
   const u = $("unit").value.trim();
   if (u) o.unit = u;
   if (state.exclude.size) o.exclude = Array.from(state.exclude).sort((a, b) => a - b);
+  // the reasons typed for rows left out travel with the request: the
+  // report echoes them (settings.excluded[].reason) and a link carries them
+  const why = {};
+  for (const r of o.exclude || []) {
+    const t = ((state.reasons && state.reasons.get(r)) || "").trim();
+    if (t) why[String(r)] = t;
+  }
+  if (Object.keys(why).length) o.excludeReasons = why;
   const box = $("settings-error");
   box.hidden = !errs.length;
   box.textContent = errs.join(" ");
@@ -335,7 +368,14 @@ function toggleExclude(row) {
   $("leave-out").value = state.leaveOutText;
   analyseNow(undefined, { focus });
 }
-function reasonChanged() {
+function reasonChanged(row) {
+  // the report shown echoes the reason as the engine will on the next run
+  // (settings.excluded[].reason), so its JSON, a link and the print agree
+  const why = ((state.reasons && state.reasons.get(row)) || "").trim();
+  for (const r of (state.report && state.report.settings && state.report.settings.excluded) || []) {
+    if (r.row !== row) continue;
+    if (why) r.reason = why; else delete r.reason;
+  }
   refreshPrintHead();
   renderExclusions();
 }
@@ -413,11 +453,11 @@ window.addEventListener("drop", (ev) => ev.preventDefault());
 
 // Settings: re-run the analysis only (a file is never read again).
 let settingsTimer = null;
-for (const id of ["unit", "target", "lsl", "usl", "leave-out"]) $(id).addEventListener("input", () => {
+for (const id of ["unit", "target", "lsl", "usl", "coverage", "cpk-goal", "leave-out"]) $(id).addEventListener("input", () => {
   clearTimeout(settingsTimer);
   settingsTimer = setTimeout(() => { if (state.source) analyseNow(); }, 400);
 });
-for (const id of ["confidence", "quantile", "decimal-mark"]) $(id).addEventListener("change", () => { if (state.source) analyseNow(); });
+for (const id of ["confidence", "quantile", "decimal-mark", "within-sigma"]) $(id).addEventListener("change", () => { if (state.source) analyseNow(); });
 fillOverTimeSettings(() => { clearTimeout(settingsTimer); settingsTimer = setTimeout(() => { if (state.source) analyseNow(); }, 400); });
 $("precision").addEventListener("change", (ev) => { state.full = ev.target.checked; if (state.report) render(); });
 

@@ -25,19 +25,11 @@ const WARN_CHARS = 8000;  // the engine marks links from here as long (bridge.Li
 
 // ---------- making ----------
 
-function reasonsObject() {
-  const r = state.reasons;
-  if (!r) return undefined;
-  const o = {};
-  for (const [k, v] of r instanceof Map ? r : Object.entries(r)) if (v) o[String(k)] = String(v);
-  return Object.keys(o).length ? o : undefined;
-}
-
 // payload asks the engine for the analysis shown as a payload of the given
 // form ("link", "file", "bytes"). It rejects with the engine's message.
 async function payload(request, form) {
   const m = await call({ type: "share", form, share: {
-    request, useTable: state.source === "file", reasons: reasonsObject(),
+    request, useTable: state.source === "file",
     name: state.source === "text" ? (state.sourceName || "") : "", created: Math.floor(Date.now() / 1000),
   } });
   const res = JSON.parse(m.json);
@@ -158,11 +150,16 @@ function apply(sh, rep, svg, how) {
   state.exclude = new Set(o.exclude || []);
   state.leaveOutRows = []; state.leaveOutText = ""; $("leave-out").value = "";
   state.cols = { value: sh.value || "", group: sh.group || "", order: sh.order || "", subgroup: sh.subgroup || "" };
-  state.reasons = new Map(Object.entries(sh.reasons || {}).map(([k, v]) => [Number(k), v]));
+  // the reasons come back with the report: settings.excluded[].reason
+  state.reasons = new Map();
+  for (const r of (rep.settings && rep.settings.excluded) || []) if (r.reason) state.reasons.set(r.row, r.reason);
   // settings the page has no field for travel on with the data
   state.carried = {};
-  for (const k of ["populationSD", "withinSigma", "coverage", "cpkGoal"]) if (o[k] !== undefined) state.carried[k] = o[k];
+  if (o.populationSD !== undefined) state.carried.populationSD = o.populationSD;
   $("unit").value = o.unit || "";
+  $("coverage").value = o.coverage ? String(Number((o.coverage * 100).toPrecision(12))) : "99";
+  $("cpk-goal").value = o.cpkGoal ? String(o.cpkGoal) : "1.33";
+  $("within-sigma").value = o.withinSigma || "";
   for (const k of ["target", "lsl", "usl"]) $(k).value = o[k] !== undefined && o[k] !== null ? String(o[k]) : "";
   setSelect("confidence", o.confidence);
   setSelect("quantile", o.quantile);

@@ -1,6 +1,7 @@
 // Service worker: keeps a copy of the app so that, after the first visit, the
 // page loads and works with the network off. It caches only this site's own
-// files and never sends anything anywhere.
+// files (never a stored copy of a shared analysis) and never sends anything
+// anywhere.
 // The build replaces __LOTLENS_BUILD__ with a build id and the asset list
 // below with every file in dist/ (root-relative URLs).
 "use strict";
@@ -33,6 +34,11 @@ self.addEventListener("fetch", (ev) => {
   if (req.method !== "GET") return;
   const url = new URL(req.url);
   if (url.origin !== self.location.origin) return;
+  // Stored copies (api/share, api/share/<id>) and their links (s/<id>) go to
+  // the network untouched: a deleted copy must not open from a cache, and
+  // nothing of a copy is kept on this device.
+  const path = url.pathname.slice(new URL(self.registration.scope).pathname.length);
+  if (path === "api/share" || path.startsWith("api/share/") || path.startsWith("s/")) return;
   ev.respondWith((async () => {
     const c = await caches.open(CACHE);
     if (req.mode === "navigate") {

@@ -12,7 +12,9 @@ import (
 	"math"
 	"reflect"
 	"slices"
+	"strconv"
 	"strings"
+	"unicode/utf8"
 
 	"lotlens/stats/ingest"
 )
@@ -86,6 +88,15 @@ func AnalyzeTable(tab *ingest.Table, fingerprint string, req Request) (*Report, 
 		text: col.Text, decimalComma: col.DecimalComma,
 		missing: col.Missing, bad: col.Bad,
 		order: cols.order, subgroup: cols.subgroup,
+		// read by the default mark though "1,234" could mean either
+		ambiguous: col.AmbiguousDecimal && req.Options.DecimalMark == "",
+	}
+	if col.MixedDecimal {
+		for _, p := range tab.Problems {
+			if p.Kind == ingest.KindDecimalMark && p.Column == col.Name {
+				cv.mixedDropped++
+			}
+		}
 	}
 	infos := make([]ingest.ColumnInfo, len(tab.Columns))
 	for i, c := range tab.Columns {
@@ -94,7 +105,13 @@ func AnalyzeTable(tab *ingest.Table, fingerprint string, req Request) (*Report, 
 	rep := newReport(fingerprint, cv, opts)
 	w := wordsFor(rep)
 	rep.Input.Columns = infos
-	rep.Input.Summary = tab.Summary()
+	// The summary speaks for the value column, so that its counts are the
+	// report's (counts.used + excluded, rejected, missing); cells of other
+	// columns are only counted.
+	rep.Input.Summary = tab.ColumnSummary(col)
+	if k := otherColumnCells(tab, col.Name); k > 0 {
+		rep.Input.Summary += w.otherColumnsCells(k)
+	}
 	rep.Input.Reader = readerDecisions(tab)
 	// clipped: appending to the report's list must never write into the
 	// reader's array (the page analyses one table many times)
@@ -120,6 +137,22 @@ func AnalyzeTable(tab *ingest.Table, fingerprint string, req Request) (*Report, 
 	return rep, nil
 }
 
+// otherColumnCells counts the listed cells of columns other than the value
+// column that are empty or not readable.
+func otherColumnCells(tab *ingest.Table, value string) int {
+	k := 0
+	for _, p := range tab.Problems {
+		if p.Row <= 0 || p.Column == value {
+			continue
+		}
+		switch p.Kind {
+		case ingest.KindMissing, ingest.KindNotNumber, ingest.KindDecimalMark, ingest.KindUnit, ingest.KindNotTime:
+			k++
+		}
+	}
+	return k
+}
+
 // colView is the value column as the engine sees it, whichever way it came.
 type colView struct {
 	name, unit     string
@@ -131,6 +164,11 @@ type colView struct {
 	missing, bad   int
 	extraProblems  []ingest.Problem
 	excludedByUser map[int32]bool
+	// ambiguous: the column's decimals all looked like "1,234" and were
+	// read by the default mark (no Options.DecimalMark); mixedDropped: the
+	// cells left out for the column's other decimal mark.
+	ambiguous    bool
+	mixedDropped int
 	// seq is the order of the cells for the series over time (indices
 	// into vals), from the request's order column; nil means row order.
 	seq        []int32
@@ -190,6 +228,10 @@ func pickColumn(tab *ingest.Table, name string) (*ingest.Column, error) {
 	return nil, errorf(CodeNoData, "value", "no column holds numbers: paste or drop a column of measurements (one value a line, or a table with a header row)")
 }
 
+// MaxReasonChars is the longest reason for a left-out row
+// (Options.ExcludeReasons), in characters.
+const MaxReasonChars = 2000
+
 // checkOptions fills defaults and rejects impossible settings with a clear
 // message.
 func checkOptions(o Options) (Options, error) {
@@ -239,6 +281,26 @@ func checkOptions(o Options) (Options, error) {
 	}
 	if err := checkStabilityOptions(o); err != nil {
 		return o, err
+	}
+	if len(o.ExcludeReasons) > 0 {
+		in := make(map[int]bool, len(o.Exclude))
+		for _, r := range o.Exclude {
+			in[r] = true
+		}
+		rows := make([]int, 0, len(o.ExcludeReasons))
+		for r := range o.ExcludeReasons {
+			rows = append(rows, r)
+		}
+		slices.Sort(rows) // the first offending row, the same on every run
+		for _, r := range rows {
+			field := "options.excludeReasons." + strconv.Itoa(r)
+			if !in[r] {
+				return o, errorf(CodeBadOption, field, "row %d has a reason but is not left out: add it to options.exclude or drop its reason", r)
+			}
+			if c := utf8.RuneCountInString(o.ExcludeReasons[r]); c > MaxReasonChars {
+				return o, errorf(CodeBadOption, field, "the reason for row %d has %d characters: shorten it to at most %d", r, c, MaxReasonChars)
+			}
+		}
 	}
 	if o.LSL != nil && o.USL != nil && *o.LSL >= *o.USL {
 		return o, errorf(CodeBadOption, "options.lsl", "the lower specification limit %s is not below the upper limit %s: swap them or correct one", plainNum(*o.LSL), plainNum(*o.USL))

@@ -47,7 +47,7 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 		}
 		if excl != nil && excl[rows[i]] {
 			found[rows[i]] = true
-			rep.Settings.Excluded = append(rep.Settings.Excluded, Reading{Row: int(rows[i]), Column: cv.name, Text: cv.text(i), Value: x})
+			rep.Settings.Excluded = append(rep.Settings.Excluded, Reading{Row: int(rows[i]), Column: cv.name, Text: cv.text(i), Value: x, Reason: opts.ExcludeReasons[int(rows[i])]})
 			continue
 		}
 		xs = append(xs, x)
@@ -188,6 +188,7 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 
 	inner, outer := fenceCounts(s)
 	verdict(rep, w, opts, n, s.constant, maxRun, distinct, step, inner, outer, restSkewOf(s))
+	decimalMarkWarnings(rep, w, cv, n)
 	guardFinite(rep)
 }
 

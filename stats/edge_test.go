@@ -186,6 +186,19 @@ func TestExclusions(t *testing.T) {
 	if !noted {
 		t.Errorf("row 99 not noted: %+v", rep.Notes)
 	}
+	// a reason is echoed with its reading, and only with it (invented reasons)
+	why := strings.Repeat("ü", MaxReasonChars) // the longest accepted: characters, not bytes
+	rep, err = Analyze(Request{Text: text, Options: Options{Exclude: []int{2, 4}, ExcludeReasons: map[int]string{4: "gauge dropped", 2: why}}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if ex := rep.Settings.Excluded; len(ex) != 2 || ex[0].Row != 2 || ex[0].Reason != why || ex[1].Row != 4 || ex[1].Reason != "gauge dropped" {
+		t.Errorf("excluded with reasons %+v", ex)
+	}
+	b, _ := json.Marshal(Reading{Row: 3})
+	if strings.Contains(string(b), "reason") {
+		t.Errorf("an empty reason is written: %s", b)
+	}
 	// all excluded: a report, no figures, the exclusions listed
 	rep, err = Analyze(Request{Text: lines("1", "2"), Options: Options{Exclude: []int{1, 2}}})
 	if err != nil {

@@ -64,6 +64,10 @@ type Options struct {
 	// Exclude lists rows (as in Cell.Row) the user chose to leave out. They
 	// are listed in the report; nothing is ever deleted.
 	Exclude []int `json:"exclude,omitempty"`
+	// ExcludeReasons holds the user's reason for leaving a row out (row ->
+	// text, at most MaxReasonChars characters); every row must also be in
+	// Exclude. Echoed in Settings.Excluded[].Reason.
+	ExcludeReasons map[int]string `json:"excludeReasons,omitempty"`
 	// DecimalComma forces the decimal mark for ambiguous columns: "" (auto),
 	// "comma" or "point".
 	DecimalMark string `json:"decimalMark,omitempty"`
@@ -127,7 +131,11 @@ type Input struct {
 	Unit  string `json:"unit,omitempty"`
 	// Columns are all columns the reader found, for the page's pickers.
 	Columns []ingest.ColumnInfo `json:"columns,omitempty"`
-	// Summary is one line, e.g. "498 values read; 2 cells not numbers (rows 17, 203); 1 empty".
+	// Summary is one line about the value column, e.g. "498 values read; 2
+	// cells not numbers (rows 17, 203); 1 empty": its counts are Counts'
+	// (values read = used + excluded; not numbers = rejected; empty +
+	// marked missing = missing); cells of other columns are only counted
+	// at the end ("; other columns: 3 cells empty or not readable").
 	Summary  string           `json:"summary"`
 	Problems []ingest.Problem `json:"problems,omitempty"`
 	// DecimalComma is true when the value column used a decimal comma: the
@@ -174,6 +182,9 @@ type Reading struct {
 	Column string  `json:"column"`
 	Text   string  `json:"text"`
 	Value  float64 `json:"value"`
+	// Reason is the user's reason for leaving the reading out
+	// (Options.ExcludeReasons); only in Settings.Excluded.
+	Reason string `json:"reason,omitempty"`
 }
 
 // Interval is a two-sided confidence interval.

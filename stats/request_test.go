@@ -31,6 +31,11 @@ func TestParseRequestStrict(t *testing.T) {
 		{`{"text":"1\n2","cells":[{"row":1,"text":"3"}]}`, CodeBadRequest, "cells", "both text and cells"},
 		{`{"text":"1\n2","options":{"decimalMark":"dot"}}`, CodeBadOption, "options.decimalMark", "not known"},
 		{`{"text":"1\n2","options":{"confidence":1.5}}`, CodeBadOption, "options.confidence", "between 0 and 1"},
+		{`{"text":"1\n2\n3","options":{"exclude":[2],"excludeReasons":{"3":"gauge dropped"}}}`, CodeBadOption, "options.excludeReasons.3", "not left out"},
+		{`{"text":"1\n2\n3","options":{"excludeReasons":{"2":"x"}}}`, CodeBadOption, "options.excludeReasons.2", "not left out"},
+		{`{"text":"1\n2\n3","options":{"exclude":[2],"excludeReasons":{"2":"` + strings.Repeat("ü", MaxReasonChars+1) + `"}}}`, CodeBadOption, "options.excludeReasons.2", "2001 characters"},
+		{`{"text":"1\n2\n3","options":{"exclude":[2],"excludeReasons":{"row 2":"x"}}}`, CodeBadRequest, "options.excludeReasons", ""},
+		{`{"text":"1\n2\n3","options":{"exclude":[2],"excludeReasons":["x"]}}`, CodeBadRequest, "options.excludeReasons", ""},
 	}
 	for _, c := range cases {
 		var e struct{ Error, Code, Field string }

@@ -47,6 +47,18 @@ type Spec struct {
 	// Cautions: what limits the figures (few readings, an unstable
 	// process, non-normal data, coarse resolution, safety).
 	Cautions []Reason `json:"cautions"`
+	// Curves: the fitted densities for the chart, one per model of
+	// Expected ("normal-within", "normal-overall", the chosen family),
+	// each at specCurvePoints evenly spaced values.
+	Curves []SpecCurve `json:"curves,omitempty"`
+}
+
+// SpecCurve is one fitted density sampled for drawing: Density[i] is the
+// density (per unit of the value) at X[i].
+type SpecCurve struct {
+	Model   string    `json:"model"`
+	X       []float64 `json:"x"`
+	Density []float64 `json:"density"`
 }
 
 // SpecObserved counts the readings outside the limits with exact binomial
@@ -184,6 +196,8 @@ const (
 	// specFitMax bounds the values the distributions are fitted to (see
 	// thinSorted): 1M distinct values took seconds to fit natively.
 	specFitMax = 20_000
+	// specCurvePoints: points per drawn density curve.
+	specCurvePoints = 101
 )
 
 // thinSorted returns m evenly spaced order statistics of sorted (the
@@ -397,10 +411,83 @@ func buildSpec(w words, in specInput, opts Options) (*Spec, []Note) {
 	ss.DistributionFree1, _ = method.DistFreeSampleSize(0, 1, coverage, conf)
 	sp.SampleSize = ss
 
+	sp.Curves = specCurves(in, sigW, fit, lsl, usl, opts.Target)
+
 	// Cautions.
 	sp.Cautions = specCautions(w, sp, in, opts, n)
 	sp.Statement = specStatement(w, sp, opts)
 	return sp, notes
+}
+
+// specCurves samples the densities of the normal with the within sigma,
+// the normal with the overall SD and the chosen non-normal fit over the
+// readings, the limits and the target (widened by 5 % each side), for the
+// chart. A fitted family's density is the difference quotient of its CDF
+// over a hundredth of a step, which stays finite where the density itself
+// is not (a threshold with shape below 1).
+func specCurves(in specInput, sigW float64, fit *method.FitResult, lsl, usl float64, target *float64) []SpecCurve {
+	n := len(in.sorted)
+	if n < 2 {
+		return nil
+	}
+	vals := []float64{in.sorted[0], in.sorted[n-1], lsl, usl}
+	if target != nil {
+		vals = append(vals, *target)
+	}
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, v := range vals {
+		if !math.IsNaN(v) && !math.IsInf(v, 0) {
+			lo, hi = math.Min(lo, v), math.Max(hi, v)
+		}
+	}
+	if !(hi > lo) {
+		return nil
+	}
+	d := (hi - lo) * 0.05
+	lo, hi = lo-d, hi+d
+	step := (hi - lo) / (specCurvePoints - 1)
+	xs := make([]float64, specCurvePoints)
+	for i := range xs {
+		xs[i] = lo + step*float64(i)
+	}
+	curve := func(model string, dens func(x float64) float64) (SpecCurve, bool) {
+		c := SpecCurve{Model: model, X: xs, Density: make([]float64, len(xs))}
+		for i, x := range xs {
+			v := dens(x)
+			if math.IsNaN(v) || math.IsInf(v, 0) || v < 0 {
+				return c, false
+			}
+			c.Density[i] = v
+		}
+		return c, true
+	}
+	normal := func(mu, sigma float64) func(float64) float64 {
+		return func(x float64) float64 {
+			z := (x - mu) / sigma
+			return math.Exp(-z*z/2) / (sigma * math.Sqrt(2*math.Pi))
+		}
+	}
+	var out []SpecCurve
+	if sigW > 0 && !math.IsInf(sigW, 0) {
+		if c, ok := curve("normal-within", normal(in.mean, sigW)); ok {
+			out = append(out, c)
+		}
+	}
+	if in.sd > 0 && !math.IsInf(in.sd, 0) {
+		if c, ok := curve("normal-overall", normal(in.mean, in.sd)); ok {
+			out = append(out, c)
+		}
+	}
+	if fit != nil && fit.Chosen >= 0 && fit.Candidates[fit.Chosen].Family != method.FitNormal {
+		fc := fit.Candidates[fit.Chosen]
+		h := step / 100
+		if c, ok := curve(fc.Family, func(x float64) float64 {
+			return (fc.CDF(x+h) - fc.CDF(x-h)) / (2 * h)
+		}); ok {
+			out = append(out, c)
+		}
+	}
+	return out
 }
 
 // specCounts counts the sorted readings below lsl and above usl (NaN: no

@@ -221,3 +221,21 @@ func abs(x float64) float64 {
 	}
 	return x
 }
+
+// decimalMarkWarnings puts the reader's decimal-mark trouble into the
+// verdict: values left out because the column mixes marks (code
+// "mixed-decimal-marks": the mean and median come from the rest), and a
+// column of "1,234"-like values read by the default mark
+// ("ambiguous-decimal-mark": the other reading is 1000 times larger or
+// smaller).
+func decimalMarkWarnings(rep *Report, w words, cv *colView, n int) {
+	v := &rep.Verdict
+	if cv.mixedDropped > 0 {
+		v.Warnings = append(v.Warnings, Reason{Code: "mixed-decimal-marks", Text: w.warnMixedMarks(cv.name, cv.decimalComma, cv.mixedDropped, n),
+			Vals: map[string]float64{"dropped": float64(cv.mixedDropped), "used": float64(n)}})
+	}
+	if cv.ambiguous {
+		v.Warnings = append(v.Warnings, Reason{Code: "ambiguous-decimal-mark", Text: w.warnAmbiguousMark(cv.name, cv.decimalComma),
+			Vals: map[string]float64{"factor": 1000}})
+	}
+}

@@ -77,8 +77,8 @@ func estimateWithin(cv *colView, sub *ingest.Column, choice string) *withinSigma
 		// the column itself, without a copy (long series)
 		return withinOf(cv.vals, nil, nil, choice)
 	}
-	var series []float64
-	var cells []int32
+	series := make([]float64, 0, len(cv.vals))
+	cells := make([]int32, 0, len(cv.vals))
 	for i := range cv.inOrder() {
 		if x := cv.vals[i]; x == x && !math.IsInf(x, 0) && !cv.excludedByUser[cv.rows[i]] {
 			series = append(series, x)

@@ -227,6 +227,13 @@ func (w words) outOfOrder(rows int, column string) string {
 	return fmt.Sprintf("%d rows are not in the order of column %q; the series over time follows that column, not the rows", rows, column)
 }
 
+// otherColumnsCells ends input.summary (the value column's account) when
+// cells of other columns are empty or not readable; they are listed in
+// input.problems with their column.
+func (w words) otherColumnsCells(k int) string {
+	return fmt.Sprintf("; other columns: %d %s empty or not readable", k, plural(k, "cell", "cells"))
+}
+
 // rowsWithText lists readings as "row 12 (5.31), row 40 (5.02)", with " and
 // k more" when more were not listed; texts are as typed.
 func (w words) rowsWithText(rows []int32, texts []string, more int) string {
@@ -274,6 +281,31 @@ func (w words) caution() string {
 
 func (w words) reasonSingle() string {
 	return "One reading: it is its own mean and median, and that is all it can say. No spread (SD, range, IQR), no interval, no shape and no suspect reading can be told from one reading: measure more parts."
+}
+
+// warnMixedMarks: the value column mixes decimal marks and the cells with
+// the minority mark were left out (comma: the column's own mark).
+func (w words) warnMixedMarks(column string, comma bool, dropped, used int) string {
+	other, own := "a decimal comma", "decimal points"
+	if comma {
+		other, own = "a decimal point", "decimal commas"
+	}
+	return fmt.Sprintf("%d %s of %q %s left out because %s %s while the column uses %s; the mean and median are from the other %d %s. "+
+		"Check the rows listed under What was read, and export the data with one decimal mark.",
+		dropped, plural(dropped, "value", "values"), column, plural(dropped, "was", "were"), plural(dropped, "it uses", "they use"), other, own, used, plural(used, "value", "values"))
+}
+
+// warnAmbiguousMark: every decimal of the value column looked like "1,234"
+// and no decimal mark was chosen, so the column was read by the default
+// (comma: with a decimal comma; otherwise the comma as a thousands
+// separator); the other reading differs by a factor of 1000.
+func (w words) warnAmbiguousMark(column string, comma bool) string {
+	if comma {
+		return fmt.Sprintf("%q was read with a decimal comma, but its commas could also separate thousands: then every value written with a comma is %s times larger. "+
+			"If so, choose the decimal point under Decimal mark in Settings.", column, w.grouped(1000))
+	}
+	return fmt.Sprintf("%q was read with the comma as a thousands separator (1,234 as %s), but its commas could also be decimal commas: then every value written with a comma is %s times smaller. "+
+		"If so, choose the decimal comma under Decimal mark in Settings.", column, w.grouped(1234), w.grouped(1000))
 }
 
 // reasonFewReadings: what two or three readings can and cannot show.

@@ -31,7 +31,7 @@ func All(r *stats.Report) map[string]string {
 		return out
 	}
 	for k, f := range map[string]func(*stats.Report) string{
-		"histogram": Histogram, "box": Box, "probplot": ProbPlot, "run": Run, "control": Control, "groups": Groups,
+		"histogram": Histogram, "box": Box, "probplot": ProbPlot, "run": Run, "control": Control, "groups": Groups, "spec": SpecFit, "spec-spread": SpecSpread,
 	} {
 		if s := f(r); s != "" {
 			out[k] = s

@@ -95,19 +95,53 @@ func tolTwoSidedExact(n, df, p, conf, guess float64) float64 {
 		}
 		return s
 	}
-	lo, hi := guess/2, guess*2
-	for gamma(hi) < conf && hi < 1e12 {
-		lo, hi = hi, hi*2
+	// the guess (Howe's factor) is close: bracket the root tightly around
+	// it, widening as needed
+	lo, hi := guess*0.99, guess*1.01
+	flo, fhi := gamma(lo)-conf, gamma(hi)-conf
+	for f := 1.02; fhi < 0 && hi < 1e12; f *= f {
+		lo, flo = hi, fhi
+		hi *= f
+		fhi = gamma(hi) - conf
 	}
-	for gamma(lo) > conf && lo > 1e-12 {
-		lo, hi = lo/2, lo
+	for f := 1.02; flo > 0 && lo > 1e-12; f *= f {
+		hi, fhi = lo, flo
+		lo /= f
+		flo = gamma(lo) - conf
 	}
+	// gamma rises with k: the Illinois variant of regula falsi (Dowell
+	// and Jarratt 1971), with a bisection step whenever a step fails to
+	// halve the bracket, needs a fraction of bisection's integrals (each
+	// costs 1,152 incomplete gamma functions, slow at large df)
+	side := 0
 	for it := 0; it < 200 && hi-lo > 1e-14*hi; it++ {
+		width := hi - lo
 		mid := (lo + hi) / 2
-		if gamma(mid) < conf {
-			lo = mid
-		} else {
-			hi = mid
+		if side != 2 && fhi != flo {
+			mid = hi - fhi*(hi-lo)/(fhi-flo)
+		}
+		if !(mid > lo && mid < hi) {
+			mid = (lo + hi) / 2
+		}
+		fm := gamma(mid) - conf
+		switch {
+		case fm == 0:
+			return mid
+		case fm < 0:
+			lo, flo = mid, fm
+			if side == -1 {
+				fhi /= 2
+			}
+			side = -1
+		default:
+			hi, fhi = mid, fm
+			if side == 1 {
+				flo /= 2
+			}
+			side = 1
+		}
+		if hi-lo > width/2 {
+			side = 2 // next step: bisection
 		}
 	}
 	return (lo + hi) / 2

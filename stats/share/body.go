@@ -147,8 +147,8 @@ func encodeBody(p Payload, form []byte) []byte {
 		b = binary.AppendVarint(b, int64(r)-prev)
 		prev = int64(r)
 	}
-	rows := make([]int, 0, len(p.Reasons))
-	for r := range p.Reasons {
+	rows := make([]int, 0, len(o.ExcludeReasons))
+	for r := range o.ExcludeReasons {
 		rows = append(rows, r)
 	}
 	slices.Sort(rows)
@@ -159,7 +159,7 @@ func encodeBody(p Payload, form []byte) []byte {
 		} else {
 			b = binary.AppendUvarint(b, uint64(int64(r))-uint64(int64(rows[i-1])))
 		}
-		b = appendString(b, p.Reasons[r])
+		b = appendString(b, o.ExcludeReasons[r])
 	}
 	b = binary.AppendUvarint(b, uint64(len(p.Text)))
 	sum := sha256.Sum256([]byte(p.Text))
@@ -289,16 +289,16 @@ func decodeBody(body []byte) (Payload, error) {
 		}
 	}
 	if n := r.count(len(r.b)); n > 0 {
-		p.Reasons = make(map[int]string, n)
+		o.ExcludeReasons = make(map[int]string, n)
 		prev := r.varint()
-		p.Reasons[int(prev)] = r.str()
+		o.ExcludeReasons[int(prev)] = r.str()
 		for i := 1; i < n; i++ {
 			next := int64(uint64(prev) + r.uvarint())
 			if next <= prev {
 				return Payload{}, errBody // rows strictly increasing
 			}
 			prev = next
-			p.Reasons[int(prev)] = r.str()
+			o.ExcludeReasons[int(prev)] = r.str()
 		}
 	}
 	tlen := r.uvarint()

@@ -205,9 +205,9 @@ func genPayload(rng *rand.Rand, text string) Payload {
 			o.Exclude = append(o.Exclude, math.MinInt64, math.MaxInt64, -7, 0)
 		}
 		if rng.IntN(2) == 0 {
-			p.Reasons = map[int]string{}
+			o.ExcludeReasons = map[int]string{}
 			for _, r := range o.Exclude[:rng.IntN(len(o.Exclude))+1] {
-				p.Reasons[r] = []string{"", "gauge dropped", "Teil beschädigt", "re-measured: see row 40"}[rng.IntN(4)]
+				o.ExcludeReasons[r] = []string{"", "gauge dropped", "Teil beschädigt", "re-measured: see row 40"}[rng.IntN(4)]
 			}
 		}
 	}

@@ -60,10 +60,9 @@ type Payload struct {
 	Text string
 	// Column choices, as in the engine's request ("" for the default or none).
 	Value, Order, Subgroup, Group string
-	// Options are the request's settings.
+	// Options are the request's settings, the user's reasons for the rows
+	// left out (Options.ExcludeReasons) included.
 	Options Options
-	// Reasons are the user's notes on excluded rows (row -> reason); nil when none.
-	Reasons map[int]string
 }
 
 // Options mirror the engine's request options (stats.Options) field for
@@ -79,10 +78,12 @@ type Options struct {
 	Quantile     string   `json:"quantile,omitempty"`
 	PopulationSD bool     `json:"populationSD,omitempty"`
 	Exclude      []int    `json:"exclude,omitempty"`
-	DecimalMark  string   `json:"decimalMark,omitempty"`
-	WithinSigma  string   `json:"withinSigma,omitempty"`
-	Coverage     float64  `json:"coverage,omitempty"`
-	CpkGoal      float64  `json:"cpkGoal,omitempty"`
+	// ExcludeReasons travels in the body's reasons section (row -> text).
+	ExcludeReasons map[int]string `json:"excludeReasons,omitempty"`
+	DecimalMark    string         `json:"decimalMark,omitempty"`
+	WithinSigma    string         `json:"withinSigma,omitempty"`
+	Coverage       float64        `json:"coverage,omitempty"`
+	CpkGoal        float64        `json:"cpkGoal,omitempty"`
 	// Over time: baseline rows, check switches, EWMA and CUSUM parameters,
 	// the spread chart.
 	Baseline    string          `json:"baseline,omitempty"`

@@ -5,7 +5,6 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
-	"strconv"
 	"strings"
 	"time"
 
@@ -28,9 +27,6 @@ const (
 // linkMax is LinkMax; tests lower it.
 var linkMax = LinkMax
 
-// MaxReason is the most bytes of one exclusion reason a payload carries.
-const MaxReason = 2000
-
 // The forms of a payload: a link's text, a .lotlens file, or the bare
 // bytes (share.Marshal), which the page encrypts for a stored copy.
 const (
@@ -41,15 +37,14 @@ const (
 
 // ShareRequest is what the page sends to make a payload: the engine's
 // request as the page would run it (its text for pasted data; with UseTable
-// the kept file's or opened payload's bytes instead), the user's reasons for
-// excluded rows (row number as text -> reason), when it is made (unix
+// the kept file's or opened payload's bytes instead; the user's reasons for
+// excluded rows are its options.excludeReasons), when it is made (unix
 // seconds; 0: now) and the data's name.
 type ShareRequest struct {
-	Request  json.RawMessage   `json:"request"`
-	UseTable bool              `json:"useTable,omitempty"`
-	Reasons  map[string]string `json:"reasons,omitempty"`
-	Created  int64             `json:"created,omitempty"`
-	Name     string            `json:"name,omitempty"`
+	Request  json.RawMessage `json:"request"`
+	UseTable bool            `json:"useTable,omitempty"`
+	Created  int64           `json:"created,omitempty"`
+	Name     string          `json:"name,omitempty"`
 }
 
 // ShareInfo is the answer of Share (beside the bytes, for a file or bytes).
@@ -69,23 +64,24 @@ type ShareInfo struct {
 
 // Shared describes an opened payload for the page's banner and settings.
 type Shared struct {
-	Form        string            `json:"form"`
-	Created     int64             `json:"created"`
-	Name        string            `json:"name"`
-	Fingerprint string            `json:"fingerprint"`
-	Bytes       int               `json:"bytes"`
-	Value       string            `json:"value,omitempty"`
-	Order       string            `json:"order,omitempty"`
-	Subgroup    string            `json:"subgroup,omitempty"`
-	Group       string            `json:"group,omitempty"`
-	Options     share.Options     `json:"options"`
-	Reasons     map[string]string `json:"reasons,omitempty"`
+	Form        string `json:"form"`
+	Created     int64  `json:"created"`
+	Name        string `json:"name"`
+	Fingerprint string `json:"fingerprint"`
+	Bytes       int    `json:"bytes"`
+	Value       string `json:"value,omitempty"`
+	Order       string `json:"order,omitempty"`
+	Subgroup    string `json:"subgroup,omitempty"`
+	Group       string `json:"group,omitempty"`
+	// Options are the payload's settings, the reasons for left-out rows
+	// (excludeReasons) included.
+	Options share.Options `json:"options"`
 }
 
 // Share makes a payload of the current analysis in the given form. A
 // payload carries everything or is not made: the request must be one the
-// engine accepts as it stands (the same checks as an analysis), every
-// reason must name a row, and a link above LinkMax is refused (code
+// engine accepts as it stands (the same checks as an analysis: every
+// reason must name a left-out row), and a link above LinkMax is refused (code
 // too-large) so the page offers the file. It returns ShareInfo JSON or an
 // error object, and for the forms "file" and "bytes" the bytes.
 func (s *Session) Share(in []byte, form string) (out []byte, bin []byte) {
@@ -139,10 +135,6 @@ func (s *Session) Share(in []byte, form string) (out []byte, bin []byte) {
 	if err != nil {
 		return ErrorJSON(noLink(err)), nil
 	}
-	reasons, err := parseReasons(sr.Reasons)
-	if err != nil {
-		return ErrorJSON(err), nil
-	}
 	var opts share.Options
 	ob, _ := json.Marshal(req.Options)
 	if err := json.Unmarshal(ob, &opts); err != nil {
@@ -153,7 +145,7 @@ func (s *Session) Share(in []byte, form string) (out []byte, bin []byte) {
 		created = time.Now().Unix()
 	}
 	p := share.Payload{Created: created, Name: name, Text: text, Value: req.Value, Order: req.Order,
-		Subgroup: req.Subgroup, Group: req.Group, Options: opts, Reasons: reasons}
+		Subgroup: req.Subgroup, Group: req.Group, Options: opts}
 	info := ShareInfo{Form: form, Fingerprint: rep.Input.Fingerprint, Created: created}
 	switch form {
 	case FormLink:
@@ -203,26 +195,6 @@ func shareMakeError(err error) *stats.Error {
 		return &stats.Error{Code: code, Msg: "No link was made: " + e.Msg}
 	}
 	return &stats.Error{Code: stats.CodeInternal, Msg: err.Error()}
-}
-
-// parseReasons checks the page's reasons: row numbers (1 or more) with a
-// reason of at most MaxReason bytes.
-func parseReasons(in map[string]string) (map[int]string, error) {
-	if len(in) == 0 {
-		return nil, nil
-	}
-	out := make(map[int]string, len(in))
-	for k, v := range in {
-		row, err := strconv.Atoi(k)
-		if err != nil || row < 1 || strconv.Itoa(row) != k {
-			return nil, &stats.Error{Code: stats.CodeBadRequest, Field: "reasons", Msg: fmt.Sprintf("No link was made: the reason %q is given for %q, which is not a row number.", v, k)}
-		}
-		if len(v) > MaxReason {
-			return nil, &stats.Error{Code: stats.CodeBadRequest, Field: "reasons", Msg: fmt.Sprintf("No link was made: the reason for row %d is longer than %d characters; shorten it.", row, MaxReason)}
-		}
-		out[row] = v
-	}
-	return out, nil
 }
 
 // fileName is the name of a .lotlens file for data called name.
@@ -319,12 +291,6 @@ func (s *Session) Open(in []byte, form string) (rep []byte, meta []byte, svg map
 	s.tab, s.fp, s.raw, s.rawOver, s.srcName = tab, fp, p.Text, false, p.Name
 	sh := Shared{Form: form, Created: p.Created, Name: p.Name, Fingerprint: fp, Bytes: len(p.Text),
 		Value: p.Value, Order: p.Order, Subgroup: p.Subgroup, Group: p.Group, Options: p.Options}
-	if len(p.Reasons) > 0 {
-		sh.Reasons = make(map[string]string, len(p.Reasons))
-		for row, why := range p.Reasons {
-			sh.Reasons[strconv.Itoa(row)] = why
-		}
-	}
 	return stats.ReportJSON(r, nil), mustJSON(sh), chart.All(r)
 }
 

@@ -16,9 +16,9 @@ import (
 )
 
 // shareReq builds the page's share request.
-func shareReq(t *testing.T, req string, useTable bool, reasons map[string]string) []byte {
+func shareReq(t *testing.T, req string, useTable bool) []byte {
 	t.Helper()
-	b, err := json.Marshal(ShareRequest{Request: json.RawMessage(req), UseTable: useTable, Reasons: reasons, Created: 1796000000})
+	b, err := json.Marshal(ShareRequest{Request: json.RawMessage(req), UseTable: useTable, Created: 1796000000})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -68,10 +68,13 @@ func TestShareFileSameReport(t *testing.T) {
 	if end.Fingerprint != hex.EncodeToString(sum[:]) {
 		t.Fatalf("fingerprint %s", end.Fingerprint)
 	}
-	req := `{"schema":"lotlens.request/1","value":"Temp","options":{"target":21.6,"lsl":21,"usl":22.2,"confidence":0.9,"exclude":[4]}}`
+	req := `{"schema":"lotlens.request/1","value":"Temp","options":{"target":21.6,"lsl":21,"usl":22.2,"confidence":0.9,"exclude":[4],"excludeReasons":{"4":"probe slipped"}}}`
 	want, _ := s.Analyze([]byte(req), true)
+	if !bytes.Contains(want, []byte(`"reason":"probe slipped"`)) {
+		t.Fatalf("the sender's report does not echo the reason: %.600s", want)
+	}
 	for _, form := range []string{FormLink, FormFile, FormBytes} {
-		out, bin := s.Share(shareReq(t, req, true, map[string]string{"4": "probe slipped"}), form)
+		out, bin := s.Share(shareReq(t, req, true), form)
 		info := shareInfo(t, out)
 		if info.Fingerprint != end.Fingerprint || info.Created != 1796000000 {
 			t.Errorf("%s: info %+v", form, info)
@@ -94,7 +97,7 @@ func TestShareFileSameReport(t *testing.T) {
 			t.Errorf("%s: the opened report differs from the sender's:\n%.400s\n%.400s", form, got, want)
 		}
 		if sh.Fingerprint != end.Fingerprint || sh.Name != "test.txt" || sh.Value != "Temp" || sh.Created != 1796000000 ||
-			sh.Reasons["4"] != "probe slipped" || sh.Options.Confidence != 0.9 || len(sh.Options.Exclude) != 1 || sh.Form != form || sh.Bytes != len(data) {
+			sh.Options.ExcludeReasons[4] != "probe slipped" || sh.Options.Confidence != 0.9 || len(sh.Options.Exclude) != 1 || sh.Form != form || sh.Bytes != len(data) {
 			t.Errorf("%s: shared %+v", form, sh)
 		}
 		// The receiver keeps the table: a change of settings re-runs on it,
@@ -102,7 +105,7 @@ func TestShareFileSameReport(t *testing.T) {
 		if res := r.run(t, `{"schema":"lotlens.request/1","options":{"confidence":0.99}}`, true); res.Error != "" || res.Report.Input.Fingerprint != end.Fingerprint {
 			t.Errorf("%s: re-run after opening: %+v", form, res.Error)
 		}
-		out2, _ := r.Share(shareReq(t, req, true, nil), FormLink)
+		out2, _ := r.Share(shareReq(t, req, true), FormLink)
 		if info2 := shareInfo(t, out2); info2.Fingerprint != end.Fingerprint {
 			t.Errorf("%s: shared again with fingerprint %s", form, info2.Fingerprint)
 		}
@@ -115,18 +118,18 @@ func TestShareTextSameReport(t *testing.T) {
 	text := "Time\tLine\tFill (g)\n08:00\tL1\t5.02\n08:05\tL2\t4.98\n08:10\tL1\t5.07\n08:15\tL2\t4.95\n08:20\tL1\t5.01\n08:25\tL2\t5.00\n08:30\tL1\t5.04\n08:35\tL2\t4.97\n"
 	rq, _ := json.Marshal(map[string]any{"schema": "lotlens.request/1", "text": text, "value": "Fill (g)", "order": "Time",
 		"options": map[string]any{"unit": "g", "target": 5.0, "lsl": 4.9, "usl": 5.1, "confidence": 0.99, "quantile": "hf6",
-			"populationSD": true, "exclude": []int{3}, "decimalMark": "point", "withinSigma": "moving-range", "coverage": 0.95, "cpkGoal": 1.67,
+			"populationSD": true, "exclude": []int{3}, "excludeReasons": map[string]string{"3": "spilled"}, "decimalMark": "point", "withinSigma": "moving-range", "coverage": 0.95, "cpkGoal": 1.67,
 			"baseline": "2-6", "signals": map[string]bool{"alternating": true}, "ewmaLambda": 0.1, "ewmaL": 2.7, "cusumK": 0.25, "cusumH": 8}})
 	var s Session
 	want := stats.ReportJSON(stats.Analyze(mustParse(t, rq)))
-	out, _ := s.Share(shareReq(t, string(rq), false, map[string]string{"3": "spilled"}), FormLink)
+	out, _ := s.Share(shareReq(t, string(rq), false), FormLink)
 	info := shareInfo(t, out)
 	var r Session
 	got, sh := opened(t, &r, []byte(info.Link), FormLink)
 	if !bytes.Equal(got, want) {
 		t.Errorf("the opened report differs:\n%.400s\n%.400s", got, want)
 	}
-	if sh.Value != "Fill (g)" || sh.Order != "Time" || sh.Options.WithinSigma != "moving-range" || sh.Options.CpkGoal != 1.67 || sh.Reasons["3"] != "spilled" ||
+	if sh.Value != "Fill (g)" || sh.Order != "Time" || sh.Options.WithinSigma != "moving-range" || sh.Options.CpkGoal != 1.67 || sh.Options.ExcludeReasons[3] != "spilled" ||
 		sh.Options.Baseline != "2-6" || !sh.Options.Signals["alternating"] || sh.Options.EWMALambda != 0.1 || sh.Options.CUSUMH != 8 {
 		t.Errorf("shared %+v", sh)
 	}
@@ -153,46 +156,50 @@ func TestShareRefused(t *testing.T) {
 	for _, c := range []struct {
 		name, req string
 		useTable  bool
-		reasons   map[string]string
 		code      string
 	}{
-		{"target with a unit typed", `{` + text + `,"options":{"target":"12 Nm"}}`, false, nil, stats.CodeBadRequest},
-		{"exclude as a number", `{` + text + `,"options":{"exclude":3}}`, false, nil, stats.CodeBadRequest},
-		{"confidence of 2", `{` + text + `,"options":{"confidence":2}}`, false, nil, stats.CodeBadOption},
-		{"unknown option", `{` + text + `,"options":{"lls":2}}`, false, nil, stats.CodeBadRequest},
-		{"a column that is not there", `{` + text + `,"group":"Shift"}`, false, nil, stats.CodeColumn},
-		{"no data", `{"text":"  "}`, false, nil, stats.CodeNoData},
-		{"no file kept", `{}`, true, nil, stats.CodeNoFile},
-		{"a reason for no row", `{` + text + `}`, false, map[string]string{"row 4": "x"}, stats.CodeBadRequest},
-		{"a reason too long", `{` + text + `}`, false, map[string]string{"4": strings.Repeat("x", MaxReason+1)}, stats.CodeBadRequest},
-		{"cells", `{"cells":[{"row":2,"text":"5.1"},{"row":3,"text":"5.2"}]}`, false, nil, stats.CodeBadRequest},
+		{"target with a unit typed", `{` + text + `,"options":{"target":"12 Nm"}}`, false, stats.CodeBadRequest},
+		{"exclude as a number", `{` + text + `,"options":{"exclude":3}}`, false, stats.CodeBadRequest},
+		{"confidence of 2", `{` + text + `,"options":{"confidence":2}}`, false, stats.CodeBadOption},
+		{"unknown option", `{` + text + `,"options":{"lls":2}}`, false, stats.CodeBadRequest},
+		{"a column that is not there", `{` + text + `,"group":"Shift"}`, false, stats.CodeColumn},
+		{"no data", `{"text":"  "}`, false, stats.CodeNoData},
+		{"no file kept", `{}`, true, stats.CodeNoFile},
+		{"a reason for no row", `{` + text + `,"options":{"exclude":[4],"excludeReasons":{"row 4":"x"}}}`, false, stats.CodeBadRequest},
+		{"a reason for a row not left out", `{` + text + `,"options":{"exclude":[4],"excludeReasons":{"3":"x"}}}`, false, stats.CodeBadOption},
+		{"a reason too long", `{` + text + `,"options":{"exclude":[4],"excludeReasons":{"4":"` + strings.Repeat("x", stats.MaxReasonChars+1) + `"}}}`, false, stats.CodeBadOption},
+		{"cells", `{"cells":[{"row":2,"text":"5.1"},{"row":3,"text":"5.2"}]}`, false, stats.CodeBadRequest},
 	} {
-		out, bin := s.Share(shareReq(t, c.req, c.useTable, c.reasons), FormLink)
+		out, bin := s.Share(shareReq(t, c.req, c.useTable), FormLink)
 		msg, code := errorCode(t, out)
 		if code != c.code || !strings.HasPrefix(msg, "No link was made") || bin != nil {
 			t.Errorf("%s: code %q (want %q), message %q", c.name, code, c.code, msg)
 		}
 	}
+	// Reasons travel in the request's options only: a second path is refused.
+	if _, code := errorCode(t, first(s.Share([]byte(`{"request":{`+text+`,"options":{"exclude":[2]}},"reasons":{"2":"x"}}`), FormLink))); code != stats.CodeBadRequest {
+		t.Errorf("reasons beside the request: code %q", code)
+	}
 	if _, code := errorCode(t, first(s.Share([]byte(`{"request":{},"extra":1}`), FormLink))); code != stats.CodeBadRequest {
 		t.Errorf("unknown key in the share request: code %q", code)
 	}
-	if _, code := errorCode(t, first(s.Share(shareReq(t, `{`+text+`}`, false, nil), "zip"))); code != stats.CodeBadRequest {
+	if _, code := errorCode(t, first(s.Share(shareReq(t, `{`+text+`}`, false), "zip"))); code != stats.CodeBadRequest {
 		t.Errorf("unknown form: code %q", code)
 	}
 	// Too long for a link: refused with too-large; the file form still works.
 	defer func(m int) { linkMax = m }(linkMax)
 	linkMax = 20
-	if msg, code := errorCode(t, first(s.Share(shareReq(t, `{`+text+`}`, false, nil), FormLink))); code != stats.CodeTooLarge || !strings.Contains(msg, share.FileExt) {
+	if msg, code := errorCode(t, first(s.Share(shareReq(t, `{`+text+`}`, false), FormLink))); code != stats.CodeTooLarge || !strings.Contains(msg, share.FileExt) {
 		t.Errorf("link above the limit: %q %q", code, msg)
 	}
-	if out, bin := s.Share(shareReq(t, `{`+text+`}`, false, nil), FormFile); len(bin) == 0 {
+	if out, bin := s.Share(shareReq(t, `{`+text+`}`, false), FormFile); len(bin) == 0 {
 		t.Errorf("file form refused: %s", out)
 	}
 	// A file over ShareBytesMax keeps no bytes and cannot be shared.
 	s.Begin("big.txt", ShareBytesMax+1)
 	s.Write([]byte("5.1\n5.2\n5.3\n"))
 	s.End()
-	if msg, code := errorCode(t, first(s.Share(shareReq(t, `{}`, true, nil), FormFile))); code != stats.CodeTooLarge || !strings.Contains(msg, "64 MB") {
+	if msg, code := errorCode(t, first(s.Share(shareReq(t, `{}`, true), FormFile))); code != stats.CodeTooLarge || !strings.Contains(msg, "64 MB") {
 		t.Errorf("file over the limit: %q %q", code, msg)
 	}
 }
@@ -290,7 +297,7 @@ func TestForgetLeavesNothing(t *testing.T) {
 	if s.tab != nil || s.raw != "" || s.fp != "" || s.srcName != "" {
 		t.Errorf("after Forget: %v %q %q %q", s.tab != nil, s.raw, s.fp, s.srcName)
 	}
-	if _, code := errorCode(t, first(s.Share(shareReq(t, `{}`, true, nil), FormLink))); code != stats.CodeNoFile {
+	if _, code := errorCode(t, first(s.Share(shareReq(t, `{}`, true), FormLink))); code != stats.CodeNoFile {
 		t.Errorf("share after forget: code %q", code)
 	}
 }
