@@ -767,6 +767,46 @@ func TestEncodedFileShared(t *testing.T) {
 	}
 }
 
+// TestOverTimeCard: the demo data show the stability verdict and the
+// control chart in the "Over time" card, and a baseline typed in the
+// settings reaches the engine (the verdict names it).
+func TestOverTimeCard(t *testing.T) {
+	s := browser(t)
+	s.open(t)
+	if err := chromedp.Run(s.ctx, chromedp.Click("#demo", chromedp.ByID), analysed(1)); err != nil {
+		t.Fatal(err)
+	}
+	var verdict string
+	var points int
+	var stable string
+	err := chromedp.Run(s.ctx,
+		chromedp.Text(`#card-time [data-field="stability-verdict"]`, &verdict, chromedp.ByQuery),
+		chromedp.Evaluate(`document.querySelector('#card-time [data-field="stability-verdict"]').dataset.stable`, &stable),
+		chromedp.Evaluate(`document.querySelectorAll('#card-time figure[data-chart="control"] svg .pt').length`, &points))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(verdict, "120 readings") && !strings.HasPrefix(strings.TrimLeft(verdict, "\u2714\u26a0 "), "Not stable") && !strings.Contains(verdict, "Shift") {
+		t.Errorf("verdict %q", verdict)
+	}
+	if stable != "true" && stable != "false" || points < 100 {
+		t.Errorf("stable flag %q, %d points on the control chart (want the 120 readings)", stable, points)
+	}
+	err = chromedp.Run(s.ctx,
+		chromedp.Evaluate(`document.getElementById("overtime-settings").open = true`, nil),
+		chromedp.SendKeys("#baseline", "2-61", chromedp.ByID), analysed(2),
+		chromedp.Text(`#card-time [data-field="stability-verdict"]`, &verdict, chromedp.ByQuery))
+	if err != nil {
+		var diag string
+		chromedp.Run(s.ctx, chromedp.Evaluate(`JSON.stringify({sw: document.getElementById("signal-switches").childElementCount, b: document.getElementById("baseline").value, st: document.body.dataset.state, an: document.body.dataset.analysed, err: document.getElementById("settings-error").textContent, status: document.getElementById("status").textContent})`, &diag))
+		t.Fatal(err, diag)
+	}
+	if !strings.Contains(verdict, "limits set from readings 1-60") {
+		t.Errorf("after a baseline of rows 2-61 the verdict is %q", verdict)
+	}
+	s.shot(t, "08-over-time.png")
+}
+
 // sameReport compares two report JSONs: equal structure and text, numbers
 // equal within 4 units in the last place. The page runs the engine as
 // js/wasm and the test natively: Go's math functions (Exp, Log) use

@@ -5,6 +5,7 @@ import { parseNum, count } from "./dom.js";
 import { call, whenReady, restartEngine, cancelRead } from "./engine-client.js";
 import { render, captureFocus, renderExclusions, refreshPrintHead } from "./cards.js";
 import { openShared, isSharedFile, clearShared } from "./share.js";
+import { fillOverTimeSettings, readOverTimeSettings } from "./card-time.js";
 
 const data = $("data");
 function resetForNewData() {
@@ -72,6 +73,7 @@ export function readSettings() {
       bad("leave-out");
     }
   }
+  readOverTimeSettings(o, errs, bad);
   const u = $("unit").value.trim();
   if (u) o.unit = u;
   if (state.exclude.size) o.exclude = Array.from(state.exclude).sort((a, b) => a - b);
@@ -456,6 +458,7 @@ for (const id of ["unit", "target", "lsl", "usl", "coverage", "cpk-goal", "leave
   settingsTimer = setTimeout(() => { if (state.source) analyseNow(); }, 400);
 });
 for (const id of ["confidence", "quantile", "decimal-mark", "within-sigma"]) $(id).addEventListener("change", () => { if (state.source) analyseNow(); });
+fillOverTimeSettings(() => { clearTimeout(settingsTimer); settingsTimer = setTimeout(() => { if (state.source) analyseNow(); }, 400); });
 $("precision").addEventListener("change", (ev) => { state.full = ev.target.checked; if (state.report) render(); });
 
 

@@ -13,6 +13,7 @@
 // - no network request unless the user asks for a stored copy.
 import { $, state, setStatus, showError, errorOf } from "./state.js";
 import { call } from "./engine-client.js";
+import { restoreOverTimeSettings } from "./card-time.js";
 import { render } from "./cards.js";
 import { copyText, download } from "./export.js";
 import { el } from "./dom.js";
@@ -163,6 +164,7 @@ function apply(sh, rep, svg, how) {
   setSelect("confidence", o.confidence);
   setSelect("quantile", o.quantile);
   $("decimal-mark").value = o.decimalMark || "";
+  restoreOverTimeSettings(o);
   const data = $("data");
   data.value = "";
   data.placeholder = "Showing the data of a shared " + (how === "file" ? "file" : "link") + " (paste here to analyse other data instead)";

@@ -87,6 +87,7 @@ func AnalyzeTable(tab *ingest.Table, fingerprint string, req Request) (*Report, 
 		name: col.Name, unit: col.Unit, rows: col.Rows, vals: col.Values, dec: col.Dec,
 		text: col.Text, decimalComma: col.DecimalComma,
 		missing: col.Missing, bad: col.Bad,
+		order: cols.order, subgroup: cols.subgroup,
 		// read by the default mark though "1,234" could mean either
 		ambiguous: col.AmbiguousDecimal && req.Options.DecimalMark == "",
 	}
@@ -172,9 +173,9 @@ type colView struct {
 	// into vals), from the request's order column; nil means row order.
 	seq        []int32
 	outOfOrder int // rows out of order in the file, by the order column
-	// subgroup is the request's subgroup column (nil when none), aligned
-	// with vals.
-	subgroup *ingest.Column
+	// order and subgroup are the request's columns (nil when none);
+	// subgroup is aligned with vals.
+	order, subgroup *ingest.Column
 	// group is the request's group column (cells aligned with vals), wide
 	// the side-by-side value columns compared as groups; both nil without
 	// a groups section.
@@ -277,6 +278,9 @@ func checkOptions(o Options) (Options, error) {
 		if p.v != nil && (math.IsNaN(*p.v) || math.IsInf(*p.v, 0)) {
 			return o, errorf(CodeBadOption, "options."+p.name, "%s is not a finite number: give a value such as 12.5", p.name)
 		}
+	}
+	if err := checkStabilityOptions(o); err != nil {
+		return o, err
 	}
 	if len(o.ExcludeReasons) > 0 {
 		in := make(map[int]bool, len(o.Exclude))

@@ -144,11 +144,19 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 		}
 	}
 
+	// Over time, before the spec section: its verdict becomes the spec's
+	// caution, and the within-process sigma is estimated once for both.
+	within := estimateWithin(cv, cv.subgroup, opts.WithinSigma)
+	var stNotes []Note
+	rep.Stability, stNotes = buildStability(w, cv, within, s, opts)
+	rep.Notes = append(rep.Notes, stNotes...)
+
 	// Against the spec.
 	if opts.LSL != nil || opts.USL != nil {
-		in := specInput{sorted: sorted, mean: s.mo.mean, sd: rep.Spread.SD, step: step, distinct: distinct}
+		in := specInput{sorted: sorted, mean: s.mo.mean, sd: rep.Spread.SD, step: step, distinct: distinct,
+			stability: rep.Stability.Caution(), stableKnown: rep.Stability != nil && rep.Stability.Judged}
 		if n >= 2 && !s.constant {
-			in.within = estimateWithin(cv, cv.subgroup, opts.WithinSigma)
+			in.within = within
 		}
 		if sh := rep.Shape; sh != nil {
 			if t := sh.Shapiro; t != nil {

@@ -76,6 +76,18 @@ type Options struct {
 	// "moving-range", "median-moving-range", "pooled-sd", "mean-range",
 	// "mean-sd".
 	WithinSigma string `json:"withinSigma,omitempty"`
+	// Over time (stability.go). Baseline: the rows whose readings set the
+	// control limits ("2-61", "2-61, 80-99" or "2, 3, 4"; empty: all).
+	// Signals switches checks by code (see stability.go checkOrder).
+	// EWMALambda, EWMAL (defaults 0.2, 3), CUSUMK, CUSUMH (0.5, 5), in
+	// sigmas of one point. ChartSpread: "auto" (default), "range" or "sd".
+	Baseline    string          `json:"baseline,omitempty"`
+	Signals     map[string]bool `json:"signals,omitempty"`
+	EWMALambda  float64         `json:"ewmaLambda,omitempty"`
+	EWMAL       float64         `json:"ewmaL,omitempty"`
+	CUSUMK      float64         `json:"cusumK,omitempty"`
+	CUSUMH      float64         `json:"cusumH,omitempty"`
+	ChartSpread string          `json:"chartSpread,omitempty"`
 	// Coverage is the fraction of parts a tolerance interval claims
 	// (default DefaultCoverage, 0.99); CpkGoal the level the spec section
 	// compares Cpk's lower bound with (default DefaultCpkGoal, 1.33).
@@ -90,21 +102,22 @@ const DefaultQuantile = "hf7"
 // where a figure cannot be computed it is omitted (pointer nil or slice
 // empty) and a Note says why.
 type Report struct {
-	Schema   string     `json:"schema"`
-	Input    Input      `json:"input"`
-	Settings Settings   `json:"settings"`
-	Counts   Counts     `json:"counts"`
-	Verdict  Verdict    `json:"verdict"`
-	Centre   *Centre    `json:"centre,omitempty"`
-	Spread   *Spread    `json:"spread,omitempty"`
-	Quantile *Quantiles `json:"quantiles,omitempty"`
-	Shape    *Shape     `json:"shape,omitempty"`
-	Suspects *Suspects  `json:"suspects,omitempty"`
-	Target   *Target    `json:"target,omitempty"`
-	Spec     *Spec      `json:"spec,omitempty"`
-	Groups   *Groups    `json:"groups,omitempty"`
-	Charts   *Charts    `json:"charts,omitempty"`
-	Notes    []Note     `json:"notes,omitempty"`
+	Schema    string     `json:"schema"`
+	Input     Input      `json:"input"`
+	Settings  Settings   `json:"settings"`
+	Counts    Counts     `json:"counts"`
+	Verdict   Verdict    `json:"verdict"`
+	Centre    *Centre    `json:"centre,omitempty"`
+	Spread    *Spread    `json:"spread,omitempty"`
+	Quantile  *Quantiles `json:"quantiles,omitempty"`
+	Shape     *Shape     `json:"shape,omitempty"`
+	Suspects  *Suspects  `json:"suspects,omitempty"`
+	Target    *Target    `json:"target,omitempty"`
+	Spec      *Spec      `json:"spec,omitempty"`
+	Groups    *Groups    `json:"groups,omitempty"`
+	Charts    *Charts    `json:"charts,omitempty"`
+	Stability *Stability `json:"stability,omitempty"`
+	Notes     []Note     `json:"notes,omitempty"`
 }
 
 // Input says what was read and what was not.

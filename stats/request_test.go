@@ -107,6 +107,10 @@ func TestColumnsAligned(t *testing.T) {
 	if !noted {
 		t.Errorf("out-of-order rows not noted: %+v", rep.Notes)
 	}
+	// a subgroup column is read by the over-time section (stability.go)
+	if rep, err := Analyze(Request{Text: text, Value: "Weight", Subgroup: "Lot"}); err != nil || rep.Stability == nil {
+		t.Errorf("subgroup column refused or unread: %v", err)
+	}
 	// the group column is read by the groups section, cell by cell with
 	// the values: Shift A holds rows 2, 3 and 6
 	grp, err := Analyze(Request{Text: text, Value: "Weight", Group: "Shift"})

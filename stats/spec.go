@@ -657,7 +657,7 @@ func specTolerances(in specInput, n int, coverage, conf, lsl, usl float64) []Spe
 func specCautions(w words, sp *Spec, in specInput, opts Options, n int) []Reason {
 	var out []Reason
 	if in.stability != nil {
-		out = append(out, Reason{Code: "not-stable", Text: w.cautionNotStable(in.stability.Text)})
+		out = append(out, Reason{Code: in.stability.Code, Text: w.cautionNotStable(in.stability.Code, in.stability.Text)})
 	}
 	if n < specFewReadings {
 		out = append(out, Reason{Code: "few-readings", Text: w.cautionFew(n, specFewReadings), Vals: map[string]float64{"n": float64(n)}})

@@ -39,7 +39,8 @@ type withinSigma struct {
 	method string
 	est    method.SigmaEstimate
 	// series: the used values in time order (for the moving ranges and
-	// the charts over time), with their cell indices
+	// the charts over time), with their cell indices (cell); cells is nil
+	// when series is the column itself (every cell used, in row order)
 	series []float64
 	cells  []int32
 	// subgroups: used values per subgroup, in order of first appearance
@@ -72,6 +73,10 @@ func checkWithin(o Options, hasSubgroup bool) error {
 // estimateWithin computes the within-process sigma for the used readings of
 // cv (excluded readings and empty cells left out), in time order.
 func estimateWithin(cv *colView, sub *ingest.Column, choice string) *withinSigma {
+	if sub == nil && cv.seq == nil && cv.allUsed() {
+		// the column itself, without a copy (long series)
+		return withinOf(cv.vals, nil, nil, choice)
+	}
 	series := make([]float64, 0, len(cv.vals))
 	cells := make([]int32, 0, len(cv.vals))
 	for i := range cv.inOrder() {
@@ -81,6 +86,28 @@ func estimateWithin(cv *colView, sub *ingest.Column, choice string) *withinSigma
 		}
 	}
 	return withinOf(series, cells, sub, choice)
+}
+
+// allUsed tells whether every cell of the value column is a used reading
+// (a finite number the user did not leave out).
+func (cv *colView) allUsed() bool {
+	if cv.missing > 0 || cv.bad > 0 || len(cv.excludedByUser) > 0 {
+		return false
+	}
+	for _, x := range cv.vals {
+		if x != x || math.IsInf(x, 0) {
+			return false
+		}
+	}
+	return true
+}
+
+// cell is the cell index (into the value column) of the k-th used reading.
+func (w *withinSigma) cell(k int) int32 {
+	if w.cells == nil {
+		return int32(k)
+	}
+	return w.cells[k]
 }
 
 // withinOf is the within-process sigma of readings given in time order

@@ -897,9 +897,14 @@ func (w words) specPercentileNoInterval() string {
 	return "the percentile-method indices (ISO 22514-2) have no interval: the standard gives none for a fitted distribution; the bound on the observed count, and the normal-based indices' intervals, show how uncertain the figures are"
 }
 
-// cautionNotStable extends the stability section's caution.
-func (w words) cautionNotStable(stability string) string {
-	return stability + " Capability figures then describe this batch, not the process: find and remove the cause, then measure again."
+// cautionNotStable is the spec section's caution from the stability
+// section (Stability.Caution): code "not-stable" with its verdict, or
+// "stability-not-judged" with why.
+func (w words) cautionNotStable(code, verdict string) string {
+	if code == "stability-not-judged" {
+		return verdict + "; capability then describes this batch, not the process."
+	}
+	return "The process was not stable over time (" + verdict + "): capability then describes this batch, not the process; find and remove the cause, then measure again."
 }
 
 func (w words) cautionFew(n, want int) string {
@@ -1023,6 +1028,324 @@ func (w words) specIndex(name, basis string, normal bool, value float64, hasBoun
 	}
 	return s
 }
+
+// ---- Over time ------------------------------------------------------------
+
+// stabRuleIndividuals .. stabRuleChosen say why the chart is the one shown.
+func (w words) stabRuleIndividuals() string {
+	return "Individual readings (no subgroup column): an individuals chart with the moving range of consecutive readings."
+}
+
+func (w words) stabRuleAuto(maxn int) string {
+	if maxn >= 10 {
+		return fmt.Sprintf("Subgroups of up to %d readings: mean and standard deviation chart (from 10 readings a subgroup the SD is the more efficient measure of spread).", maxn)
+	}
+	return fmt.Sprintf("Subgroups of up to %d readings: mean and range chart (below 10 readings a subgroup the range loses little against the SD).", maxn)
+}
+
+func (w words) stabRuleChosen(spread string) string {
+	if spread == "sd" {
+		return "Mean and standard deviation chart, as chosen in the settings."
+	}
+	return "Mean and range chart, as chosen in the settings."
+}
+
+func (w words) stabAllSingles() string {
+	return "every subgroup holds one reading: the readings are charted as individuals with moving ranges"
+}
+
+func (w words) stabNotExact() string {
+	return "some readings are not plain decimals (exponent form): ties and sides of the median in the drift tests were decided on binary values"
+}
+
+// stabDriftBlocks: above limit readings the trend test, the runs test and
+// the change point run on the means of blocks of size consecutive
+// readings (blocks of them).
+func (w words) stabDriftBlocks(n, limit, size, blocks int) string {
+	return fmt.Sprintf("with %s readings (more than %s) the trend test, the runs test and the change point were computed on the means of %s consecutive blocks of %d readings, in time order; the autocorrelation, the control chart, its checks, EWMA and CUSUM use every reading", w.grouped(n), w.grouped(limit), w.grouped(blocks), size)
+}
+
+func (w words) stabSenThinned(n, every, used int) string {
+	return fmt.Sprintf("Sen's slope forms every pair of points, which is too many for %s: it was computed from every %d-th point (%s points) and scaled to a slope per reading", w.grouped(n), every, w.grouped(used))
+}
+
+func (w words) stabSignalsCut(total, listed int) string {
+	return fmt.Sprintf("%d signals were found; the first %d are listed (the checks give the full counts)", total, listed)
+}
+
+// stabTestFailed: a drift test (named) could not be computed.
+func (w words) stabTestFailed(test string, err error) string {
+	return test + " not computed: " + err.Error()
+}
+
+func (w words) stabTooFew(n int) string {
+	return fmt.Sprintf("Stability not judged: %d readings in time order, and control limits need at least 3", n)
+}
+
+// stabNoSpread: no limits could be set (why is one of the stabBaseline*
+// sentences or a method's error).
+func (w words) stabNoSpread(why string) string {
+	return "Stability not judged: " + why
+}
+
+func (w words) stabBaselineFew(rows string, n int) string {
+	return fmt.Sprintf("the baseline rows %q hold %d of the readings used: the limits need at least 2 in a row", rows, n)
+}
+
+func (w words) stabBaselineFlat(subgroups bool) string {
+	if subgroups {
+		return "the readings do not vary within the baseline subgroups: no limits can be set from them"
+	}
+	return "the baseline readings do not vary: no limits can be set from them"
+}
+
+func (w words) stabBaselineNoSubgroup(rows string) string {
+	return fmt.Sprintf("no subgroup lies wholly in the baseline rows %q: the limits need at least one", rows)
+}
+
+func (w words) stabBaseline(points, total, first, last int, subgroup bool) string {
+	what := "readings"
+	if subgroup {
+		what = "subgroups"
+	}
+	if points == last-first+1 {
+		return fmt.Sprintf("limits set from %s %d-%d", what, first, last)
+	}
+	return fmt.Sprintf("limits set from %d of the %d %s (%d to %d)", points, total, what, first, last)
+}
+
+func (w words) stabOrderRows() string {
+	return "In the order of the rows (no order or time column chosen)."
+}
+
+func (w words) stabOrderColumn(o StabilityOrder) string {
+	s := fmt.Sprintf("In the order of column %q", o.Column)
+	if o.Kind == "time" {
+		s += " (times)"
+	}
+	s += "."
+	if o.OutOfOrder > 0 {
+		s += fmt.Sprintf(" %d rows are not in that order in the file; the readings were put in order.", o.OutOfOrder)
+	}
+	if o.Duplicates > 0 {
+		s += fmt.Sprintf(" %d readings share their %s with the one before (kept in row order).", o.Duplicates, map[bool]string{true: "time", false: "order value"}[o.Kind == "time"])
+	}
+	if o.GapCount > 0 {
+		s += fmt.Sprintf(" %d gaps: steps more than %d times the usual step of %s.", o.GapCount, gapFactor, w.stabStep(o.MedianStep, o.Kind))
+	}
+	return s
+}
+
+func (w words) stabStep(s float64, kind string) string {
+	if kind != "time" {
+		return w.g3(s)
+	}
+	switch {
+	case s >= 86400:
+		return w.g3(s/86400) + " days"
+	case s >= 3600:
+		return w.g3(s/3600) + " h"
+	case s >= 60:
+		return w.g3(s/60) + " min"
+	}
+	return w.g3(s) + " s"
+}
+
+// stabCheckName and stabCheckText are the checks in our own words.
+func (w words) stabCheckName(code string) string {
+	return map[string]string{
+		method.SignalBeyondLimits:  "Beyond a limit",
+		method.SignalTwoOfThree:    "Two of three far out",
+		method.SignalFourOfFive:    "Four of five out on one side",
+		method.SignalRunSameSide:   "Long run on one side",
+		method.SignalTrend:         "Steady climb or fall",
+		method.SignalAlternating:   "Saw-tooth",
+		method.SignalHuggingCentre: "Crowding the centre",
+		method.SignalAvoidCentre:   "Avoiding the centre",
+		SignalEWMA:                 "EWMA beyond its limits",
+		SignalCUSUM:                "CUSUM beyond its decision interval",
+		SignalSpreadBeyond:         "Spread beyond its limits",
+	}[code]
+}
+
+func (w words) stabCheckText(code string) string {
+	return map[string]string{
+		method.SignalBeyondLimits:  "a point outside the control limits (3 sigma); on the spread chart, a spread outside its limits",
+		method.SignalTwoOfThree:    "two of three points in a row more than 2 sigma from the centre, on the same side",
+		method.SignalFourOfFive:    "four of five points in a row more than 1 sigma from the centre, on the same side",
+		method.SignalRunSameSide:   "nine or more points in a row on the same side of the centre line",
+		method.SignalTrend:         "six or more points in a row, each higher (or each lower) than the one before",
+		method.SignalAlternating:   "fourteen or more points in a row going up and down in turn",
+		method.SignalHuggingCentre: "fifteen or more points in a row within 1 sigma of the centre (limits too wide, or mixed streams)",
+		method.SignalAvoidCentre:   "eight or more points in a row more than 1 sigma from the centre, on both sides (two streams mixed)",
+		SignalEWMA:                 "the exponentially weighted average outside its limits: a small sustained shift",
+		SignalCUSUM:                "a cumulative sum of deviations beyond its decision interval: a small sustained shift",
+	}[code]
+}
+
+// stabSignal is one signal with where it lies and the rows (or subgroups)
+// that make it.
+func (w words) stabSignal(s SignalInfo, subgroup bool) string {
+	what, where := "reading", ""
+	if subgroup {
+		what = "subgroup"
+	}
+	if s.First == s.Last {
+		where = fmt.Sprintf("%s %d", what, s.First)
+	} else {
+		where = fmt.Sprintf("%ss %d-%d", what, s.First, s.Last)
+	}
+	by := ""
+	if len(s.Rows) > 0 {
+		parts := make([]string, len(s.Rows))
+		for i, x := range s.Rows {
+			parts[i] = strconv.Itoa(x)
+		}
+		by = " (" + plural(s.Points, "row ", "rows ") + stabJoin(parts, s.Points) + ")"
+	} else if len(s.Subgroups) > 0 {
+		by = " (" + plural(s.Points, "subgroup ", "subgroups ") + stabJoin(s.Subgroups, s.Points) + ")"
+	}
+	side := ""
+	switch s.Side {
+	case 1:
+		side = " (upward)"
+	case -1:
+		side = " (downward)"
+	}
+	return w.stabCheckName(s.Code) + side + ": " + where + by
+}
+
+func stabJoin(v []string, total int) string {
+	s := strings.Join(v, ", ")
+	if total > len(v) {
+		s += fmt.Sprintf(" and %d more", total-len(v))
+	}
+	return s
+}
+
+// stabReasonSignals .. stabReasonCUSUM: n signals, first the earliest
+// (its text from stabSignal), nil when none is listed.
+func (w words) stabReasonSignals(n int, first *SignalInfo) string {
+	s := fmt.Sprintf("%d %s on the control chart", n, plural(n, "signal", "signals"))
+	if first != nil {
+		s += "; the first: " + first.Text
+	}
+	return s
+}
+
+func (w words) stabReasonEWMA(n int, first *SignalInfo) string {
+	s := fmt.Sprintf("the EWMA left its limits %d %s", n, plural(n, "time", "times"))
+	if first != nil {
+		s += ", first " + first.Text
+	}
+	return s
+}
+
+func (w words) stabReasonCUSUM(n int, first *SignalInfo) string {
+	s := fmt.Sprintf("the CUSUM crossed its decision interval %d %s", n, plural(n, "time", "times"))
+	if first != nil {
+		s += ", first " + first.Text
+	}
+	return s
+}
+
+// stabValue writes a data value (a mean, a shift, a slope) with the data's
+// decimals dec plus extra; stabSigned adds the sign and the unit.
+func (w words) stabValue(x float64, dec, extra int) string {
+	return w.fixed(x, min(15, dec+extra))
+}
+
+func (w words) stabSigned(x float64, dec, extra int, unit string) string {
+	s := w.stabValue(x, dec, extra)
+	if x > 0 {
+		s = "+" + s
+	}
+	if unit != "" {
+		s += " " + unit
+	}
+	return s
+}
+
+// stabReasonTrend: Mann-Kendall's S and p, Sen's slope (nil when none) in
+// data units per reading.
+func (w words) stabReasonTrend(s int64, p float64, slope *SlopeInfo, dec int, unit string) string {
+	trend := "an upward trend"
+	if s < 0 {
+		trend = "a downward trend"
+	}
+	out := fmt.Sprintf("%s (Mann-Kendall %s)", trend, w.p(p))
+	if slope != nil {
+		out += ", about " + w.stabSigned(slope.Slope, dec, 2, unit) + " per reading (Sen's slope)"
+	}
+	return out
+}
+
+func (w words) stabChangeAt(c *ChangeInfo, subgroup bool) string {
+	if subgroup {
+		return fmt.Sprintf("subgroup %d (%s)", c.Position, c.Subgroup)
+	}
+	return fmt.Sprintf("reading %d (row %d)", c.Position, c.Row)
+}
+
+func (w words) stabReasonChange(c *ChangeInfo, subgroup bool, dec int) string {
+	return fmt.Sprintf("the level changed at %s: mean %s before, %s after (Pettitt %s)", w.stabChangeAt(c, subgroup), w.stabValue(c.MeanBefore, dec, 1), w.stabValue(c.MeanAfter, dec, 1), w.p(c.P))
+}
+
+func (w words) stabReasonNoSignal() string {
+	return "no point beyond the limits, no run or pattern among the checks switched on, no EWMA or CUSUM alarm, no trend and no change point"
+}
+
+func (w words) stabWarnAutocorr(r1, p float64) string {
+	return fmt.Sprintf("Consecutive readings are correlated (lag-1 autocorrelation %s, %s): limits from moving ranges are then too narrow and signal too often; sample less often or model the drift.", w.g3(r1), w.p(p))
+}
+
+func (w words) stabWarnGaps(o StabilityOrder) string {
+	return fmt.Sprintf("%d %s in the order column (steps more than %d times the usual %s): the process may have been stopped or changed there.", o.GapCount, plural(o.GapCount, "gap", "gaps"), gapFactor, w.stabStep(o.MedianStep, o.Kind))
+}
+
+func (w words) stabWarnOutOfOrder(o StabilityOrder) string {
+	return fmt.Sprintf("%d rows are out of order in the file; the chart follows column %q.", o.OutOfOrder, o.Column)
+}
+
+// stabLeadStable: points on the chart (subgroups when subgroup) of
+// readings readings.
+func (w words) stabLeadStable(points, readings int, subgroup bool) string {
+	if subgroup {
+		return fmt.Sprintf("Stable over the %d subgroups (%d readings): no signal", points, readings)
+	}
+	return fmt.Sprintf("Stable over the %d readings: no signal", readings)
+}
+
+func (w words) stabLeadShift(c *ChangeInfo, subgroup bool, dec int, unit string) string {
+	dir := "upward"
+	if c.Shift < 0 {
+		dir = "downward"
+	}
+	at := fmt.Sprintf("reading %d", c.Position)
+	if subgroup {
+		at = fmt.Sprintf("subgroup %d (%s)", c.Position, c.Subgroup)
+	}
+	return fmt.Sprintf("Shift %s from %s (about %s)", dir, at, w.stabSigned(c.Shift, dec, 1, unit))
+}
+
+func (w words) stabLeadDrift(slope float64, dec int, unit string) string {
+	dir := "upward"
+	if slope < 0 {
+		dir = "downward"
+	}
+	return fmt.Sprintf("Drifting %s: about %s per reading", dir, w.stabSigned(slope, dec, 2, unit))
+}
+
+func (w words) stabLeadSignals(n int, first *SignalInfo) string {
+	s := fmt.Sprintf("Not stable: %d %s", n, plural(n, "signal", "signals"))
+	if first != nil {
+		s += "; the first: " + first.Text
+	}
+	return s
+}
+
+// stabLeadBaseline joins the lead and the baseline's sentence.
+func (w words) stabLeadBaseline(lead, baseline string) string { return lead + "; " + baseline }
 
 // ---- Groups ---------------------------------------------------------------
 

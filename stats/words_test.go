@@ -129,13 +129,20 @@ func TestSentencesFollowDecimalMark(t *testing.T) {
 	f := func(x float64) *float64 { return &x }
 	sym := []string{"5.10", "5.12", "5.08", "5.13", "5.07", "5.11", "5.09", "5.10", "5.14", "5.06",
 		"5.12", "5.08", "5.10", "5.15", "5.05", "5.11", "5.09", "5.31", "4.89", "5.10", "5.13", "5.07", "5.10"}
-	var skew, lognormal, bimodal, coarse []string
+	var skew, lognormal, bimodal, coarse, shifted []string
 	for i := 1; i <= 60; i++ {
 		skew = append(skew, strconv.FormatFloat(2+3*math.Pow(float64(i)/60, 4), 'f', 2, 64))
 		// lognormal quantiles: 5·exp(0.4·Φ⁻¹((i - ½)/60))
 		lognormal = append(lognormal, strconv.FormatFloat(5*math.Exp(0.4*math.Sqrt2*math.Erfinv(2*(float64(i)-0.5)/60-1)), 'f', 2, 64))
 		bimodal = append(bimodal, strconv.FormatFloat(5+float64(i%2)+float64(i%7)/100, 'f', 2, 64))
 		coarse = append(coarse, strconv.FormatFloat(5.1+float64(i%3)/10, 'f', 1, 64))
+		// in time order: steady about 5.10, then 0.08 higher from reading 31
+		// (a shift, a change point and signals in the Over time section)
+		step := 0.0
+		if i > 30 {
+			step = 0.08
+		}
+		shifted = append(shifted, strconv.FormatFloat(5.1+step+0.01*float64([]int{0, 2, -1, 1, -2, 0, 1, -1}[i%8]), 'f', 2, 64))
 	}
 	// grouped: three lines (the third with a far reading, so the rank
 	// tests and the Hodges-Lehmann shifts lead), and two lines
@@ -167,8 +174,10 @@ func TestSentencesFollowDecimalMark(t *testing.T) {
 		{"near the largest double", []string{"1.7e308", "1.6e308", "1.5e308", "1.7e308"}, Options{LSL: f(1e308)}, Request{}},
 		{"few, hf1", []string{"5.10", "5.30", "5.20", "5.60", "5.40", "5.50"}, Options{Target: f(5.25), Quantile: "hf1", LSL: f(5.0), USL: f(5.7)}, Request{}},
 		{"equal", []string{"5.10", "5.10", "5.10", "5.10"}, Options{Target: f(5.1), LSL: f(5.0), USL: f(5.2)}, Request{}},
+		{"ordered, shifting", shifted, Options{LSL: f(4.9), USL: f(5.4)}, Request{}},
+		{"ordered, shifting, baseline", shifted, Options{LSL: f(4.9), USL: f(5.4), Baseline: "1-30", Signals: map[string]bool{"alternating": true}}, Request{}},
 	}
-	seenP, seenStatement, seenGroups := false, false, 0
+	seenP, seenStatement, seenStability, seenGroups := false, false, false, 0
 	for _, set := range sets {
 		text := strings.Join(set.vals, "\n") + "\n"
 		req := set.req
@@ -203,6 +212,13 @@ func TestSentencesFollowDecimalMark(t *testing.T) {
 				seenP = true
 			}
 		}
+		if strings.HasPrefix(set.name, "ordered") {
+			// the section signals, and its sentences were walked
+			if pt.Stability == nil || pt.Stability.Stable || !strings.Contains(cm.Stability.Verdict, "+0,0") || !strings.Contains(pt.Stability.Verdict, "+0.0") {
+				t.Errorf("%s: verdicts %q and %q", set.name, pt.Stability.Verdict, cm.Stability.Verdict)
+			}
+			seenStability = true
+		}
 		if set.req.Group != "" {
 			g := cm.Groups
 			if g == nil || g.Statement == "" || !regexp.MustCompile(`\d,\d`).MatchString(g.Statement) {
@@ -222,7 +238,7 @@ func TestSentencesFollowDecimalMark(t *testing.T) {
 			seenStatement = true
 		}
 	}
-	if !seenP || !seenStatement || seenGroups != 2 {
-		t.Errorf("no p-value (%v), target statement (%v) or groups statements (%d of 2) was checked", seenP, seenStatement, seenGroups)
+	if !seenP || !seenStatement || !seenStability || seenGroups != 2 {
+		t.Errorf("no p-value (%v), target statement (%v), over-time verdict (%v) or groups statements (%d of 2) was checked", seenP, seenStatement, seenStability, seenGroups)
 	}
 }

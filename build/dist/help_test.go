@@ -17,7 +17,8 @@ var helpSlugs = []string{"verdict", "reading-your-report", "data-formats", "priv
 	"mean", "median", "trimmed-mean", "mode", "standard-deviation", "range-iqr", "mad", "cv", "sem", "quantiles",
 	"confidence-intervals", "skewness-kurtosis", "dagostino", "shapiro-wilk", "anderson-darling", "probability-plot",
 	"histogram", "box-plot", "tukey-fences", "adjusted-boxplot", "modified-z", "gesd", "t-test", "wilcoxon",
-	"resolution", "run-chart", "groups", "anova", "kruskal-wallis", "two-groups", "spread-tests", "pairwise", "letters"}
+	"resolution", "run-chart", "control-charts", "control-constants", "signal-checks", "ewma", "cusum", "drift-tests", "change-point",
+	"groups", "anova", "kruskal-wallis", "two-groups", "spread-tests", "pairwise", "letters"}
 
 // general pages explain the tool rather than one method.
 var general = map[string]bool{"index": true, "reading-your-report": true, "data-formats": true, "privacy": true,

@@ -23,14 +23,15 @@ func FormatOf(r *stats.Report) Format {
 }
 
 // All draws every chart the report has data for, keyed "histogram", "box",
-// "probplot" and "run". A chart without data is left out.
+// "probplot", "run", "control" (control.go) and "groups". A chart without
+// data is left out.
 func All(r *stats.Report) map[string]string {
 	out := map[string]string{}
 	if r == nil || r.Charts == nil {
 		return out
 	}
 	for k, f := range map[string]func(*stats.Report) string{
-		"histogram": Histogram, "box": Box, "probplot": ProbPlot, "run": Run, "groups": Groups, "spec": SpecFit, "spec-spread": SpecSpread,
+		"histogram": Histogram, "box": Box, "probplot": ProbPlot, "run": Run, "control": Control, "groups": Groups, "spec": SpecFit, "spec-spread": SpecSpread,
 	} {
 		if s := f(r); s != "" {
 			out[k] = s

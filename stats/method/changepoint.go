@@ -3,7 +3,6 @@ package method
 import (
 	"fmt"
 	"math"
-	"slices"
 )
 
 // ChangePoint is the most likely single change in the level of a series.
@@ -22,46 +21,32 @@ type ChangePoint struct {
 // with Pettitt's approximation p ≈ 2·exp(−6K²/(n³ + n²)) (good for
 // p < 0.5; capped at 1). U_t is computed through
 // U_t = U_{t−1} + Σⱼ sign(x_t − xⱼ), the sums of signs from the ranks
-// (ties count 0), in O(n log n). Needs at least 2 readings; with all
+// (ties count 0; RankSeries, then O(n)). Needs at least 2 readings; with all
 // readings equal K = 0 and P = 1 (Index 1).
 func PettittChange[T int64 | float64](x []T) (ChangePoint, error) {
-	n := len(x)
-	if n < 2 {
-		return ChangePoint{}, fmt.Errorf("%d readings: a change point needs at least 2", n)
-	}
-	if err := ctlFinite(x); err != nil {
+	r, err := RankSeries(x)
+	if err != nil {
 		return ChangePoint{}, err
 	}
-	// v[i] = Σⱼ sign(xᵢ − xⱼ) = (readings below xᵢ) − (readings above xᵢ).
-	idx := make([]int32, n)
-	for i := range idx {
-		idx[i] = int32(i)
+	return PettittRanked(r, x)
+}
+
+// PettittRanked is PettittChange on ranks made by RankSeries (shared with
+// the other rank tests of x): Σⱼ sign(x_t − xⱼ) = (readings below x_t) −
+// (readings above x_t), from the rank's counts, in O(n).
+func PettittRanked[T int64 | float64](r SeriesRanks[T], x []T) (ChangePoint, error) {
+	n := r.N
+	if n < 2 || len(x) != n {
+		return ChangePoint{}, fmt.Errorf("%d readings: a change point needs at least 2", n)
 	}
-	slices.SortFunc(idx, func(a, b int32) int {
-		switch {
-		case x[a] < x[b]:
-			return -1
-		case x[a] > x[b]:
-			return 1
-		}
-		return 0
-	})
-	v := make([]int64, n)
-	for i := 0; i < n; {
-		j := i + 1
-		for j < n && x[idx[j]] == x[idx[i]] {
-			j++
-		}
-		s := int64(i) - int64(n-j)
-		for k := i; k < j; k++ {
-			v[idx[k]] = s
-		}
-		i = j
+	v := func(t int) int64 {
+		k := r.Dense[t]
+		return r.Below[k] - (int64(n) - r.Below[k+1])
 	}
 	var u, best int64
 	bt := 1
 	for t := 1; t < n; t++ { // U_t for the first t readings
-		u += v[t-1]
+		u += v(t - 1)
 		a := u
 		if a < 0 {
 			a = -a

@@ -100,15 +100,23 @@ var ctlMRCov1 = 2*math.Sqrt(3)/math.Pi + 1.0/3 - 4/math.Pi
 // share at most one reading are treated as independent: ν = m'·d2²/(2d3²)
 // with m' = ⌊m/(w−1)⌋, on the safe side.
 func SigmaMovingRange(x []float64, w int, keep []bool) (SigmaEstimate, error) {
-	mr, m, err := ctlKeptRanges(x, w, keep)
-	if err != nil {
-		return SigmaEstimate{}, err
+	sum, m := 0.0, len(x)-1
+	if w == 2 && keep == nil && m >= 1 {
+		// the usual case, summed without an array of ranges (long series)
+		for j := 1; j < len(x); j++ {
+			sum += math.Abs(x[j] - x[j-1])
+		}
+	} else {
+		mr, mm, err := ctlKeptRanges(x, w, keep)
+		if err != nil {
+			return SigmaEstimate{}, err
+		}
+		sum, m = 0, mm
+		for _, v := range mr {
+			sum += v
+		}
 	}
 	c, _ := Constants(w)
-	sum := 0.0
-	for _, v := range mr {
-		sum += v
-	}
 	mbar := sum / float64(m)
 	est := SigmaEstimate{Sigma: mbar / c.SmallD2, Count: m}
 	if w == 2 {

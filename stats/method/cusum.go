@@ -28,22 +28,40 @@ type CUSUMChart struct {
 // Hσ. Usual settings: K = 0.5 (to detect a shift of 1σ), H = 4 or 5.
 // sigma is the standard deviation of one plotted point.
 func CUSUM(x []float64, centre, sigma, k, h float64) (CUSUMChart, error) {
-	if err := ctlCheckKH(k, h); err != nil {
-		return CUSUMChart{}, err
-	}
-	if !(sigma >= 0) || math.IsInf(sigma, 0) || math.IsNaN(centre) || math.IsInf(centre, 0) {
-		return CUSUMChart{}, fmt.Errorf("centre %g and sigma %g: they must be finite, sigma >= 0", centre, sigma)
-	}
 	n := len(x)
 	c := CUSUMChart{K: k, H: h, Centre: centre, Sigma: sigma, Slack: k * sigma, Decision: h * sigma,
 		Upper: make([]float64, n), Lower: make([]float64, n),
 		UpperCount: make([]int32, n), LowerCount: make([]int32, n)}
+	err := CUSUMScan(x, centre, sigma, k, h, func(i int, up, lo float64, nu, nl int32, beyond bool) {
+		c.Upper[i], c.Lower[i], c.UpperCount[i], c.LowerCount[i] = up, lo, nu, nl
+		if beyond {
+			c.Beyond = append(c.Beyond, i)
+		}
+	})
+	if err != nil {
+		return CUSUMChart{}, err
+	}
+	return c, nil
+}
+
+// CUSUMScan computes the same sums as CUSUM without keeping them: visit
+// gets each point's index, the upper and lower sums, the number of points
+// each has been above 0 in a row, and whether a sum exceeds H·σ, in order.
+// Memory O(1), for long series.
+func CUSUMScan(x []float64, centre, sigma, k, h float64, visit func(i int, up, lo float64, nu, nl int32, beyond bool)) error {
+	if err := ctlCheckKH(k, h); err != nil {
+		return err
+	}
+	if !(sigma >= 0) || math.IsInf(sigma, 0) || math.IsNaN(centre) || math.IsInf(centre, 0) {
+		return fmt.Errorf("centre %g and sigma %g: they must be finite, sigma >= 0", centre, sigma)
+	}
 	up, lo := 0.0, 0.0
 	var nu, nl int32
-	hi, low := centre+c.Slack, centre-c.Slack
+	slack, decision := k*sigma, h*sigma
+	hi, low := centre+slack, centre-slack
 	for i, v := range x {
-		up = math.Max(0, v-hi+up)
-		lo = math.Max(0, low-v+lo)
+		up = max(0, v-hi+up) // the built-in max: no branch to mispredict
+		lo = max(0, low-v+lo)
 		if up > 0 {
 			nu++
 		} else {
@@ -54,12 +72,9 @@ func CUSUM(x []float64, centre, sigma, k, h float64) (CUSUMChart, error) {
 		} else {
 			nl = 0
 		}
-		c.Upper[i], c.Lower[i], c.UpperCount[i], c.LowerCount[i] = up, lo, nu, nl
-		if up > c.Decision || lo > c.Decision {
-			c.Beyond = append(c.Beyond, i)
-		}
+		visit(i, up, lo, nu, nl, up > decision || lo > decision)
 	}
-	return c, nil
+	return nil
 }
 
 func ctlCheckKH(k, h float64) error {

@@ -49,27 +49,44 @@ func ctlCheckLambdaL(lambda, l float64) error {
 // means of n). Usual settings: λ = 0.2, L = 3, or λ and L from
 // EWMAARL for a wanted in-control run length.
 func EWMA(x []float64, centre, sigma, lambda, l float64) (EWMAChart, error) {
-	if err := ctlCheckLambdaL(lambda, l); err != nil {
+	c := EWMAChart{Lambda: lambda, L: l, Centre: centre, Sigma: sigma, Z: make([]float64, len(x))}
+	err := EWMAScan(x, centre, sigma, lambda, l, func(i int, z float64, beyond bool) {
+		c.Z[i] = z
+		if beyond {
+			c.Beyond = append(c.Beyond, i)
+		}
+	})
+	if err != nil {
 		return EWMAChart{}, err
 	}
-	if !(sigma >= 0) || math.IsInf(sigma, 0) || math.IsNaN(centre) || math.IsInf(centre, 0) {
-		return EWMAChart{}, fmt.Errorf("centre %g and sigma %g: they must be finite, sigma >= 0", centre, sigma)
+	return c, nil
+}
+
+// EWMAScan computes the same averages as EWMA without keeping them: visit
+// gets each point's index, its average z and whether z lies beyond the
+// limits (EWMAChart.Limits), in order. Memory O(1), for long series.
+func EWMAScan(x []float64, centre, sigma, lambda, l float64, visit func(i int, z float64, beyond bool)) error {
+	if err := ctlCheckLambdaL(lambda, l); err != nil {
+		return err
 	}
-	c := EWMAChart{Lambda: lambda, L: l, Centre: centre, Sigma: sigma, Z: make([]float64, len(x))}
+	if !(sigma >= 0) || math.IsInf(sigma, 0) || math.IsNaN(centre) || math.IsInf(centre, 0) {
+		return fmt.Errorf("centre %g and sigma %g: they must be finite, sigma >= 0", centre, sigma)
+	}
 	z := centre
 	a := 1.0 // (1−λ)^(2(i+1))
 	q := (1 - lambda) * (1 - lambda)
 	k := lambda / (2 - lambda)
+	h := 0.0
 	for i, v := range x {
 		z = lambda*v + (1-lambda)*z
-		c.Z[i] = z
-		a *= q
-		h := l * sigma * math.Sqrt(k*(1-a))
-		if d := z - centre; d > h || d < -h {
-			c.Beyond = append(c.Beyond, i)
+		if 1-a != 1 { // once (1−λ)^(2(i+1)) is below the rounding of 1, h stays
+			a *= q
+			h = l * sigma * math.Sqrt(k*(1-a))
 		}
+		d := z - centre
+		visit(i, z, d > h || d < -h)
 	}
-	return c, nil
+	return nil
 }
 
 // ctlARLStates is the number of Markov chain states used for the average

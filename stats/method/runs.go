@@ -126,50 +126,37 @@ func Signals(x []float64, centre float64, sigma []float64, s SignalSettings) ([]
 			return nil, fmt.Errorf("point %d is %g: points must be finite", i, v)
 		}
 	}
-	sg := func(i int) float64 {
-		if len(sigma) == 1 {
-			return sigma[0]
+	// One pass classifies every point (a byte each): which zone edges it
+	// lies beyond and on which side; the checks then read the bytes.
+	lim := ctlDefaultF(s.Limit, 3)
+	code := make([]uint8, n)
+	for i, v := range x {
+		sg := sigma[0]
+		if len(sigma) > 1 {
+			sg = sigma[i]
 		}
-		return sigma[i]
-	}
-	// zone(i, k): +1 if x[i] is more than kσ above the centre, −1 if more
-	// than kσ below, 0 otherwise.
-	zone := func(i int, k float64) int {
-		d, lim := x[i]-centre, k*sg(i)
-		switch {
-		case d > lim:
-			return 1
-		case d < -lim:
-			return -1
-		}
-		return 0
+		d := v - centre
+		a := math.Abs(d)
+		// without branches (random points would mispredict them)
+		code[i] = ctlBit(a > sg)*zoneBeyond1 | ctlBit(a > 2*sg)*zoneBeyond2 | ctlBit(a > lim*sg)*zoneBeyondLimit |
+			ctlBit(a < sg)*zoneWithin1 | ctlBit(d < 0)*zoneBelow | ctlBit(d > 0)*zoneAbove
 	}
 	var out []Signal
 	if s.BeyondLimits {
-		lim := ctlDefaultF(s.Limit, 3)
-		for i := range x {
-			if z := zone(i, lim); z != 0 {
+		for i, c := range code {
+			if z := ctlClass(c, zoneBeyondLimit); z != 0 {
 				out = append(out, Signal{Rule: SignalBeyondLimits, Side: z, First: i, Last: i, Points: []int{i}})
 			}
 		}
 	}
 	if s.TwoOfThree {
-		out = ctlWindowed(out, n, SignalTwoOfThree, 2, 3, func(i int) int { return zone(i, 2) })
+		out = ctlWindowed(out, code, SignalTwoOfThree, 2, 3, zoneBeyond2)
 	}
 	if s.FourOfFive {
-		out = ctlWindowed(out, n, SignalFourOfFive, 4, 5, func(i int) int { return zone(i, 1) })
+		out = ctlWindowed(out, code, SignalFourOfFive, 4, 5, zoneBeyond1)
 	}
 	if s.RunSameSide {
-		side := func(i int) int {
-			switch {
-			case x[i] > centre:
-				return 1
-			case x[i] < centre:
-				return -1
-			}
-			return 0
-		}
-		out = ctlRuns(out, n, SignalRunSameSide, ctlDefaultI(s.SameSideRun, 9), side, false)
+		out = ctlRuns(out, code, SignalRunSameSide, ctlDefaultI(s.SameSideRun, 9), classSide, false)
 	}
 	if s.Trend {
 		out = ctlSteps(out, x, SignalTrend, ctlDefaultI(s.TrendRun, 6), false)
@@ -178,18 +165,51 @@ func Signals(x []float64, centre float64, sigma []float64, s SignalSettings) ([]
 		out = ctlSteps(out, x, SignalAlternating, ctlDefaultI(s.AlternatingRun, 14), true)
 	}
 	if s.HuggingCentre {
-		in := func(i int) int {
-			if math.Abs(x[i]-centre) < sg(i) {
-				return 2 // a class of its own (no side)
-			}
-			return 0
-		}
-		out = ctlRuns(out, n, SignalHuggingCentre, ctlDefaultI(s.HuggingRun, 15), in, false)
+		out = ctlRuns(out, code, SignalHuggingCentre, ctlDefaultI(s.HuggingRun, 15), zoneWithin1, false)
 	}
 	if s.AvoidCentre {
-		out = ctlRuns(out, n, SignalAvoidCentre, ctlDefaultI(s.AvoidRun, 8), func(i int) int { return zone(i, 1) }, true)
+		out = ctlRuns(out, code, SignalAvoidCentre, ctlDefaultI(s.AvoidRun, 8), zoneBeyond1, true)
 	}
 	return out, nil
+}
+
+// The bits of a point's zone byte in Signals: beyond 1σ, 2σ and the limit
+// (strictly), strictly within 1σ, and the side of the centre.
+const (
+	zoneBeyond1 uint8 = 1 << iota
+	zoneBeyond2
+	zoneBeyondLimit
+	zoneWithin1
+	zoneBelow
+	zoneAbove
+	classSide // not a bit of the byte: ctlClass gives the side of the centre
+)
+
+// ctlBit is 1 for true (the compiler makes it a flag set, not a branch).
+func ctlBit(b bool) uint8 {
+	var u uint8
+	if b {
+		u = 1
+	}
+	return u
+}
+
+// ctlClass is the class of a point with zone byte c that a check reads:
+// for an edge (zoneBeyond1, zoneBeyond2, zoneBeyondLimit) +1 beyond it
+// above the centre, −1 below, 0 otherwise; for classSide the side of the
+// centre (0 on it); for zoneWithin1 2 when strictly within 1σ (a class of
+// its own, without a side), else 0.
+func ctlClass(c, what uint8) int {
+	side := int(c&zoneAbove)>>5 - int(c&zoneBelow)>>4
+	switch {
+	case what == classSide:
+		return side
+	case what == zoneWithin1:
+		return int(c&zoneWithin1) >> 2
+	case c&what == 0:
+		return 0
+	}
+	return side
 }
 
 func ctlDefaultI(v, d int) int {
@@ -210,29 +230,30 @@ func ctlDefaultF(v, d float64) float64 {
 // (side beyond a zone). A window fires at point i when class(i) ≠ 0 and at
 // least m of the last w points (fewer at the start) share it; overlapping
 // firings on the same side join into one signal.
-func ctlWindowed(out []Signal, n int, rule string, m, w int, class func(int) int) []Signal {
-	cnt := [3]int{} // counts of −1, 0, +1 in the window
-	cls := make([]int8, 0, w)
-	open := -1 // index in out of the signal still open
+func ctlWindowed(out []Signal, code []uint8, rule string, m, w int, edge uint8) []Signal {
+	n := len(code)
+	cnt := [3]int{}         // counts of −1, 0, +1 in the window
+	ring := make([]int8, w) // the window's classes, point i at r = i mod w
+	open := -1              // index in out of the signal still open
+	r := 0
 	for i := 0; i < n; i++ {
-		c := class(i)
-		if len(cls) == w {
-			cnt[cls[0]+1]--
-			cls = cls[1:]
-			if cap(cls) < w {
-				cls = append(make([]int8, 0, 2*w), cls...)
-			}
+		c := ctlClass(code[i], edge)
+		if i >= w {
+			cnt[ring[r]+1]--
 		}
-		cls = append(cls, int8(c))
+		ring[r] = int8(c)
+		if r++; r == w {
+			r = 0
+		}
 		cnt[c+1]++
 		if c == 0 || cnt[c+1] < m {
 			continue
 		}
-		lo := i - len(cls) + 1
+		lo := max(0, i-w+1)
 		if open >= 0 && out[open].Side == c && out[open].Last >= lo {
 			sg := &out[open]
 			for j := sg.Last + 1; j <= i; j++ {
-				if class(j) == c {
+				if ctlClass(code[j], edge) == c {
 					sg.Points = append(sg.Points, j)
 				}
 			}
@@ -241,7 +262,7 @@ func ctlWindowed(out []Signal, n int, rule string, m, w int, class func(int) int
 		}
 		var pts []int
 		for j := lo; j <= i; j++ {
-			if class(j) == c {
+			if ctlClass(code[j], edge) == c {
 				pts = append(pts, j)
 			}
 		}
@@ -254,7 +275,8 @@ func ctlWindowed(out []Signal, n int, rule string, m, w int, class func(int) int
 // ctlRuns reports maximal runs of at least minLen points with the same
 // non-zero class. With bothSides, the class is a side (±1) and a run is
 // any stretch of non-zero classes that holds both signs.
-func ctlRuns(out []Signal, n int, rule string, minLen int, class func(int) int, bothSides bool) []Signal {
+func ctlRuns(out []Signal, code []uint8, rule string, minLen int, what uint8, bothSides bool) []Signal {
+	n := len(code)
 	start, cur := 0, 0
 	seen := [2]bool{}
 	flush := func(end int) {
@@ -274,7 +296,7 @@ func ctlRuns(out []Signal, n int, rule string, minLen int, class func(int) int, 
 		out = append(out, Signal{Rule: rule, Side: side, First: start, Last: end})
 	}
 	for i := 0; i < n; i++ {
-		c := class(i)
+		c := ctlClass(code[i], what)
 		same := c == cur
 		if bothSides {
 			same = (c != 0) == (cur != 0)

@@ -99,30 +99,33 @@ const ctlRunsExactMax = 5000
 // median is decided without arithmetic: with an even count every reading
 // lies at or below the lower middle value or at or above the upper one.
 func RunsAboutMedian[T int64 | float64](x []T) (RunsTest, error) {
-	n := len(x)
+	r, err := RankSeries(x)
+	if err != nil {
+		return RunsTest{}, err
+	}
+	return RunsRanked(r)
+}
+
+// RunsRanked is RunsAboutMedian on ranks made by RankSeries (shared with
+// the other rank tests of the same series).
+func RunsRanked[T int64 | float64](r SeriesRanks[T]) (RunsTest, error) {
+	n := r.N
 	if n < 2 {
 		return RunsTest{}, fmt.Errorf("%d readings: the runs test needs at least 2", n)
 	}
-	if err := ctlFinite(x); err != nil {
-		return RunsTest{}, err
-	}
-	s := slices.Clone(x)
-	slices.Sort(s)
-	lo, hi := s[(n-1)/2], s[n/2]
-	res := RunsTest{N: n, Median: (float64(lo) + float64(hi)) / 2}
-	side := func(v T) int {
-		switch {
-		case v < lo || (v == lo && lo < hi):
-			return -1
-		case v > hi || (v == hi && lo < hi):
-			return 1
-		}
-		return 0
-	}
+	// the dense ranks of the lower and upper middle values
+	lo, hi := r.rankAt((n-1)/2), r.rankAt(n/2)
+	res := RunsTest{N: n, Median: (float64(r.Values[lo]) + float64(r.Values[hi])) / 2}
 	prev, runStart := 0, 0
 	curLen := 0
-	for i, v := range x {
-		sd := side(v)
+	for i, k := range r.Dense {
+		var sd int
+		switch {
+		case k < lo || (k == lo && lo < hi):
+			sd = -1
+		case k > hi || (k == hi && lo < hi):
+			sd = 1
+		}
 		switch sd {
 		case 0:
 			res.OnMedian++
@@ -223,36 +226,50 @@ type MannKendall struct {
 //
 // over the groups of t equal readings, and the normal approximation with
 // continuity correction (Z = 0 when S = 0). S is computed in O(n log n):
-// S = P − Q where Q counts the pairs out of order (inversions, counted by
-// merge sort), P = n(n−1)/2 − Q − Σ t(t−1)/2; the tie groups are counted
-// on the sorted copy. Needs at least 3 readings; when all are equal
+// S = P − Q where Q counts the pairs out of order (MannKendallRanked),
+// P = n(n−1)/2 − Q − Σ t(t−1)/2 over the tie groups. Needs at least 3 readings; when all are equal
 // VarS = 0 and P = 1.
 func MannKendallTest[T int64 | float64](x []T) (MannKendall, error) {
-	n := len(x)
+	r, err := RankSeries(x)
+	if err != nil {
+		return MannKendall{}, err
+	}
+	return MannKendallRanked(r)
+}
+
+// MannKendallRanked is MannKendallTest on ranks made by RankSeries: the
+// pairs out of order are counted with a binary indexed tree over the dense
+// ranks (Fenwick 1994), O(n log d) for d distinct values, and the tie
+// groups are the ranks' counts.
+func MannKendallRanked[T int64 | float64](r SeriesRanks[T]) (MannKendall, error) {
+	n := r.N
 	if n < 3 {
 		return MannKendall{}, fmt.Errorf("%d readings: the trend test needs at least 3", n)
 	}
-	if err := ctlFinite(x); err != nil {
-		return MannKendall{}, err
+	d := len(r.Values)
+	tree := make([]int32, d+1) // counts of earlier readings by dense rank, 1-based
+	var q int64
+	for i, k := range r.Dense {
+		// earlier readings at or below rank k
+		le := int64(0)
+		for j := int(k) + 1; j > 0; j -= j & -j {
+			le += int64(tree[j])
+		}
+		q += int64(i) - le
+		for j := int(k) + 1; j <= d; j += j & -j {
+			tree[j]++
+		}
 	}
-	s := slices.Clone(x)
-	buf := make([]T, n)
-	q := ctlInversions(s, buf)
 	var ties int64
 	tieTerm := 0.0
 	groups := 0
-	for i := 0; i < n; {
-		j := i + 1
-		for j < n && s[j] == s[i] {
-			j++
-		}
-		if t := int64(j - i); t > 1 {
+	for k := range d {
+		if t := r.Below[k+1] - r.Below[k]; t > 1 {
 			groups++
 			ties += t * (t - 1) / 2
 			ft := float64(t)
 			tieTerm += ft * (ft - 1) * (2*ft + 5)
 		}
-		i = j
 	}
 	nn := int64(n) * int64(n-1) / 2
 	p := nn - q - ties
@@ -276,52 +293,89 @@ func MannKendallTest[T int64 | float64](x []T) (MannKendall, error) {
 	return res, nil
 }
 
-// ctlInversions sorts s ascending (stable merge sort, buf as scratch of
-// the same length) and returns the number of pairs i < j with s[i] > s[j].
-func ctlInversions[T int64 | float64 | int32](s, buf []T) int64 {
-	n := len(s)
-	var inv int64
-	// bottom-up: runs of 16 by insertion sort first
-	const run = 16
-	for lo := 0; lo < n; lo += run {
-		hi := min(lo+run, n)
-		for i := lo + 1; i < hi; i++ {
-			v := s[i]
-			j := i
-			for j > lo && s[j-1] > v {
-				s[j] = s[j-1]
-				j--
-			}
-			inv += int64(i - j)
-			s[j] = v
-		}
+// SeriesRanks are the ranks of a series in order, made once by RankSeries
+// and shared by the rank tests of the series (RunsRanked,
+// MannKendallRanked, PettittRanked).
+type SeriesRanks[T int64 | float64] struct {
+	N      int
+	Dense  []int32 // the dense rank of each reading, in order (0: the smallest value)
+	Values []T     // the distinct values, ascending
+	Below  []int64 // Below[k]: readings below Values[k]; Below[len(Values)] = N
+}
+
+// rankAt is the dense rank of the reading at 0-based position p of the
+// sorted series.
+func (r SeriesRanks[T]) rankAt(p int) int32 {
+	k, _ := slices.BinarySearch(r.Below, int64(p)+1) // first k with Below[k] > p
+	return int32(k - 1)
+}
+
+// rankCountMax bounds the range of integers RankSeries ranks by counting
+// (one int32 per step, as decimal.Grid.CountSort): 4 steps a reading.
+const rankCountMax = 4
+
+// RankSeries ranks the readings x (finite) once for the rank tests:
+// integers (mantissas of decimals as typed) whose range spans at most
+// 4·n + 1024 steps by counting (Seward 1954), O(n + range); others by a
+// sort of a copy and a binary search among the distinct values,
+// O(n log n). Equal readings share a rank: ties are exact on integers.
+func RankSeries[T int64 | float64](x []T) (SeriesRanks[T], error) {
+	n := len(x)
+	if err := ctlFinite(x); err != nil {
+		return SeriesRanks[T]{}, err
 	}
-	src, dst := s, buf
-	for width := run; width < n; width *= 2 {
-		for lo := 0; lo < n; lo += 2 * width {
-			mid := min(lo+width, n)
-			hi := min(lo+2*width, n)
-			i, j, k := lo, mid, lo
-			for i < mid && j < hi {
-				if src[j] < src[i] {
-					dst[k] = src[j]
-					inv += int64(mid - i)
-					j++
-				} else {
-					dst[k] = src[i]
-					i++
+	r := SeriesRanks[T]{N: n, Dense: make([]int32, n)}
+	if n == 0 {
+		r.Below = []int64{0}
+		return r, nil
+	}
+	if m, ok := any(x).([]int64); ok {
+		lo, hi := m[0], m[0]
+		for _, v := range m {
+			lo, hi = min(lo, v), max(hi, v)
+		}
+		if span := uint64(hi - lo); hi-lo >= 0 && span < uint64(rankCountMax*n+1024) {
+			count := make([]int32, span+1)
+			for _, v := range m {
+				count[v-lo]++
+			}
+			// count becomes the dense rank of each step that occurs
+			vals := make([]int64, 0)
+			below := make([]int64, 0)
+			seen := int64(0)
+			for j, c := range count {
+				if c == 0 {
+					continue
 				}
-				k++
+				count[j] = int32(len(vals))
+				vals = append(vals, lo+int64(j))
+				below = append(below, seen)
+				seen += int64(c)
 			}
-			k += copy(dst[k:], src[i:mid])
-			copy(dst[k:], src[j:hi])
+			for i, v := range m {
+				r.Dense[i] = count[v-lo]
+			}
+			r.Values, r.Below = any(vals).([]T), append(below, int64(n))
+			return r, nil
 		}
-		src, dst = dst, src
 	}
-	if &src[0] != &s[0] {
-		copy(s, src)
+	s := slices.Clone(x)
+	slices.Sort(s)
+	for i := 0; i < n; {
+		j := i + 1
+		for j < n && s[j] == s[i] {
+			j++
+		}
+		r.Values = append(r.Values, s[i])
+		r.Below = append(r.Below, int64(i))
+		i = j
 	}
-	return inv
+	r.Below = append(r.Below, int64(n))
+	for i, v := range x {
+		k, _ := slices.BinarySearch(r.Values, v)
+		r.Dense[i] = int32(k)
+	}
+	return r, nil
 }
 
 // SenSlope is Sen's estimate of the slope per reading with its interval.

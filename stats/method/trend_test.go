@@ -2,6 +2,7 @@ package method
 
 import (
 	"math"
+	"slices"
 	"testing"
 )
 
@@ -151,4 +152,70 @@ func TestDriftEdges(t *testing.T) {
 	if err != nil || rt.OnMedian != 0 || rt.Runs != 4 {
 		t.Errorf("adjacent doubles: %+v %v", rt, err)
 	}
+}
+
+// TestRankSeriesPaths: ranks by counting (a narrow range of integers) and
+// by sorting (a wide range, the same order) give the same tests, and the
+// tests on ranks equal the brute-force definitions (S and U_t summed over
+// every pair, the median by sorting: from memory of the definitions).
+func TestRankSeriesPaths(t *testing.T) {
+	narrow := []int64{5, 3, 5, 8, 1, 3, 3, 9, 5, 2, 7, 7, 4, 6, 5, 8, 9, 9, 1, 5}
+	wide := make([]int64, len(narrow))
+	for i, v := range narrow {
+		wide[i] = v * 1_000_000_007 // same order and ties, range too wide to count
+	}
+	rn, _ := RankSeries(narrow)
+	rw, _ := RankSeries(wide)
+	if !slices.Equal(rn.Dense, rw.Dense) || !slices.Equal(rn.Below, rw.Below) {
+		t.Fatalf("ranks differ: %v %v / %v %v", rn.Dense, rn.Below, rw.Dense, rw.Below)
+	}
+	var s int64
+	n := len(narrow)
+	for i := range n {
+		for j := i + 1; j < n; j++ {
+			s += int64(cmpSign(narrow[j] - narrow[i]))
+		}
+	}
+	for _, r := range []SeriesRanks[int64]{rn, rw} {
+		mk, err := MannKendallRanked(r)
+		if err != nil || mk.S != s {
+			t.Errorf("S %d, want %d (%v)", mk.S, s, err)
+		}
+	}
+	// Pettitt: K = max over t of |Σ_{i<t<=j} sign(xᵢ − xⱼ)|
+	var best int64
+	bt := 0
+	for tt := 1; tt < n; tt++ {
+		var u int64
+		for i := 0; i < tt; i++ {
+			for j := tt; j < n; j++ {
+				u += int64(cmpSign(narrow[i] - narrow[j]))
+			}
+		}
+		if u < 0 {
+			u = -u
+		}
+		if u > best {
+			best, bt = u, tt
+		}
+	}
+	cp, err := PettittRanked(rw, wide)
+	if err != nil || cp.Statistic != float64(best) || cp.Index != bt {
+		t.Errorf("Pettitt K %g at %d, want %d at %d (%v)", cp.Statistic, cp.Index, best, bt, err)
+	}
+	// runs about the median: the median of narrow is 5
+	rt, err := RunsRanked(rn)
+	if err != nil || rt.Median != 5 || rt.OnMedian != 5 {
+		t.Errorf("runs: median %g, %d on it (%v)", rt.Median, rt.OnMedian, err)
+	}
+}
+
+func cmpSign(d int64) int {
+	switch {
+	case d > 0:
+		return 1
+	case d < 0:
+		return -1
+	}
+	return 0
 }

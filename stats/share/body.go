@@ -6,6 +6,7 @@ import (
 	"crypto/sha256"
 	"encoding/binary"
 	"errors"
+	"maps"
 	"math"
 	"slices"
 )
@@ -124,8 +125,21 @@ func encodeBody(p Payload, form []byte) []byte {
 			b = binary.LittleEndian.AppendUint64(b, math.Float64bits(*v))
 		}
 	}
-	for _, s := range []string{o.Quantile, o.Unit, o.DecimalMark, o.WithinSigma} {
+	for _, s := range []string{o.Quantile, o.Unit, o.DecimalMark, o.WithinSigma, o.Baseline, o.ChartSpread} {
 		b = appendString(b, s)
+	}
+	for _, v := range []float64{o.EWMALambda, o.EWMAL, o.CUSUMK, o.CUSUMH} {
+		b = binary.LittleEndian.AppendUint64(b, math.Float64bits(v))
+	}
+	codes := slices.Sorted(maps.Keys(o.Signals))
+	b = binary.AppendUvarint(b, uint64(len(codes)))
+	for _, c := range codes {
+		b = appendString(b, c)
+		on := byte(0)
+		if o.Signals[c] {
+			on = 1
+		}
+		b = append(b, on)
 	}
 	b = binary.AppendUvarint(b, uint64(len(o.Exclude)))
 	prev := int64(0)
@@ -251,6 +265,19 @@ func decodeBody(body []byte) (Payload, error) {
 	o.Coverage = r.f64()
 	o.CpkGoal = r.f64()
 	o.Quantile, o.Unit, o.DecimalMark, o.WithinSigma = r.str(), r.str(), r.str(), r.str()
+	o.Baseline, o.ChartSpread = r.str(), r.str()
+	o.EWMALambda, o.EWMAL, o.CUSUMK, o.CUSUMH = r.f64(), r.f64(), r.f64(), r.f64()
+	if n := r.count(len(r.b)); n > 0 {
+		o.Signals = make(map[string]bool, n)
+		prev := ""
+		for i := range n {
+			c, on := r.str(), r.byte()
+			if on > 1 || (i > 0 && c <= prev) {
+				return Payload{}, errBody // one byte 0 or 1 each, codes ascending
+			}
+			o.Signals[c], prev = on == 1, c
+		}
+	}
 	// Rows are 64-bit ints on every target (amd64, js/wasm): the deltas
 	// wrap the same way in both directions, so any row comes back.
 	if n := r.count(len(r.b)); n > 0 {

@@ -53,7 +53,10 @@
 //	byte    flags: 1 target, 2 lsl, 4 usl, 8 populationSD (other bits 0)
 //	f64     target, lsl, usl: each only when its flag is set
 //	f64     confidence, coverage, cpkGoal (0: the default)
-//	str×4   quantile, unit, decimalMark, withinSigma
+//	str×6   quantile, unit, decimalMark, withinSigma, baseline, chartSpread
+//	f64×4   ewmaLambda, ewmaL, cusumK, cusumH (0: the default)
+//	uvarint count of check switches (options.signals), then each as its
+//	        code (str, codes strictly ascending) and a byte, 1 on or 0 off
 //	uvarint count of excluded rows, then each row as a varint difference
 //	        from the previous one (the first from 0), in the request's order
 //	uvarint count of reasons, then the first row as a varint and each next

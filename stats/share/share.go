@@ -84,6 +84,15 @@ type Options struct {
 	WithinSigma    string         `json:"withinSigma,omitempty"`
 	Coverage       float64        `json:"coverage,omitempty"`
 	CpkGoal        float64        `json:"cpkGoal,omitempty"`
+	// Over time: baseline rows, check switches, EWMA and CUSUM parameters,
+	// the spread chart.
+	Baseline    string          `json:"baseline,omitempty"`
+	Signals     map[string]bool `json:"signals,omitempty"`
+	EWMALambda  float64         `json:"ewmaLambda,omitempty"`
+	EWMAL       float64         `json:"ewmaL,omitempty"`
+	CUSUMK      float64         `json:"cusumK,omitempty"`
+	CUSUMH      float64         `json:"cusumH,omitempty"`
+	ChartSpread string          `json:"chartSpread,omitempty"`
 }
 
 // Fingerprint is the hex SHA-256 of Text: the fingerprint the engine reports

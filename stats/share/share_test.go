@@ -129,7 +129,9 @@ func samplePayload() Payload {
 		Value:   "Torque (N·m)", Order: "Time", Group: "Line",
 		Options: Options{Unit: "N·m", Target: ptr(12.35), LSL: ptr(12), USL: ptr(12.7), Confidence: 0.99,
 			Quantile: "hf6", PopulationSD: true, Exclude: []int{3}, DecimalMark: "comma", WithinSigma: "moving-range", Coverage: 0.999, CpkGoal: 1.67,
-			ExcludeReasons: map[int]string{3: "gauge dropped"}},
+			ExcludeReasons: map[int]string{3: "gauge dropped"},
+			Baseline:       "2-13, 20", Signals: map[string]bool{"alternating": true, "cusum": false}, EWMALambda: 0.1, EWMAL: 2.7,
+			CUSUMK: 0.25, CUSUMH: 8, ChartSpread: "range"},
 	}
 }
 

@@ -84,6 +84,12 @@ func TestSameReport(t *testing.T) {
 				Quantile: []string{"", "hf6", "tukey"}[rng.IntN(3)], PopulationSD: rng.IntN(2) == 0,
 				Exclude: []int{2 + rng.IntN(rows), 2 + rng.IntN(rows)}},
 		}
+		if rng.IntN(2) == 0 { // the over-time settings
+			p.Options.Baseline = fmt.Sprintf("2-%d", 4+rng.IntN(rows))
+			p.Options.Signals = map[string]bool{"alternating": rng.IntN(2) == 0, "ewma": rng.IntN(2) == 0}
+			p.Options.EWMALambda, p.Options.EWMAL = []float64{0.05, 0.1, 0.3}[rng.IntN(3)], 2.8
+			p.Options.CUSUMK, p.Options.CUSUMH = 0.75, 4
+		}
 		s, err := share.Encode(p)
 		if err != nil {
 			t.Fatal(err)

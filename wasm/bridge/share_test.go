@@ -118,7 +118,8 @@ func TestShareTextSameReport(t *testing.T) {
 	text := "Time\tLine\tFill (g)\n08:00\tL1\t5.02\n08:05\tL2\t4.98\n08:10\tL1\t5.07\n08:15\tL2\t4.95\n08:20\tL1\t5.01\n08:25\tL2\t5.00\n08:30\tL1\t5.04\n08:35\tL2\t4.97\n"
 	rq, _ := json.Marshal(map[string]any{"schema": "lotlens.request/1", "text": text, "value": "Fill (g)", "order": "Time",
 		"options": map[string]any{"unit": "g", "target": 5.0, "lsl": 4.9, "usl": 5.1, "confidence": 0.99, "quantile": "hf6",
-			"populationSD": true, "exclude": []int{3}, "excludeReasons": map[string]string{"3": "spilled"}, "decimalMark": "point", "withinSigma": "moving-range", "coverage": 0.95, "cpkGoal": 1.67}})
+			"populationSD": true, "exclude": []int{3}, "excludeReasons": map[string]string{"3": "spilled"}, "decimalMark": "point", "withinSigma": "moving-range", "coverage": 0.95, "cpkGoal": 1.67,
+			"baseline": "2-6", "signals": map[string]bool{"alternating": true}, "ewmaLambda": 0.1, "ewmaL": 2.7, "cusumK": 0.25, "cusumH": 8}})
 	var s Session
 	want := stats.ReportJSON(stats.Analyze(mustParse(t, rq)))
 	out, _ := s.Share(shareReq(t, string(rq), false), FormLink)
@@ -128,7 +129,8 @@ func TestShareTextSameReport(t *testing.T) {
 	if !bytes.Equal(got, want) {
 		t.Errorf("the opened report differs:\n%.400s\n%.400s", got, want)
 	}
-	if sh.Value != "Fill (g)" || sh.Order != "Time" || sh.Options.WithinSigma != "moving-range" || sh.Options.CpkGoal != 1.67 || sh.Options.ExcludeReasons[3] != "spilled" {
+	if sh.Value != "Fill (g)" || sh.Order != "Time" || sh.Options.WithinSigma != "moving-range" || sh.Options.CpkGoal != 1.67 || sh.Options.ExcludeReasons[3] != "spilled" ||
+		sh.Options.Baseline != "2-6" || !sh.Options.Signals["alternating"] || sh.Options.EWMALambda != 0.1 || sh.Options.CUSUMH != 8 {
 		t.Errorf("shared %+v", sh)
 	}
 	// A link wrapped by a mail program (line breaks, spaces) still opens.
