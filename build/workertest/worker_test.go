@@ -105,8 +105,24 @@ func prepare(t *testing.T) (root, wrangler string) {
 }
 
 // startWorker starts wrangler dev with config in its own process group,
-// waits until it serves, and stops it when the test ends.
+// waits until it serves, and stops it when the test ends. The ports are
+// found free just before the start, so another process (workerd's own
+// sockets among them) may take one in between: on "Address already in use"
+// it tries again with new ports, up to three times.
 func startWorker(t *testing.T, root, wrangler, config string, extra ...string) (string, *lockedBuffer) {
+	t.Helper()
+	for attempt := 1; ; attempt++ {
+		url, out, busy := startWorkerOnce(t, root, wrangler, config, attempt == 3, extra...)
+		if !busy {
+			return url, out
+		}
+		t.Logf("wrangler dev found its port taken (attempt %d); trying other ports", attempt)
+	}
+}
+
+// startWorkerOnce is one attempt of startWorker; busy reports a port
+// already in use (the test fails instead when last is set).
+func startWorkerOnce(t *testing.T, root, wrangler, config string, last bool, extra ...string) (string, *lockedBuffer, bool) {
 	port := freePort(t)
 	args := append([]string{"dev", "--config", config, "--ip", "127.0.0.1", "--port", fmt.Sprint(port),
 		"--inspector-port", fmt.Sprint(freePort(t)), "--show-interactive-dev-session=false", "--log-level", "info"}, extra...)
@@ -137,6 +153,9 @@ func startWorker(t *testing.T, root, wrangler, config string, extra ...string) (
 	for time.Now().Before(deadline) && !ready {
 		select {
 		case <-exited:
+			if !last && strings.Contains(out.String(), "Address already in use") {
+				return "", out, true
+			}
 			t.Fatalf("wrangler dev stopped before it was ready:\n%s", out.String())
 		case <-time.After(250 * time.Millisecond):
 		}
@@ -150,7 +169,7 @@ func startWorker(t *testing.T, root, wrangler, config string, extra ...string) (
 	if !ready {
 		t.Fatalf("wrangler dev was not ready after 120 s:\n%s", out.String())
 	}
-	return fmt.Sprintf("http://127.0.0.1:%d", port), out
+	return fmt.Sprintf("http://127.0.0.1:%d", port), out, false
 }
 
 func freePort(t *testing.T) int {
