@@ -6,8 +6,10 @@ package rref
 
 import (
 	"bufio"
+	"math"
 	"os"
 	"path/filepath"
+	"slices"
 	"strconv"
 	"strings"
 	"testing"
@@ -69,4 +71,43 @@ func Load(tb testing.TB, name string, minSets int) map[string]map[string]float64
 		tb.Fatalf("%s holds %d sets, want at least %d", name, len(ref), minSets)
 	}
 	return ref
+}
+
+// Set reads testdata/sets/name (one invented data set, one value a line),
+// sorted, with its mean and SD by the compensated two-pass algorithm.
+func Set(tb testing.TB, name string) (sorted []float64, mean, sd float64) {
+	tb.Helper()
+	path := filepath.Join(filepath.Dir(filepath.Dir(Path(tb, name))), "sets", name)
+	b, err := os.ReadFile(path)
+	if err != nil {
+		tb.Fatal(err)
+	}
+	for _, l := range strings.Fields(string(b)) {
+		v, err := strconv.ParseFloat(l, 64)
+		if err != nil {
+			tb.Fatalf("%s: %v", name, err)
+		}
+		sorted = append(sorted, v)
+	}
+	slices.Sort(sorted)
+	n := float64(len(sorted))
+	var s float64
+	for _, x := range sorted {
+		s += x
+	}
+	mean = s / n
+	var c, ss float64
+	for _, x := range sorted {
+		c += x - mean
+		ss += (x - mean) * (x - mean)
+	}
+	mean += c / n
+	sd = math.Sqrt((ss - c*c/n) / (n - 1))
+	return sorted, mean, sd
+}
+
+// Close reports whether got is within rel (relative) or abs of want.
+func Close(got, want, rel, abs float64) bool {
+	d := math.Abs(got - want)
+	return d <= abs || d <= rel*math.Abs(want)
 }
