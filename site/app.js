@@ -52,6 +52,9 @@ window.lotlens = Object.freeze({
   },
   // timing of the page's last analysis (ms), for the speed checks
   timing: () => state.timing && Object.assign({}, state.timing),
+  // when the engine's worker started, its wasm response arrived and the
+  // module was compiled (ms since navigation), for the speed checks
+  loadPhases: () => state.loadPhases && Object.assign({}, state.loadPhases),
   // the report the page shows, as JSON text (null when none): for checks
   // that two pages show the very same report
   shownReport: () => state.report ? JSON.stringify(state.report) : null,
@@ -75,7 +78,11 @@ window.addEventListener("hashchange", () => {
   const found = takeFromAddress();
   if (found) whenReady().then(() => openIncoming(found));
 });
+// The service worker (offline use) is registered once the engine is ready:
+// its install downloads every asset, the engine included, and would
+// otherwise compete with the engine's own download and compilation.
 if ("serviceWorker" in navigator && location.protocol !== "file:") {
-  navigator.serviceWorker.register("sw.js").then(() => { document.body.dataset.sw = "registered"; })
+  whenReady().then(() => navigator.serviceWorker.register("sw.js"))
+    .then(() => { document.body.dataset.sw = "registered"; })
     .catch(() => { /* offline use needs it; the page works without */ });
 }

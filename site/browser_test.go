@@ -33,6 +33,7 @@ import (
 	"github.com/chromedp/chromedp"
 
 	"lotlens/build/dist"
+	"lotlens/site/headless"
 	"lotlens/stats"
 )
 
@@ -62,42 +63,9 @@ func browser(t testing.TB, extra ...chromedp.ExecAllocatorOption) *session {
 	if testing.Short() {
 		t.Skip("browser tests skipped with -short")
 	}
-	exe := os.Getenv("CHROMIUM") // TestMain checked it and dist/
-	if exe == "" {
-		exe = "/usr/bin/chromium"
-	}
-	srv := httptest.NewServer(dist.Handler(distDir))
+	srv := httptest.NewServer(dist.Handler(distDir)) // TestMain checked Chromium and dist/
 	t.Cleanup(srv.Close)
-	// The profile is removed after Chromium exits (t.TempDir's own cleanup
-	// can race Chromium's last writes).
-	profile, err := os.MkdirTemp("", "lotlens-chromium-")
-	if err != nil {
-		t.Fatal(err)
-	}
-	t.Cleanup(func() { os.RemoveAll(profile) })
-	opts := append([]chromedp.ExecAllocatorOption{}, chromedp.DefaultExecAllocatorOptions[:]...)
-	opts = append(opts,
-		chromedp.ExecPath(exe),
-		chromedp.NoSandbox, chromedp.DisableGPU,
-		chromedp.Flag("disable-component-update", true),
-		chromedp.Flag("disable-quic", true),
-		chromedp.Flag("disable-domain-reliability", true),
-		chromedp.Flag("no-pings", true),
-		chromedp.UserDataDir(profile),
-		chromedp.WindowSize(1024, 768),
-	)
-	opts = append(opts, extra...)
-	actx, cancelA := chromedp.NewExecAllocator(context.Background(), opts...)
-	ctx, cancelC := chromedp.NewContext(actx)
-	ctx, cancelT := context.WithTimeout(ctx, 60*time.Second)
-	t.Cleanup(func() { cancelT(); cancelC(); cancelA() })
-	// Any alert() would mean script injection: fail and dismiss it.
-	chromedp.ListenTarget(ctx, func(ev any) {
-		if d, ok := ev.(*page.EventJavascriptDialogOpening); ok {
-			t.Errorf("a JavaScript dialog opened: %q (script injection?)", d.Message)
-			go chromedp.Run(ctx, page.HandleJavaScriptDialog(false))
-		}
-	})
+	ctx := headless.Start(t, 60*time.Second, extra...)
 	return &session{ctx: ctx, base: srv.URL, srv: srv}
 }
 

@@ -12,30 +12,40 @@ export function onWarmed(f) { warmedListeners.push(f); }
 
 export function startEngine() {
   engineReady = false;
-  engine = new Worker("engine.js");
-  engine.onmessage = (ev) => {
-    const m = ev.data;
-    if (m.type === "ready") {
-      engineReady = true;
-      if (!document.body.dataset.readyMs) document.body.dataset.readyMs = String(Math.round(performance.now()));
-      document.body.dataset.ready = "1";
-      readyWaiters.forEach((f) => f());
-      readyWaiters = [];
-      return;
-    }
-    if (m.type === "error") { setStatus(m.error, true); return; }
-    if (m.type === "warmed") {
-      document.body.dataset.warmedMs = String(Math.round(performance.now()));
-      if (m.json) for (const f of warmedListeners) f(m.json, m.svg || {});
-      return;
-    }
-    const p = pending.get(m.id);
-    if (!p) return;
-    if (m.type === "progress") { if (p.onProgress) p.onProgress(m.read, m.total); return; }
-    pending.delete(m.id);
-    p.resolve(m);
-  };
+  // the worker boot.js started while the modules loaded, or a new one
+  const boot = window.lotlensBoot && window.lotlensBoot.adopt();
+  engine = boot ? boot.worker : new Worker("engine.js");
+  engine.onmessage = onMessage;
+  if (boot) for (const ev of boot.early) onMessage(ev);
   engine.onerror = (e) => setStatus("The engine stopped: " + (e.message || e) + ". Reload the page.", true);
+}
+function onMessage(ev) {
+  const m = ev.data;
+  if (m.type === "ready") {
+    engineReady = true;
+    if (!document.body.dataset.readyMs) document.body.dataset.readyMs = String(Math.round(performance.now()));
+    document.body.dataset.ready = "1";
+    readyWaiters.forEach((f) => f());
+    readyWaiters = [];
+    return;
+  }
+  if (m.type === "phases") { // load phases, as ms on the page's clock, for the speed checks
+    const rel = {};
+    for (const k in m.phases) rel[k] = Math.round(m.phases[k] - performance.timeOrigin);
+    state.loadPhases = rel;
+    return;
+  }
+  if (m.type === "error") { setStatus(m.error, true); return; }
+  if (m.type === "warmed") {
+    document.body.dataset.warmedMs = String(Math.round(performance.now()));
+    if (m.json) for (const f of warmedListeners) f(m.json, m.svg || {});
+    return;
+  }
+  const p = pending.get(m.id);
+  if (!p) return;
+  if (m.type === "progress") { if (p.onProgress) p.onProgress(m.read, m.total); return; }
+  pending.delete(m.id);
+  p.resolve(m);
 }
 export function whenReady() {
   return engineReady ? Promise.resolve() : new Promise((r) => readyWaiters.push(r));

@@ -13,17 +13,23 @@
 //                                        (.lotlens) or a Uint8Array (decrypted stored copy);
 //                                        reply {type:"opened", id, json, shared?, svg}
 // Every json is a report or the engine's error object {error, code}.
-// Out, once: {type:"ready"} (posted by the Go side) or {type:"error", error};
+// Out, once: {type:"phases", phases} (load times on the shared clock), then
+// {type:"ready"} (posted by the Go side) or {type:"error", error};
 // then {type:"warmed", ms, json, svg} when the warm-up has run every stage
 // (json and svg: the last stage's report, for the page to warm its rendering).
 "use strict";
 importScripts("wasm_exec.js");
 
 const go = new Go();
+// Load phases on the shared clock (performance.timeOrigin + now), sent to
+// the page before the Go side says "ready" (for `make bench-page`).
+const abs = () => performance.timeOrigin + performance.now();
+const phases = { workerStart: abs() };
 async function load() {
   const url = "lotlens.wasm";
   try {
-    return await WebAssembly.instantiateStreaming(fetch(url), go.importObject);
+    const resp = fetch(url).then((r) => { phases.response = abs(); return r; });
+    return await WebAssembly.instantiateStreaming(resp, go.importObject);
   } catch (e) {
     // a server without the application/wasm type: compile from bytes
     const buf = await (await fetch(url)).arrayBuffer();
@@ -76,7 +82,12 @@ function warmUp() {
   setTimeout(warmUp, 10);
 }
 load()
-  .then((r) => { setTimeout(warmUp, 0); return go.run(r.instance); })
+  .then((r) => {
+    phases.compiled = abs();
+    postMessage({ type: "phases", phases });
+    setTimeout(warmUp, 0);
+    return go.run(r.instance);
+  })
   .catch((e) => postMessage({ type: "error", error: "The engine did not load (" + e + "). Reload the page; if it persists, the browser may block WebAssembly." }));
 
 let reading = null; // {id, cancelled}

@@ -8,6 +8,7 @@ import (
 	"testing"
 
 	"lotlens/build/dist"
+	"lotlens/site/headless"
 )
 
 // TestMain prepares what the browser tests need. `make test-browser` (and
@@ -21,10 +22,7 @@ func TestMain(m *testing.M) {
 	if testing.Short() {
 		os.Exit(m.Run())
 	}
-	exe := os.Getenv("CHROMIUM")
-	if exe == "" {
-		exe = "/usr/bin/chromium"
-	}
+	exe := headless.Exe()
 	if _, err := exec.LookPath(exe); err != nil {
 		fmt.Printf("site: the browser tests need Chromium (not found at %s): run make test-browser, which installs it, or set CHROMIUM; go test -short skips them\n", exe)
 		os.Exit(1)

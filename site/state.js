@@ -27,6 +27,7 @@ export const state = {
   busy: 0,
   analyses: 0,
   timing: null,
+  loadPhases: null, // engine load phases (engine-client.js)
   sentAt: 0,
   runToken: 0,      // the latest analysis; older answers are dropped
   lastKey: "",      // the last request sent (data version, settings, columns): not sent twice

@@ -9,7 +9,7 @@ const BUILD = "__LOTLENS_BUILD__";
 const CACHE = "lotlens-" + BUILD;
 const LISTED = ["__LOTLENS_ASSETS__"];
 // Used only when the build did not fill in the list (e.g. serving site/ raw).
-const FALLBACK = ["./", "index.html", "app.js", "state.js", "dom.js", "engine-client.js", "input.js", "cards.js",
+const FALLBACK = ["./", "index.html", "boot.js", "app.js", "state.js", "dom.js", "engine-client.js", "input.js", "cards.js",
   "export.js", "share.js", "stored.js", "card-kit.js", "chart-tips.js", "card-verdict.js", "card-data.js", "card-centre.js",
   "card-spread.js", "card-suspects.js", "card-shape.js", "card-spec.js", "card-time.js", "card-groups.js", "card-notes.js", "engine.js", "wasm_exec.js", "lotlens.wasm", "style.css",
   "manifest.webmanifest", "icon.svg", "icon-192.png", "icon-512.png", "demo/capsule-fill.tsv"];

@@ -1643,10 +1643,11 @@ func roundedConstants(n int) method.ChartConstants {
 
 // arlCache keeps the run lengths by chart and settings: each is a linear
 // solve of 301 states (tens of milliseconds), and the page re-runs the
-// analysis on every change of a setting.
+// analysis on every change of a setting; it starts with the default
+// settings' figures (arlSeed).
 var (
 	arlMu    sync.Mutex
-	arlCache = map[[4]float64]*float64{}
+	arlCache = seededARLCache()
 )
 
 func cachedARL(chart string, a, b, shift float64) *float64 {

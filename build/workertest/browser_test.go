@@ -20,10 +20,10 @@ import (
 	"testing"
 	"time"
 
-	"github.com/chromedp/cdproto/page"
 	"github.com/chromedp/cdproto/runtime"
 	"github.com/chromedp/chromedp"
 
+	"lotlens/site/headless"
 	"lotlens/stats"
 )
 
@@ -67,44 +67,14 @@ func (rec *recorder) requests() []string {
 	return append([]string(nil), rec.seen...)
 }
 
-// fresh starts headless Chromium (flags as in site/browser_test.go) with a
+// fresh starts headless Chromium (site/headless, as the page's tests do) with a
 // fresh profile, so each sender or receiver has its own storage, cache and
 // service workers, and returns the context of its tab.
 func fresh(t *testing.T) context.Context {
-	exe := os.Getenv("CHROMIUM")
-	if exe == "" {
-		exe = "/usr/bin/chromium"
-	}
-	if _, err := os.Stat(exe); err != nil {
-		t.Fatalf("Chromium is missing at %s: run `make deps-browser` or set CHROMIUM", exe)
-	}
-	profile, err := os.MkdirTemp("", "lotlens-chromium-")
-	if err != nil {
+	if err := headless.Check(); err != nil {
 		t.Fatal(err)
 	}
-	t.Cleanup(func() { os.RemoveAll(profile) })
-	opts := append([]chromedp.ExecAllocatorOption{}, chromedp.DefaultExecAllocatorOptions[:]...)
-	opts = append(opts,
-		chromedp.ExecPath(exe),
-		chromedp.NoSandbox, chromedp.DisableGPU,
-		chromedp.Flag("disable-component-update", true),
-		chromedp.Flag("disable-quic", true),
-		chromedp.Flag("disable-domain-reliability", true),
-		chromedp.Flag("no-pings", true),
-		chromedp.UserDataDir(profile),
-		chromedp.WindowSize(1024, 768),
-	)
-	actx, cancelA := chromedp.NewExecAllocator(context.Background(), opts...)
-	ctx, cancelC := chromedp.NewContext(actx)
-	ctx, cancelT := context.WithTimeout(ctx, 4*time.Minute)
-	t.Cleanup(func() { cancelT(); cancelC(); cancelA() })
-	chromedp.ListenTarget(ctx, func(ev any) {
-		if d, ok := ev.(*page.EventJavascriptDialogOpening); ok {
-			t.Errorf("a JavaScript dialog opened: %q", d.Message)
-			go chromedp.Run(ctx, page.HandleJavaScriptDialog(false))
-		}
-	})
-	return ctx
+	return headless.Start(t, 4*time.Minute)
 }
 
 func run(t *testing.T, ctx context.Context, what string, acts ...chromedp.Action) {

@@ -10,6 +10,7 @@ import (
 	"hash/crc32"
 	"io"
 	"strings"
+	"sync"
 
 	"compress/flate"
 )
@@ -43,7 +44,9 @@ const (
 	trailerLen = 4  // CRC-32C of everything before it
 )
 
-var castagnoli = crc32.MakeTable(crc32.Castagnoli)
+// castagnoli is made on first use: the engine starts without it (start-up time
+// counts on the page; most sessions make no link).
+var castagnoli = sync.OnceValue(func() *crc32.Table { return crc32.MakeTable(crc32.Castagnoli) })
 
 var b64 = base64.RawURLEncoding.Strict()
 
@@ -176,8 +179,8 @@ func Marshal(p Payload) ([]byte, error) {
 	out[3] = Version
 	binary.BigEndian.PutUint32(out[4:], uint32(len(out)-headerLen))
 	binary.BigEndian.PutUint32(out[8:], uint32(len(body)))
-	binary.BigEndian.PutUint32(out[12:], crc32.Checksum(out[:12], castagnoli))
-	out = binary.BigEndian.AppendUint32(out, crc32.Checksum(out, castagnoli))
+	binary.BigEndian.PutUint32(out[12:], crc32.Checksum(out[:12], castagnoli()))
+	out = binary.BigEndian.AppendUint32(out, crc32.Checksum(out, castagnoli()))
 	return out, nil
 }
 
@@ -264,7 +267,7 @@ func damagedMagic(s string) bool {
 }
 
 func checkHeader(b []byte) bool {
-	return [3]byte(b[:3]) == magic && binary.BigEndian.Uint32(b[12:]) == crc32.Checksum(b[:12], castagnoli)
+	return [3]byte(b[:3]) == magic && binary.BigEndian.Uint32(b[12:]) == crc32.Checksum(b[:12], castagnoli())
 }
 
 // EncodeFile gives the payload as the contents of a file (FileExt): the
@@ -368,7 +371,7 @@ func unmarshal(b []byte, what string) (Payload, error) {
 	if int64(len(b)) > total {
 		return Payload{}, errOf(CodeCorrupt, what, " (it has more at its end than it should)")
 	}
-	if binary.BigEndian.Uint32(b[total-trailerLen:]) != crc32.Checksum(b[:total-trailerLen], castagnoli) {
+	if binary.BigEndian.Uint32(b[total-trailerLen:]) != crc32.Checksum(b[:total-trailerLen], castagnoli()) {
 		return Payload{}, errOf(CodeCorrupt, what, " (its checksum does not match)")
 	}
 	if v := b[3]; v != Version {

@@ -226,8 +226,8 @@ func frame(version byte, body []byte, declared uint32) []byte {
 	out[3] = version
 	binary.BigEndian.PutUint32(out[4:], uint32(len(out)-headerLen))
 	binary.BigEndian.PutUint32(out[8:], declared)
-	binary.BigEndian.PutUint32(out[12:], crc32.Checksum(out[:12], castagnoli))
-	return binary.BigEndian.AppendUint32(out, crc32.Checksum(out, castagnoli))
+	binary.BigEndian.PutUint32(out[12:], crc32.Checksum(out[:12], castagnoli()))
+	return binary.BigEndian.AppendUint32(out, crc32.Checksum(out, castagnoli()))
 }
 
 func link(b []byte) string { return base64.RawURLEncoding.EncodeToString(b) }

@@ -7,20 +7,12 @@
 suppressPackageStartupMessages({ library(nortest); library(robustbase) })
 options(mc_doScale_quiet = TRUE)
 files <- sort(list.files("testdata/sets", pattern = "\\.txt$", full.names = TRUE))
+# 25-offset-milli (values near 1,000,000.5 typed to 0.001) is checked against
+# exact rational arithmetic instead (testdata/rref/exact.py): R's moments on
+# doubles lose about 9 digits there.
+files <- files[!grepl("25-offset-milli", files)]
 cat("set\tstat\tvalue\n")
-out <- function(set, stat, v) cat(sprintf("%s\t%s\t%.17g\n", set, stat, v))
-
-# Medcouple by its definition (Brys, Hubert and Struyf 2004), O(n^2), with
-# the special kernel for pairs tied with the median.
-mc_naive <- function(x) {
-  m <- median(x)
-  xm <- x[x <= m] - m; xp <- x[x >= m] - m
-  k <- sum(x == m)
-  h <- outer(xp, xm, function(u, w) (u + w) / (u - w))
-  h <- h[!(outer(xp == 0, xm == 0, "&"))]
-  h <- c(h, rep(-1, k * (k - 1) / 2), rep(0, k), rep(1, k * (k - 1) / 2))
-  median(h)
-}
+source("testdata/rref/common.R") # out(), mc_naive()
 
 for (f in files) {
   x <- scan(f, quiet = TRUE)

@@ -7,19 +7,7 @@
 #   Rscript testdata/rref/suspects.R > testdata/rref/suspects.tsv
 # Output: set, statistic, value (17 significant digits).
 cat("set\tstat\tvalue\n")
-out <- function(set, stat, v) cat(sprintf("%s\t%s\t%.17g\n", set, stat, v))
-
-# Medcouple by its definition (Brys, Hubert and Struyf 2004), O(n^2), with
-# the special kernel for pairs tied with the median.
-mc_naive <- function(x) {
-  m <- median(x)
-  xm <- x[x <= m] - m; xp <- x[x >= m] - m
-  k <- sum(x == m)
-  h <- outer(xp, xm, function(u, w) (u + w) / (u - w))
-  h <- h[!(outer(xp == 0, xm == 0, "&"))]
-  h <- c(h, rep(-1, k * (k - 1) / 2), rep(0, k), rep(1, k * (k - 1) / 2))
-  median(h)
-}
+source("testdata/rref/common.R") # out(), mc_naive()
 
 # Each run of k equal values spread over its rounding interval: the j-th
 # (j = 0..k-1) becomes v + step*((j + 1/2)/k - 1/2).
