@@ -247,7 +247,7 @@ func TestPasteShowsEngineNumbers(t *testing.T) {
 	// envelope at the level the engine used (95 %, the default).
 	var ppCap, ppKey string
 	if err := chromedp.Run(s.ctx, chromedp.Text(`figure[data-chart="probplot"] .cap`, &ppCap, chromedp.ByQuery),
-		chromedp.Text(`figure[data-chart="probplot"] svg`, &ppKey, chromedp.ByQuery)); err != nil {
+		chromedp.TextContent(`figure[data-chart="probplot"] svg`, &ppKey, chromedp.ByQuery)); err != nil {
 		t.Fatal(err)
 	}
 	if pp := want.Charts.ProbPlot; pp.BandLevel != 0.95 || !strings.Contains(ppCap, "simultaneous ("+pp.BandMethod+" method, 95 %)") ||
