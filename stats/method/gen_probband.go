@@ -2,7 +2,9 @@
 
 // gen_probband writes probband_table.go from testdata/rref/probband.tsv
 // (the simulated local levels of the tail-sensitive envelope, written by
-// testdata/rref/probband.R). Run: go generate ./stats/method/
+// testdata/rref/probband.R) and testdata/rref/probbandfit.tsv (the rate
+// fitted beyond the table, testdata/rref/probbandfit.R). Run: go generate
+// ./stats/method/
 package main
 
 import (
@@ -87,6 +89,7 @@ func main() {
 		fmt.Fprintf(&b, "\t{%s}, // n = %d\n", strings.Join(row, ", "), n)
 	}
 	b.WriteString("}\n")
+	writeFit(&b, levels)
 	src, err := format.Source(b.Bytes())
 	if err != nil {
 		log.Fatal(err)
@@ -94,4 +97,36 @@ func main() {
 	if err := os.WriteFile("probband_table.go", src, 0o644); err != nil {
 		log.Fatal(err)
 	}
+}
+
+// writeFit appends the fitted rate of probbandfit.tsv: one c per level (in
+// the table's order), the n from which it is used and the join.
+func writeFit(b *bytes.Buffer, levels []string) {
+	raw, err := os.ReadFile("../../testdata/rref/probbandfit.tsv")
+	if err != nil {
+		log.Fatal(err)
+	}
+	lines := strings.Split(strings.TrimSpace(string(raw)), "\n")[1:] // header: level c from join rows rmsResid
+	if len(lines) != len(levels) {
+		log.Fatalf("probbandfit.tsv has %d levels, the table %d", len(lines), len(levels))
+	}
+	var cs []string
+	var from, join string
+	for j, l := range lines {
+		c := strings.Split(l, "\t")
+		if len(c) != 6 || c[0] != levels[j] {
+			log.Fatalf("probbandfit.tsv: bad line %q for level %s", l, levels[j])
+		}
+		for _, v := range c[1:4] {
+			if _, err := strconv.ParseFloat(v, 64); err != nil {
+				log.Fatal(err)
+			}
+		}
+		if j > 0 && (c[2] != from || c[3] != join) {
+			log.Fatal("probbandfit.tsv: from and join differ between levels")
+		}
+		cs, from, join = append(cs, c[1]), c[2], c[3]
+	}
+	fmt.Fprintf(b, "\n// probBandFitFrom is the largest n interpolated in the table; above it\n// the fitted rate takes over, joined at probBandFitJoin.\nconst (\n\tprobBandFitFrom = %s\n\tprobBandFitJoin = %s\n)\n", from, join)
+	fmt.Fprintf(b, "\n// probBandRateC[j] is c in η = c/(log n · log log n) at probBandLevels[j].\nvar probBandRateC = [...]float64{%s}\n", strings.Join(cs, ", "))
 }

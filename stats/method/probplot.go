@@ -48,9 +48,9 @@ var (
 	ProbBandLevelMax = probBandLevels[len(probBandLevels)-1]
 )
 
-// ProbBandTableMaxN is the largest n of the simulated table; beyond it η
-// is extrapolated (ProbBandLocalLevel).
-var ProbBandTableMaxN = probBandN[len(probBandN)-1]
+// ProbBandTableMaxN is the largest n interpolated in the simulated table;
+// beyond it η follows the fitted rate (ProbBandLocalLevel).
+const ProbBandTableMaxN = probBandFitFrom
 
 // ProbBandLocalLevel gives the local level η of the tail-sensitive
 // simultaneous envelope of a normal probability plot of n points
@@ -65,12 +65,15 @@ var ProbBandTableMaxN = probBandN[len(probBandN)-1]
 // each normal sample standardised by its own mean and SD, divisor n-1, as
 // the plot draws its line at mean + SD·z, so the estimation of both is
 // accounted for): every n from 3 to 30, then 40 log-spaced n up to
-// ProbBandTableMaxN; between n, log η is interpolated linearly in log n;
-// between levels, linearly in log(1 - level). Beyond ProbBandTableMaxN, η
-// follows the asymptotic rate of equal local levels, η ∝ 1/(log n · log
+// ProbBandTableMaxN (10,000); between n, log η is interpolated linearly
+// in log n; between levels, linearly in log(1 - level). Beyond the table η
+// follows the asymptotic rate of equal local levels, η = c/(log n · log
 // log n) (Gontscharuk, Landwehr and Finner 2015, Biometrical Journal
-// 57(1)), scaled to meet the last table value. ok is false for n < 3 or a
-// level that is not a number.
+// 57(1)), with c fitted for each level to the simulated n from 10,000 to
+// 100,000 (testdata/rref/probbandfit.R); between 10,000 and the first
+// simulated n above it (15,849) log η runs linearly in log n from the
+// table's value to the curve, so η is continuous. ok is false for n < 3
+// or a level that is not a number.
 func ProbBandLocalLevel(n int, level float64) (eta, used float64, ok bool) {
 	if n < 3 || math.IsNaN(level) {
 		return 0, 0, false
@@ -88,17 +91,23 @@ func ProbBandLocalLevel(n int, level float64) (eta, used float64, ok bool) {
 }
 
 // probBandLogEta is log η at n for the j-th tabled level: the table value,
-// interpolated in log n, or extrapolated beyond the table.
+// interpolated in log n, or beyond the table the fitted rate.
 func probBandLogEta(n, j int) float64 {
+	if n > probBandFitFrom {
+		curve := func(x float64) float64 {
+			return math.Log(probBandRateC[j]) - math.Log(math.Log(x)*math.Log(math.Log(x)))
+		}
+		if n >= probBandFitJoin {
+			return curve(float64(n))
+		}
+		x0, x1 := math.Log(probBandFitFrom), math.Log(probBandFitJoin)
+		t := (math.Log(float64(n)) - x0) / (x1 - x0)
+		return (1-t)*probBandLogEta(probBandFitFrom, j) + t*curve(probBandFitJoin)
+	}
 	N := probBandN[:]
 	k := sort.SearchInts(N, n) // first tabled n >= n
-	switch {
-	case k < len(N) && N[k] == n:
+	if N[k] == n {
 		return math.Log(probBandEta[k][j])
-	case k == len(N):
-		last := float64(N[len(N)-1])
-		rate := func(x float64) float64 { return math.Log(x) * math.Log(math.Log(x)) }
-		return math.Log(probBandEta[k-1][j]) + math.Log(rate(last)/rate(float64(n)))
 	}
 	x0, x1 := math.Log(float64(N[k-1])), math.Log(float64(N[k]))
 	t := (math.Log(float64(n)) - x0) / (x1 - x0)
