@@ -211,6 +211,17 @@ func TestPasteShowsEngineNumbers(t *testing.T) {
 	if fp != want.Input.Fingerprint {
 		t.Errorf("fingerprint shown %q, engine %q", fp, want.Input.Fingerprint)
 	}
+	// The probability plot's caption and key name the simultaneous
+	// envelope at the level the engine used (95 %, the default).
+	var ppCap, ppKey string
+	if err := chromedp.Run(s.ctx, chromedp.Text(`figure[data-chart="probplot"] .cap`, &ppCap, chromedp.ByQuery),
+		chromedp.TextContent(`figure[data-chart="probplot"] svg`, &ppKey, chromedp.ByQuery)); err != nil {
+		t.Fatal(err)
+	}
+	if pp := want.Charts.ProbPlot; pp.BandLevel != 0.95 || !strings.Contains(ppCap, "simultaneous ("+pp.BandMethod+" method, 95 %)") ||
+		!strings.Contains(ppCap, "if any point leaves it, the normal model is doubtful") || !strings.Contains(ppKey, "95 % envelope, all points") {
+		t.Errorf("probability plot: level %v, caption %q, chart text %q: want the simultaneous envelope at 95 %% named", pp.BandLevel, ppCap, ppKey)
+	}
 	s.shot(t, "02-report-paste-1024.png")
 	// The automation entry point gives the same report.
 	var rep stats.Report

@@ -41,12 +41,22 @@ type Box struct {
 }
 
 // ProbPlot is a normal probability plot: theoretical quantile Z against the
-// ordered value Y, with a pointwise confidence band around the fitted line.
+// ordered value Y, with a simultaneous envelope around the fitted line.
 type ProbPlot struct {
-	Positions string     `json:"positions"` // plotting positions, e.g. "Blom (i-3/8)/(n+1/4)"
-	Points    []ProbPt   `json:"points"`
-	Band      []BandPt   `json:"band"`
-	Line      [2]float64 `json:"line"` // intercept, slope (mean, SD)
+	Positions string   `json:"positions"` // plotting positions, e.g. "Blom (i-3/8)/(n+1/4)"
+	Points    []ProbPt `json:"points"`
+	Band      []BandPt `json:"band"`
+	// BandMethod names the envelope: "tail-sensitive" (equal local levels,
+	// Aldor-Noiman et al. 2013), simultaneous for all n points.
+	BandMethod string `json:"bandMethod,omitempty"`
+	// BandLevel is the chance that a normal sample has every point inside
+	// the envelope: the confidence setting, clamped to the levels tabled
+	// (0.5 to 0.99).
+	BandLevel float64 `json:"bandLevel,omitempty"`
+	// BandLocalLevel is η, the chance that one given point of a normal
+	// sample falls outside its own stretch of the envelope.
+	BandLocalLevel float64    `json:"bandLocalLevel,omitempty"`
+	Line           [2]float64 `json:"line"` // intercept, slope (mean, SD)
 }
 
 // ProbPt is one point of the probability plot.
@@ -296,10 +306,13 @@ const probBandMaxPoints = 120
 
 // probPlot gives the normal probability plot of the sorted data: the i-th
 // smallest value against Blom's (1958) position (method.BlomPosition), the
-// fitted line y = mean + sd·z, and the pointwise band at level conf around
-// it (method.OrderStatBand; the band ignores the estimation of mean and SD,
-// as is usual for such bands). Points are thinned to at most maxPoints
-// (method.ThinIndices). The caller fills the rows.
+// fitted line y = mean + sd·z, and the tail-sensitive simultaneous envelope
+// at level conf around it (Aldor-Noiman et al. 2013: method.OrderStatBand
+// at the local level η of method.ProbBandLocalLevel, calibrated for all n
+// points with the mean and SD estimated from the sample, as the line is).
+// Points are thinned to at most maxPoints and the envelope is drawn through
+// at most probBandMaxPoints ranks (method.ThinIndices), both tails whole;
+// its level is for all n points. The caller fills the rows.
 func probPlot(sorted []float64, mean, sd, conf float64, maxPoints int) ProbPlot {
 	n := len(sorted)
 	pp := ProbPlot{Positions: probPlotPositions, Points: []ProbPt{}, Band: []BandPt{}, Line: [2]float64{mean, sd}}
@@ -312,8 +325,13 @@ func probPlot(sorted []float64, mean, sd, conf float64, maxPoints int) ProbPlot 
 	for _, i := range method.ThinIndices(n, maxPoints) {
 		pp.Points = append(pp.Points, ProbPt{Z: method.BlomPosition(i+1, n), Y: sorted[i]})
 	}
+	eta, used, ok := method.ProbBandLocalLevel(n, conf)
+	if !ok {
+		return pp
+	}
+	pp.BandMethod, pp.BandLevel, pp.BandLocalLevel = method.ProbBandTailSensitive, used, eta
 	for _, i := range method.ThinIndices(n, probBandMaxPoints) {
-		zl, zh := method.OrderStatBand(i+1, n, conf)
+		zl, zh := method.OrderStatBand(i+1, n, 1-eta)
 		lo, hi := mean+sd*zl, mean+sd*zh
 		if finite(lo) && finite(hi) {
 			pp.Band = append(pp.Band, BandPt{Z: method.BlomPosition(i+1, n), Lo: lo, Hi: hi})

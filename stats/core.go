@@ -180,6 +180,9 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	if n >= 3 && !s.constant {
 		ch.ProbPlot = probPlot(sorted, s.mo.mean, s.mo.sd, opts.Confidence, maxChartPoints)
 		probPlotRows(ch.ProbPlot.Points, cv)
+		if b := ch.ProbPlot.BandLevel; b != 0 && b != opts.Confidence {
+			rep.Notes = append(rep.Notes, Note{Field: "charts.probPlot.bandLevel", Text: w.probBandLevelClamped(opts.Confidence, b)})
+		}
 	} else {
 		ch.ProbPlot = ProbPlot{Points: []ProbPt{}, Band: []BandPt{}}
 	}

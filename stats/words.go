@@ -1598,6 +1598,12 @@ func (w words) grpSkipped(k, need int) string {
 // probPlotPositions names the plotting positions of the probability plot.
 const probPlotPositions = "Blom (i-3/8)/(n+1/4)"
 
+// probBandLevelClamped says that the probability plot's envelope is drawn
+// at the nearest tabled level, not at the confidence asked for.
+func (w words) probBandLevelClamped(asked, used float64) string {
+	return fmt.Sprintf("the probability plot's envelope is drawn at %s (the nearest level it is tabled for), not at the %s asked for", w.level(used), w.level(asked))
+}
+
 // ---- Guard ----------------------------------------------------------------
 
 // guardOmitted: a part of the report was left out because the value at

@@ -344,8 +344,26 @@ func TestProbPlotOrder(t *testing.T) {
 	for _, l := range root.all(byClass("legend-label")) {
 		key = append(key, l.Text)
 	}
-	if j := strings.Join(key, "|"); !strings.Contains(j, "95 % band") {
-		t.Errorf("legend %q does not name the 95 %% band (the default confidence)", j)
+	if j := strings.Join(key, "|"); !strings.Contains(j, "95 % envelope, all points") {
+		t.Errorf("legend %q does not name the 95 %% simultaneous envelope (the default confidence, no bandLevel in the report)", j)
+	}
+	// with the report's bandLevel (the level actually used, here 0.99 while
+	// the setting asked 0.995) the key and the description name that level
+	// and the envelope's method
+	r := sample()
+	r.Settings.Confidence = 0.995
+	r.Charts.ProbPlot.BandMethod, r.Charts.ProbPlot.BandLevel = "tail-sensitive", 0.99
+	svg := ProbPlot(r)
+	root = parse(t, svg)
+	key = key[:0]
+	for _, l := range root.all(byClass("legend-label")) {
+		key = append(key, l.Text)
+	}
+	if j := strings.Join(key, "|"); !strings.Contains(j, "99 % envelope, all points") || strings.Contains(j, "99.5") {
+		t.Errorf("legend %q does not name the 99 %% envelope the report used", j)
+	}
+	if !strings.Contains(svg, "99 % simultaneous envelope (tail-sensitive): if any point leaves it") {
+		t.Errorf("description does not name the simultaneous envelope: %.400s", svg)
 	}
 }
 

@@ -280,7 +280,8 @@ func Box(r *stats.Report) string {
 
 // ProbPlot draws the normal probability plot: each ordered value against its
 // normal quantile, the fitted line (intercept mean, slope SD) and the
-// pointwise band.
+// simultaneous envelope (charts.probPlot.band at bandLevel: a normal sample
+// has every point inside it with that probability).
 func ProbPlot(r *stats.Report) string {
 	if r == nil || r.Charts == nil || len(r.Charts.ProbPlot.Points) == 0 {
 		return ""
@@ -308,7 +309,7 @@ func ProbPlot(r *stats.Report) string {
 	xt, xdec := Ticks(zlo, zhi, 7)
 	yt, ydec := Ticks(ylo, yhi, 6)
 	c := newCanvas(Width, Height, "probplot", "Normal probability plot of "+valueLabel(r),
-		fmt.Sprintf("%d points; plotting positions %s; straight line = normal", len(p.Points), p.Positions))
+		probPlotDesc(p))
 	c.yAxis(ysc, yt, ydec, f, valueLabel(r), marginL, Width-marginR)
 	// the band as one lightly shaded envelope (upper edge out, lower edge
 	// back), no outline: the line and the points stay in front of it
@@ -363,10 +364,28 @@ func ProbPlot(r *stats.Report) string {
 	// rising line leaves empty
 	items := []legendItem{{"circle", Blue, "", "reading, in order"}, {"line", Black, "", "normal line (mean, SD)"}}
 	if len(p.Band) >= 2 {
-		items = append(items, legendItem{"band", SkyBlue, "", pctLabel(r.Settings.Confidence) + " band for each reading"})
+		items = append(items, legendItem{"band", SkyBlue, "", pctLabel(bandLevel(r)) + " envelope, all points"})
 	}
 	c.keyBox(items, xs.p1-6, ysc.p0-6)
 	return c.done()
+}
+
+// bandLevel is the probability plot's simultaneous level: the report's
+// bandLevel, else (a report without it) the confidence setting.
+func bandLevel(r *stats.Report) float64 {
+	if l := r.Charts.ProbPlot.BandLevel; l > 0 {
+		return l
+	}
+	return r.Settings.Confidence
+}
+
+// probPlotDesc is the probability plot's description for screen readers.
+func probPlotDesc(p stats.ProbPlot) string {
+	d := fmt.Sprintf("%d points; plotting positions %s; straight line = normal", len(p.Points), p.Positions)
+	if len(p.Band) >= 2 && p.BandLevel > 0 {
+		d += fmt.Sprintf("; shaded: %s simultaneous envelope (%s): if any point leaves it, the normal model is doubtful at that level", pctLabel(p.BandLevel), p.BandMethod)
+	}
+	return d
 }
 
 // Run draws the values in data order joined by a thin line, with the median
