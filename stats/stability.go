@@ -563,38 +563,109 @@ type stabBuild struct {
 	// subgroups: the spread (range or SD) of each, and its marks
 	gSpread     []float64
 	gLeft, gOut []bool
-	signals     []stabSig
-	keep        []int32 // plotted positions drawn (ascending); nil: all
-	extra       []int32 // positions of EWMA and CUSUM alarms drawn too
-	flagged     int     // points of signals chosen for drawing
+	// sigs holds the signals by code (sigCodes), each list in the order
+	// found; pts the points of the windowed checks' signals
+	sigs    [len(sigCodes)][]stabSig
+	pts     []int32
+	keep    []int32 // plotted positions drawn (ascending); nil: all
+	extra   []int32 // positions of EWMA and CUSUM alarms drawn too
+	flagged int     // points of signals chosen for drawing
 }
 
-// stabSig is one signal while the section is built: the judged points
-// First..Last, or the listed Points.
+// stabSig is one signal while the section is built, kept small (a long
+// in-control series gives tens of thousands by chance): the judged points
+// first..last, or for a windowed check the np points b.pts[off:off+np].
 type stabSig struct {
-	code, chart string
-	side        int
-	first, last int
-	points      []int
+	first, last int32
+	off, np     int32
+	side        int8
+	code        uint8 // index in sigCodes
 }
 
-func (g stabSig) count() int {
-	if g.points != nil {
-		return len(g.points)
+// sigCodes are the signal codes in the order signals are listed, drawn
+// and counted: the checks of the values chart in the method's order, the
+// spread chart's, then the EWMA's and the CUSUM's.
+var sigCodes = [...]string{method.SignalBeyondLimits, method.SignalTwoOfThree, method.SignalFourOfFive,
+	method.SignalRunSameSide, method.SignalTrend, method.SignalAlternating, method.SignalHuggingCentre,
+	method.SignalAvoidCentre, SignalSpreadBeyond, SignalEWMA, SignalCUSUM}
+
+const (
+	sigSpread = 8
+	sigEWMA   = 9
+	sigCUSUM  = 10
+)
+
+func sigCode(code string) uint8 {
+	for k, c := range sigCodes {
+		if c == code {
+			return uint8(k)
+		}
 	}
-	return g.last - g.first + 1
+	return 0
+}
+
+// chart names the chart a signal belongs to.
+func (g stabSig) chart() string {
+	switch g.code {
+	case sigSpread:
+		return "spread"
+	case sigEWMA:
+		return "ewma"
+	case sigCUSUM:
+		return "cusum"
+	}
+	return "values"
+}
+
+func (b *stabBuild) count(g stabSig) int {
+	if g.np > 0 {
+		return int(g.np)
+	}
+	return int(g.last - g.first + 1)
 }
 
 // each calls f for the first up to limit points of the signal.
-func (g stabSig) each(limit int, f func(j int)) {
-	if g.points != nil {
-		for _, j := range g.points[:min(limit, len(g.points))] {
-			f(j)
+func (b *stabBuild) each(g stabSig, limit int, f func(j int)) {
+	if g.np > 0 {
+		for _, j := range b.pts[g.off : g.off+min(g.np, int32(limit))] {
+			f(int(j))
 		}
 		return
 	}
-	for j := g.first; j <= g.last && j-g.first < limit; j++ {
+	for j := int(g.first); j <= int(g.last) && j-int(g.first) < limit; j++ {
 		f(j)
+	}
+}
+
+// addSignal keeps one signal of a check (the method's Points are copied).
+func (b *stabBuild) addSignal(code uint8, side, first, last int, points []int) {
+	g := stabSig{first: int32(first), last: int32(last), side: int8(side), code: code}
+	if len(points) > 1 || (len(points) == 1 && (first != last || points[0] != first)) {
+		g.off, g.np = int32(len(b.pts)), int32(len(points))
+		for _, j := range points {
+			b.pts = append(b.pts, int32(j))
+		}
+	}
+	b.sigs[code] = append(b.sigs[code], g)
+}
+
+// scanSignals runs the switched-on checks of the values chart in one pass
+// (method.ScanSignals) and keeps their signals.
+func (b *stabBuild) scanSignals(x []float64, centre float64, sigma []float64, settings method.SignalSettings) error {
+	return method.ScanSignals(x, centre, sigma, settings, func(s method.Signal) {
+		b.addSignal(sigCode(s.Rule), s.Side, s.First, s.Last, s.Points)
+	})
+}
+
+// eachSignal calls f for every signal in listing order until f returns
+// false.
+func (b *stabBuild) eachSignal(f func(g stabSig) bool) {
+	for _, l := range b.sigs {
+		for _, g := range l {
+			if !f(g) {
+				return
+			}
+		}
 	}
 }
 
@@ -748,30 +819,21 @@ func (b *stabBuild) individuals(settings method.SignalSettings) error {
 	lim := CtlLimits{From: 1, To: b.nPlot, Lower: centre - 3*sigma, Upper: centre + 3*sigma,
 		SpreadCentre: c2.SmallD2 * sigma, SpreadLower: math.Max(0, c2.SmallD2-3*c2.SmallD3) * sigma, SpreadUpper: (c2.SmallD2 + 3*c2.SmallD3) * sigma}
 	st.Chart.Limits = []CtlLimits{lim}
-	sigs, err := method.Signals(ws.series, centre, []float64{sigma}, settings)
-	if err != nil {
+	if err := b.scanSignals(ws.series, centre, []float64{sigma}, settings); err != nil {
 		return err
 	}
-	b.addMethodSignals(sigs)
 	// moving ranges between consecutive used readings, judged by their
 	// upper limit (a moving range is made by two readings)
 	if b.on[method.SignalBeyondLimits] {
 		for j := 1; j < n; j++ {
 			if math.Abs(ws.series[j]-ws.series[j-1]) > lim.SpreadUpper*(1-1e-12) && b.diff(j, j-1) > lim.SpreadUpper {
-				b.signals = append(b.signals, stabSig{code: SignalSpreadBeyond, chart: "spread", first: j - 1, last: j})
+				b.addSignal(sigSpread, 0, j-1, j, nil)
 			}
 		}
 	}
 	b.baselineInfo(base, n)
 	b.ewmaCusum(ws.series, centre, sigma, "data")
 	return nil
-}
-
-// addMethodSignals keeps the method's signals of the values chart.
-func (b *stabBuild) addMethodSignals(sigs []method.Signal) {
-	for _, s := range sigs {
-		b.signals = append(b.signals, stabSig{code: s.Rule, chart: "values", side: s.Side, first: s.First, last: s.Last, points: s.Points})
-	}
 }
 
 // subgroups builds the mean chart with its range or SD chart.
@@ -894,13 +956,11 @@ func (b *stabBuild) subgroups(settings method.SignalSettings) error {
 		}
 	}
 	b.judged = means
-	sigs, err := method.Signals(means, centre, sig, settings)
-	if err != nil {
+	if err := b.scanSignals(means, centre, sig, settings); err != nil {
 		return err
 	}
-	b.addMethodSignals(sigs)
 	for _, g := range spreadOut {
-		b.signals = append(b.signals, stabSig{code: SignalSpreadBeyond, chart: "spread", first: g, last: g})
+		b.addSignal(sigSpread, 0, g, g, nil)
 	}
 	b.baselineInfo(base, k)
 	if equal {
@@ -1100,7 +1160,7 @@ func (sc *alarmScan) step(v alarmPt, beyond bool, side, start int) {
 		lastJ = j
 	}
 	if sc.on {
-		b.signals = append(b.signals, stabSig{code: sc.code, chart: sc.chart, side: sc.side, first: sc.start, last: lastJ})
+		b.addSignal(sigCode(sc.code), sc.side, sc.start, lastJ, nil)
 	}
 	if b.keep != nil && b.flagged < maxChartPoints {
 		pts := sc.buf
@@ -1336,28 +1396,16 @@ func (b *stabBuild) finishChart() {
 	st := b.st
 	counts := map[string]int{}
 	total := 0
-	for _, g := range b.signals {
-		counts[g.code]++
-		total++
-		if len(st.Signals) >= maxSignalsListed {
-			st.SignalsCut = true
-			continue
-		}
-		si := SignalInfo{Code: g.code, Chart: g.chart, Side: g.side, Points: g.count()}
-		first, last := g.first, g.last
-		if g.points != nil {
-			first, last = g.points[0], g.points[len(g.points)-1]
-		}
-		si.First, si.Last = b.posOf(first)+1, b.posOf(last)+1
-		g.each(maxSignalRows, func(j int) {
-			if b.subgroup {
-				si.Subgroups = append(si.Subgroups, b.ws.labels[j])
-			} else {
-				si.Rows = append(si.Rows, int(b.cv.rows[b.ws.cell(j)]))
+	for code, l := range b.sigs {
+		counts[sigCodes[code]] = len(l)
+		total += len(l)
+		for _, g := range l {
+			if len(st.Signals) >= maxSignalsListed {
+				st.SignalsCut = true
+				break
 			}
-		})
-		si.Text = b.w.stabSignal(si, b.subgroup)
-		st.Signals = append(st.Signals, si)
+			st.Signals = append(st.Signals, b.signalInfo(g))
+		}
 	}
 	for _, c := range checkOrder {
 		cnt := counts[c]
@@ -1380,6 +1428,25 @@ func (b *stabBuild) finishChart() {
 	}
 	ch.Thinned = b.keep != nil
 	b.drawPoints()
+}
+
+// signalInfo lists one signal with its rows or subgroups.
+func (b *stabBuild) signalInfo(g stabSig) SignalInfo {
+	si := SignalInfo{Code: sigCodes[g.code], Chart: g.chart(), Side: int(g.side), Points: b.count(g)}
+	first, last := int(g.first), int(g.last)
+	if g.np > 0 {
+		first, last = int(b.pts[g.off]), int(b.pts[g.off+g.np-1])
+	}
+	si.First, si.Last = b.posOf(first)+1, b.posOf(last)+1
+	b.each(g, maxSignalRows, func(j int) {
+		if b.subgroup {
+			si.Subgroups = append(si.Subgroups, b.ws.labels[j])
+		} else {
+			si.Rows = append(si.Rows, int(b.cv.rows[b.ws.cell(j)]))
+		}
+	})
+	si.Text = b.w.stabSignal(si, b.subgroup)
+	return si
 }
 
 // y is the plotted value at position p.
@@ -1417,18 +1484,19 @@ func (b *stabBuild) thin(limit int) {
 		}
 		keep = append(keep, int32(lo), int32(hi))
 	}
-	for _, g := range b.signals {
+	b.eachSignal(func(g stabSig) bool {
 		if b.flagged >= limit {
-			break
+			return false
 		}
-		if g.count() <= maxSignalRows {
-			g.each(maxSignalRows, func(j int) { keep = append(keep, int32(b.posOf(j))) })
-			b.flagged += g.count()
+		if c := b.count(g); c <= maxSignalRows {
+			b.each(g, maxSignalRows, func(j int) { keep = append(keep, int32(b.posOf(j))) })
+			b.flagged += c
 		} else {
-			keep = append(keep, int32(b.posOf(g.first)), int32(b.posOf(g.last)))
+			keep = append(keep, int32(b.posOf(int(g.first))), int32(b.posOf(int(g.last))))
 			b.flagged += 2
 		}
-	}
+		return true
+	})
 	keep = append(keep, b.leftPos[:min(limit, len(b.leftPos))]...)
 	if b.subgroup && b.gLeft != nil {
 		left := 0
@@ -1462,31 +1530,33 @@ func (b *stabBuild) drawPoints() {
 			flags[p] = append(flags[p], code)
 		}
 	}
-	for _, g := range b.signals {
-		if g.points != nil {
-			for _, j := range g.points {
-				if p := b.posOf(j); kept(p) {
-					mark(p, g.code)
+	b.eachSignal(func(g stabSig) bool {
+		code := sigCodes[g.code]
+		if g.np > 0 {
+			for _, j := range b.pts[g.off : g.off+g.np] {
+				if p := b.posOf(int(j)); kept(p) {
+					mark(p, code)
 				}
 			}
-			continue
+			return true
 		}
-		lo, hi := b.posOf(g.first), b.posOf(g.last)
+		lo, hi := b.posOf(int(g.first)), b.posOf(int(g.last))
 		if b.keep == nil {
 			for p := lo; p <= hi; p++ {
 				if j, _ := b.atPos(p); j >= 0 {
-					mark(p, g.code)
+					mark(p, code)
 				}
 			}
-			continue
+			return true
 		}
 		i, _ := slices.BinarySearch(b.keep, int32(lo))
 		for ; i < len(b.keep) && int(b.keep[i]) <= hi; i++ {
 			if j, _ := b.atPos(int(b.keep[i])); j >= 0 {
-				mark(int(b.keep[i]), g.code)
+				mark(int(b.keep[i]), code)
 			}
 		}
-	}
+		return true
+	})
 	count := b.nPlot
 	if b.keep != nil {
 		count = len(b.keep)

@@ -109,68 +109,304 @@ func (s Signal) Indices() []int {
 // division), so σ = 0 is allowed. Signals are returned check by check, in
 // order of their first point within each check.
 func Signals(x []float64, centre float64, sigma []float64, s SignalSettings) ([]Signal, error) {
+	// ScanSignals gives the signals as each is complete, the checks
+	// interleaved; they are gathered check by check here, each in the
+	// order found (the order of their first points).
+	var byRule [ctlRules][]Signal
+	err := ScanSignals(x, centre, sigma, s, func(g Signal) {
+		k := ctlRuleIndex(g.Rule)
+		if g.Points != nil {
+			g.Points = append([]int(nil), g.Points...)
+		}
+		byRule[k] = append(byRule[k], g)
+	})
+	if err != nil {
+		return nil, err
+	}
+	var out []Signal
+	for _, l := range byRule {
+		out = append(out, l...)
+	}
+	return out, nil
+}
+
+// ctlRuleOrder lists the checks in the order Signals returns them.
+var ctlRuleOrder = [...]string{SignalBeyondLimits, SignalTwoOfThree, SignalFourOfFive, SignalRunSameSide,
+	SignalTrend, SignalAlternating, SignalHuggingCentre, SignalAvoidCentre}
+
+const ctlRules = len(ctlRuleOrder)
+
+func ctlRuleIndex(rule string) int {
+	for k, r := range ctlRuleOrder {
+		if r == rule {
+			return k
+		}
+	}
+	return 0
+}
+
+// ScanSignals runs the checks of Signals in one pass over the points and
+// calls emit with each signal as soon as it is complete (a run when it
+// ends, a cluster of windows when the next window of that check opens
+// another or the points end). The checks are interleaved: within one
+// check, signals come in the order of their first points, as Signals
+// gives them. The signal's Points slice is valid only during the call
+// (it is reused); nothing is kept per point, so memory is O(1) beyond the
+// signals the caller keeps.
+func ScanSignals(x []float64, centre float64, sigma []float64, s SignalSettings, emit func(Signal)) error {
 	n := len(x)
 	if len(sigma) != 1 && len(sigma) != n {
-		return nil, fmt.Errorf("%d sigmas for %d points: give one, or one per point", len(sigma), n)
+		return fmt.Errorf("%d sigmas for %d points: give one, or one per point", len(sigma), n)
 	}
 	for _, v := range sigma {
 		if !(v >= 0) || math.IsInf(v, 0) {
-			return nil, fmt.Errorf("sigma %g: it must be a finite number >= 0", v)
+			return fmt.Errorf("sigma %g: it must be a finite number >= 0", v)
 		}
 	}
 	if math.IsNaN(centre) || math.IsInf(centre, 0) {
-		return nil, fmt.Errorf("centre %g: it must be finite", centre)
+		return fmt.Errorf("centre %g: it must be finite", centre)
 	}
 	for i, v := range x {
 		if math.IsNaN(v) || math.IsInf(v, 0) {
-			return nil, fmt.Errorf("point %d is %g: points must be finite", i, v)
+			return fmt.Errorf("point %d is %g: points must be finite", i, v)
 		}
 	}
-	// One pass classifies every point (a byte each): which zone edges it
-	// lies beyond and on which side; the checks then read the bytes.
 	lim := ctlDefaultF(s.Limit, 3)
-	code := make([]uint8, n)
+	one := [1]int{}
+	w23 := ctlWindow{rule: SignalTwoOfThree, m: 2, w: 3, on: s.TwoOfThree}
+	w45 := ctlWindow{rule: SignalFourOfFive, m: 4, w: 5, on: s.FourOfFive}
+	side := ctlRun{rule: SignalRunSameSide, minLen: ctlDefaultI(s.SameSideRun, 9)}
+	hug := ctlRun{rule: SignalHuggingCentre, minLen: ctlDefaultI(s.HuggingRun, 15)}
+	avoid := ctlRun{rule: SignalAvoidCentre, minLen: ctlDefaultI(s.AvoidRun, 8), bothSides: true}
+	trend := ctlStep{rule: SignalTrend, minPts: ctlDefaultI(s.TrendRun, 6)}
+	alt := ctlStep{rule: SignalAlternating, minPts: ctlDefaultI(s.AlternatingRun, 14), alternate: true}
+	sg := 0.0
+	if len(sigma) > 0 {
+		sg = sigma[0]
+	}
+	perPoint := len(sigma) > 1
 	for i, v := range x {
-		sg := sigma[0]
-		if len(sigma) > 1 {
+		if perPoint {
 			sg = sigma[i]
 		}
 		d := v - centre
 		a := math.Abs(d)
-		// without branches (random points would mispredict them)
-		code[i] = ctlBit(a > sg)*zoneBeyond1 | ctlBit(a > 2*sg)*zoneBeyond2 | ctlBit(a > lim*sg)*zoneBeyondLimit |
-			ctlBit(a < sg)*zoneWithin1 | ctlBit(d < 0)*zoneBelow | ctlBit(d > 0)*zoneAbove
-	}
-	var out []Signal
-	if s.BeyondLimits {
-		for i, c := range code {
-			if z := ctlClass(c, zoneBeyondLimit); z != 0 {
-				out = append(out, Signal{Rule: SignalBeyondLimits, Side: z, First: i, Last: i, Points: []int{i}})
+		sd := 0 // side of the centre
+		if d > 0 {
+			sd = 1
+		} else if d < 0 {
+			sd = -1
+		}
+		if s.BeyondLimits && a > lim*sg {
+			one[0] = i
+			emit(Signal{Rule: SignalBeyondLimits, Side: sd, First: i, Last: i, Points: one[:]})
+		}
+		if w23.on {
+			c := 0
+			if a > 2*sg {
+				c = sd
+			}
+			w23.push(i, c, emit)
+		}
+		if w45.on {
+			c := 0
+			if a > sg {
+				c = sd
+			}
+			w45.push(i, c, emit)
+		}
+		if s.RunSameSide {
+			side.push(i, sd, emit)
+		}
+		if s.HuggingCentre {
+			c := 0
+			if a < sg {
+				c = 2
+			}
+			hug.push(i, c, emit)
+		}
+		if s.AvoidCentre {
+			c := 0
+			if a > sg {
+				c = sd
+			}
+			avoid.push(i, c, emit)
+		}
+		if i > 0 && (s.Trend || s.Alternating) {
+			st := 0 // step from x[i-1] to x[i]
+			if v > x[i-1] {
+				st = 1
+			} else if v < x[i-1] {
+				st = -1
+			}
+			if s.Trend {
+				trend.push(i, st, emit)
+			}
+			if s.Alternating {
+				alt.push(i, st, emit)
 			}
 		}
 	}
-	if s.TwoOfThree {
-		out = ctlWindowed(out, code, SignalTwoOfThree, 2, 3, zoneBeyond2)
+	// the open clusters and runs end with the points, in the order of the
+	// checks
+	if n > 0 {
+		w23.close(emit)
+		w45.close(emit)
+		if s.RunSameSide {
+			side.flush(n-1, emit)
+		}
+		if s.Trend && n >= 2 {
+			trend.flush(n-1, emit)
+		}
+		if s.Alternating && n >= 2 {
+			alt.flush(n-1, emit)
+		}
+		if s.HuggingCentre {
+			hug.flush(n-1, emit)
+		}
+		if s.AvoidCentre {
+			avoid.flush(n-1, emit)
+		}
 	}
-	if s.FourOfFive {
-		out = ctlWindowed(out, code, SignalFourOfFive, 4, 5, zoneBeyond1)
+	return nil
+}
+
+// ctlWindow is the state of a windowed check (m of w points in a row with
+// the same non-zero class, a side beyond a zone edge). A window fires at
+// point i when its class is not 0 and at least m of the last w points
+// (fewer at the start) share it; overlapping firings on the same side
+// join into one signal, which is emitted when a firing opens another or
+// the points end.
+type ctlWindow struct {
+	rule string
+	m, w int
+	on   bool
+	cnt  [3]int  // counts of −1, 0, +1 in the window
+	ring [8]int8 // the window's classes, point i at i mod w
+	r    int
+	open bool // sig is open
+	sig  Signal
+	pts  []int // sig's points (reused)
+}
+
+func (c *ctlWindow) push(i, cl int, emit func(Signal)) {
+	if i >= c.w {
+		c.cnt[c.ring[c.r]+1]--
 	}
-	if s.RunSameSide {
-		out = ctlRuns(out, code, SignalRunSameSide, ctlDefaultI(s.SameSideRun, 9), classSide, false)
+	c.ring[c.r] = int8(cl)
+	if c.r++; c.r == c.w {
+		c.r = 0
 	}
-	if s.Trend {
-		out = ctlSteps(out, x, SignalTrend, ctlDefaultI(s.TrendRun, 6), false)
+	c.cnt[cl+1]++
+	if cl == 0 || c.cnt[cl+1] < c.m {
+		return
 	}
-	if s.Alternating {
-		out = ctlSteps(out, x, SignalAlternating, ctlDefaultI(s.AlternatingRun, 14), true)
+	lo := max(0, i-c.w+1)
+	from := lo
+	if c.open && c.sig.Side == cl && c.sig.Last >= lo {
+		from = c.sig.Last + 1
+	} else {
+		c.close(emit)
+		c.open = true
+		c.sig = Signal{Rule: c.rule, Side: cl}
+		c.pts = c.pts[:0]
 	}
-	if s.HuggingCentre {
-		out = ctlRuns(out, code, SignalHuggingCentre, ctlDefaultI(s.HuggingRun, 15), zoneWithin1, false)
+	for j := from; j <= i; j++ {
+		// point j is in the window: its class at ring slot j mod w
+		if int(c.ring[j%c.w]) == cl {
+			c.pts = append(c.pts, j)
+		}
 	}
-	if s.AvoidCentre {
-		out = ctlRuns(out, code, SignalAvoidCentre, ctlDefaultI(s.AvoidRun, 8), zoneBeyond1, true)
+	c.sig.First, c.sig.Last = c.pts[0], i
+}
+
+func (c *ctlWindow) close(emit func(Signal)) {
+	if c.open {
+		c.sig.Points = c.pts
+		emit(c.sig)
+		c.open = false
 	}
-	return out, nil
+}
+
+// ctlRun is the state of a run check: maximal runs of at least minLen
+// points with the same non-zero class; with bothSides the class is a side
+// (±1) and a run is any stretch of non-zero classes holding both signs.
+type ctlRun struct {
+	rule       string
+	minLen     int
+	bothSides  bool
+	start, cur int
+	seen       [2]bool
+}
+
+func (c *ctlRun) push(i, cl int, emit func(Signal)) {
+	same := cl == c.cur
+	if c.bothSides {
+		same = (cl != 0) == (c.cur != 0)
+	}
+	if !same {
+		if i > 0 {
+			c.flush(i-1, emit)
+		}
+		c.start, c.cur, c.seen = i, cl, [2]bool{}
+	}
+	if c.bothSides && cl != 0 {
+		c.cur = 1
+		if cl > 0 {
+			c.seen[1] = true
+		} else {
+			c.seen[0] = true
+		}
+	}
+}
+
+func (c *ctlRun) flush(end int, emit func(Signal)) {
+	if c.cur == 0 || end-c.start+1 < c.minLen {
+		return
+	}
+	side := c.cur
+	if c.bothSides {
+		if !(c.seen[0] && c.seen[1]) {
+			return
+		}
+		side = 0
+	}
+	if side == 2 {
+		side = 0
+	}
+	emit(Signal{Rule: c.rule, Side: side, First: c.start, Last: end})
+}
+
+// ctlStep is the state of a step check: maximal stretches of points whose
+// steps all go the same way (trend) or alternate; a zero step ends a
+// stretch. A stretch of p points has p − 1 steps.
+type ctlStep struct {
+	rule        string
+	minPts      int
+	alternate   bool
+	start, prev int // first point of the stretch, previous step
+}
+
+func (c *ctlStep) push(j, d int, emit func(Signal)) {
+	cont := d != 0 && c.prev != 0 && ((!c.alternate && d == c.prev) || (c.alternate && d == -c.prev))
+	if !cont {
+		c.flush(j-1, emit)
+		c.start = j - 1
+		if d == 0 {
+			c.start = j
+		}
+	}
+	c.prev = d
+}
+
+func (c *ctlStep) flush(last int, emit func(Signal)) {
+	if c.prev != 0 && last-c.start+1 >= c.minPts {
+		side := 0
+		if !c.alternate {
+			side = c.prev
+		}
+		emit(Signal{Rule: c.rule, Side: side, First: c.start, Last: last})
+	}
 }
 
 // The bits of a point's zone byte in Signals: beyond 1σ, 2σ and the limit
