@@ -3,6 +3,7 @@ package method
 import (
 	"fmt"
 	"math"
+	"math/bits"
 )
 
 // Codes of the special-cause checks (our own short names).
@@ -172,103 +173,152 @@ func ScanSignals(x []float64, centre float64, sigma []float64, s SignalSettings,
 		}
 	}
 	lim := ctlDefaultF(s.Limit, 3)
-	one := [1]int{}
-	w23 := ctlWindow{rule: SignalTwoOfThree, m: 2, w: 3, on: s.TwoOfThree}
-	w45 := ctlWindow{rule: SignalFourOfFive, m: 4, w: 5, on: s.FourOfFive}
-	side := ctlRun{rule: SignalRunSameSide, minLen: ctlDefaultI(s.SameSideRun, 9)}
-	hug := ctlRun{rule: SignalHuggingCentre, minLen: ctlDefaultI(s.HuggingRun, 15)}
-	avoid := ctlRun{rule: SignalAvoidCentre, minLen: ctlDefaultI(s.AvoidRun, 8), bothSides: true}
-	trend := ctlStep{rule: SignalTrend, minPts: ctlDefaultI(s.TrendRun, 6)}
-	alt := ctlStep{rule: SignalAlternating, minPts: ctlDefaultI(s.AlternatingRun, 14), alternate: true}
+	sc := ctlScan{x: x, centre: centre, sigma: sigma, emit: emit,
+		minSame: ctlDefaultI(s.SameSideRun, 9), minHug: ctlDefaultI(s.HuggingRun, 15),
+		minAvoid: ctlDefaultI(s.AvoidRun, 8), minTrend: ctlDefaultI(s.TrendRun, 6),
+		minAlt: ctlDefaultI(s.AlternatingRun, 14)}
+	sc.w23 = ctlWindow{rule: SignalTwoOfThree, m: 2, w: 3}
+	sc.w45 = ctlWindow{rule: SignalFourOfFive, m: 4, w: 5}
+	onB, on23, on45 := ctlU(s.BeyondLimits), ctlU(s.TwoOfThree), ctlU(s.FourOfFive)
+	onSame, onHug, onAvoid := ctlU(s.RunSameSide), ctlU(s.HuggingCentre), ctlU(s.AvoidCentre)
+	onTrend, onAlt := ctlU(s.Trend), ctlU(s.Alternating)
 	sg := 0.0
 	if len(sigma) > 0 {
 		sg = sigma[0]
 	}
 	perPoint := len(sigma) > 1
+	// Each check keeps a few integers, updated without branches (random
+	// points would mispredict them): the last points' zones as bits
+	// (bit 0 the current point) for the windowed checks, and the lengths
+	// of the runs ending at the current point for the run checks. A run
+	// ends when its length drops to 0; the rare points where a check
+	// fires or a long run ends take the slow path (sc.fire).
+	var hA2, hB2, hA1, hB1 uint64 // above / below, beyond 2σ / 1σ
+	var rA, rB, rIn, rOut uint64  // points in a row above, below, within 1σ, beyond 1σ
+	var tU, tD, tAlt uint64       // steps in a row up, down, alternating
+	prev, prevStep := 0.0, 0
 	for i, v := range x {
 		if perPoint {
 			sg = sigma[i]
 		}
 		d := v - centre
 		a := math.Abs(d)
-		sd := 0 // side of the centre
-		if d > 0 {
-			sd = 1
-		} else if d < 0 {
-			sd = -1
-		}
-		if s.BeyondLimits && a > lim*sg {
-			one[0] = i
-			emit(Signal{Rule: SignalBeyondLimits, Side: sd, First: i, Last: i, Points: one[:]})
-		}
-		if w23.on {
-			c := 0
-			if a > 2*sg {
-				c = sd
+		above, below := ctlU(d > 0), ctlU(d < 0)
+		o1, o2, in1, oL := ctlU(a > sg), ctlU(a > 2*sg), ctlU(a < sg), ctlU(a > lim*sg)
+		hA2 = hA2<<1 | above&o2
+		hB2 = hB2<<1 | below&o2
+		hA1 = hA1<<1 | above&o1
+		hB1 = hB1<<1 | below&o1
+		f23 := (hA2&1)&ctlU(hA2&6 != 0) | (hB2&1)&ctlU(hB2&6 != 0)
+		f45 := (hA1&1)&ctlU(bits.OnesCount8(uint8(hA1&0x1e)) >= 3) | (hB1&1)&ctlU(bits.OnesCount8(uint8(hB1&0x1e)) >= 3)
+		nA, nB, nIn, nOut := (rA+1)*above, (rB+1)*below, (rIn+1)*in1, (rOut+1)*o1
+		endSame := ctlU(nA == 0)&ctlU(rA >= uint64(sc.minSame)) | ctlU(nB == 0)&ctlU(rB >= uint64(sc.minSame))
+		endHug := ctlU(nIn == 0) & ctlU(rIn >= uint64(sc.minHug))
+		endAvoid := ctlU(nOut == 0) & ctlU(rOut >= uint64(sc.minAvoid))
+		// the step from the point before (none at the first point)
+		up, down := ctlU(v > prev)&ctlU(i > 0), ctlU(v < prev)&ctlU(i > 0)
+		step := int(up) - int(down)
+		nU, nD := (tU+1)*up, (tD+1)*down
+		nAlt := (tAlt*ctlU(step == -prevStep) + 1) * (up | down)
+		endTrend := ctlU(nU == 0)&ctlU(tU+1 >= uint64(sc.minTrend))&ctlU(tU > 0) | ctlU(nD == 0)&ctlU(tD+1 >= uint64(sc.minTrend))&ctlU(tD > 0)
+		endAlt := ctlU(nAlt != tAlt+1) & ctlU(tAlt > 0) & ctlU(tAlt+1 >= uint64(sc.minAlt))
+		if oL&onB|f23&on23|f45&on45|endSame&onSame|endHug&onHug|endAvoid&onAvoid|endTrend&onTrend|endAlt&onAlt != 0 {
+			if oL&onB != 0 {
+				sc.one[0] = i
+				emit(Signal{Rule: SignalBeyondLimits, Side: int(above) - int(below), First: i, Last: i, Points: sc.one[:]})
 			}
-			w23.push(i, c, emit)
-		}
-		if w45.on {
-			c := 0
-			if a > sg {
-				c = sd
+			if f23&on23 != 0 {
+				sc.w23.fire(i, hA2, hB2, emit)
 			}
-			w45.push(i, c, emit)
-		}
-		if s.RunSameSide {
-			side.push(i, sd, emit)
-		}
-		if s.HuggingCentre {
-			c := 0
-			if a < sg {
-				c = 2
+			if f45&on45 != 0 {
+				sc.w45.fire(i, hA1, hB1, emit)
 			}
-			hug.push(i, c, emit)
-		}
-		if s.AvoidCentre {
-			c := 0
-			if a > sg {
-				c = sd
+			if endSame&onSame != 0 {
+				sc.endRun(SignalRunSameSide, int(ctlU(rA > 0))-int(ctlU(rB > 0)), i-int(rA+rB), i-1)
 			}
-			avoid.push(i, c, emit)
-		}
-		if i > 0 && (s.Trend || s.Alternating) {
-			st := 0 // step from x[i-1] to x[i]
-			if v > x[i-1] {
-				st = 1
-			} else if v < x[i-1] {
-				st = -1
+			if endHug&onHug != 0 {
+				sc.endRun(SignalHuggingCentre, 0, i-int(rIn), i-1)
 			}
-			if s.Trend {
-				trend.push(i, st, emit)
+			if endAvoid&onAvoid != 0 {
+				sc.endAvoid(i-int(rOut), i-1)
 			}
-			if s.Alternating {
-				alt.push(i, st, emit)
+			if endTrend&onTrend != 0 {
+				sc.endRun(SignalTrend, int(ctlU(tU > 0))-int(ctlU(tD > 0)), i-1-int(tU+tD), i-1)
+			}
+			if endAlt&onAlt != 0 {
+				sc.endRun(SignalAlternating, 0, i-1-int(tAlt), i-1)
 			}
 		}
+		rA, rB, rIn, rOut = nA, nB, nIn, nOut
+		tU, tD, tAlt = nU, nD, nAlt
+		prev, prevStep = v, step
 	}
-	// the open clusters and runs end with the points, in the order of the
-	// checks
-	if n > 0 {
-		w23.close(emit)
-		w45.close(emit)
-		if s.RunSameSide {
-			side.flush(n-1, emit)
-		}
-		if s.Trend && n >= 2 {
-			trend.flush(n-1, emit)
-		}
-		if s.Alternating && n >= 2 {
-			alt.flush(n-1, emit)
-		}
-		if s.HuggingCentre {
-			hug.flush(n-1, emit)
-		}
-		if s.AvoidCentre {
-			avoid.flush(n-1, emit)
-		}
+	// the open clusters and runs end with the points
+	if n == 0 {
+		return nil
+	}
+	if on23 != 0 {
+		sc.w23.close(emit)
+	}
+	if on45 != 0 {
+		sc.w45.close(emit)
+	}
+	if onSame != 0 && rA+rB >= uint64(sc.minSame) {
+		sc.endRun(SignalRunSameSide, int(ctlU(rA > 0))-int(ctlU(rB > 0)), n-int(rA+rB), n-1)
+	}
+	if onTrend != 0 && tU+tD > 0 && tU+tD+1 >= uint64(sc.minTrend) {
+		sc.endRun(SignalTrend, int(ctlU(tU > 0))-int(ctlU(tD > 0)), n-1-int(tU+tD), n-1)
+	}
+	if onAlt != 0 && tAlt > 0 && tAlt+1 >= uint64(sc.minAlt) {
+		sc.endRun(SignalAlternating, 0, n-1-int(tAlt), n-1)
+	}
+	if onHug != 0 && rIn >= uint64(sc.minHug) {
+		sc.endRun(SignalHuggingCentre, 0, n-int(rIn), n-1)
+	}
+	if onAvoid != 0 && rOut >= uint64(sc.minAvoid) {
+		sc.endAvoid(n-int(rOut), n-1)
 	}
 	return nil
+}
+
+// ctlU is 1 for true (the compiler makes it a flag set, not a branch).
+func ctlU(b bool) uint64 {
+	var u uint64
+	if b {
+		u = 1
+	}
+	return u
+}
+
+// ctlScan holds what ScanSignals needs on its slow path.
+type ctlScan struct {
+	x                                           []float64
+	centre                                      float64
+	sigma                                       []float64
+	emit                                        func(Signal)
+	one                                         [1]int
+	w23, w45                                    ctlWindow
+	minSame, minHug, minAvoid, minTrend, minAlt int
+}
+
+func (sc *ctlScan) endRun(rule string, side, first, last int) {
+	sc.emit(Signal{Rule: rule, Side: side, First: first, Last: last})
+}
+
+// endAvoid emits a run of points beyond 1σ when it holds both sides.
+func (sc *ctlScan) endAvoid(first, last int) {
+	var seen [2]bool
+	for j := first; j <= last; j++ {
+		// every point of the run is beyond 1σ, so off the centre
+		if sc.x[j]-sc.centre > 0 {
+			seen[1] = true
+		} else {
+			seen[0] = true
+		}
+	}
+	if seen[0] && seen[1] {
+		sc.emit(Signal{Rule: SignalAvoidCentre, First: first, Last: last})
+	}
 }
 
 // ctlWindow is the state of a windowed check (m of w points in a row with
@@ -280,26 +330,17 @@ func ScanSignals(x []float64, centre float64, sigma []float64, s SignalSettings,
 type ctlWindow struct {
 	rule string
 	m, w int
-	on   bool
-	cnt  [3]int  // counts of −1, 0, +1 in the window
-	ring [8]int8 // the window's classes, point i at i mod w
-	r    int
 	open bool // sig is open
 	sig  Signal
 	pts  []int // sig's points (reused)
 }
 
-func (c *ctlWindow) push(i, cl int, emit func(Signal)) {
-	if i >= c.w {
-		c.cnt[c.ring[c.r]+1]--
-	}
-	c.ring[c.r] = int8(cl)
-	if c.r++; c.r == c.w {
-		c.r = 0
-	}
-	c.cnt[cl+1]++
-	if cl == 0 || c.cnt[cl+1] < c.m {
-		return
+// fire handles a firing at point i; hA and hB are the zone bits of the
+// points above and below (bit k: point i − k).
+func (c *ctlWindow) fire(i int, hA, hB uint64, emit func(Signal)) {
+	cl, h := 1, hA
+	if hA&1 == 0 {
+		cl, h = -1, hB
 	}
 	lo := max(0, i-c.w+1)
 	from := lo
@@ -312,8 +353,7 @@ func (c *ctlWindow) push(i, cl int, emit func(Signal)) {
 		c.pts = c.pts[:0]
 	}
 	for j := from; j <= i; j++ {
-		// point j is in the window: its class at ring slot j mod w
-		if int(c.ring[j%c.w]) == cl {
+		if h>>(i-j)&1 != 0 {
 			c.pts = append(c.pts, j)
 		}
 	}
@@ -325,87 +365,6 @@ func (c *ctlWindow) close(emit func(Signal)) {
 		c.sig.Points = c.pts
 		emit(c.sig)
 		c.open = false
-	}
-}
-
-// ctlRun is the state of a run check: maximal runs of at least minLen
-// points with the same non-zero class; with bothSides the class is a side
-// (±1) and a run is any stretch of non-zero classes holding both signs.
-type ctlRun struct {
-	rule       string
-	minLen     int
-	bothSides  bool
-	start, cur int
-	seen       [2]bool
-}
-
-func (c *ctlRun) push(i, cl int, emit func(Signal)) {
-	same := cl == c.cur
-	if c.bothSides {
-		same = (cl != 0) == (c.cur != 0)
-	}
-	if !same {
-		if i > 0 {
-			c.flush(i-1, emit)
-		}
-		c.start, c.cur, c.seen = i, cl, [2]bool{}
-	}
-	if c.bothSides && cl != 0 {
-		c.cur = 1
-		if cl > 0 {
-			c.seen[1] = true
-		} else {
-			c.seen[0] = true
-		}
-	}
-}
-
-func (c *ctlRun) flush(end int, emit func(Signal)) {
-	if c.cur == 0 || end-c.start+1 < c.minLen {
-		return
-	}
-	side := c.cur
-	if c.bothSides {
-		if !(c.seen[0] && c.seen[1]) {
-			return
-		}
-		side = 0
-	}
-	if side == 2 {
-		side = 0
-	}
-	emit(Signal{Rule: c.rule, Side: side, First: c.start, Last: end})
-}
-
-// ctlStep is the state of a step check: maximal stretches of points whose
-// steps all go the same way (trend) or alternate; a zero step ends a
-// stretch. A stretch of p points has p − 1 steps.
-type ctlStep struct {
-	rule        string
-	minPts      int
-	alternate   bool
-	start, prev int // first point of the stretch, previous step
-}
-
-func (c *ctlStep) push(j, d int, emit func(Signal)) {
-	cont := d != 0 && c.prev != 0 && ((!c.alternate && d == c.prev) || (c.alternate && d == -c.prev))
-	if !cont {
-		c.flush(j-1, emit)
-		c.start = j - 1
-		if d == 0 {
-			c.start = j
-		}
-	}
-	c.prev = d
-}
-
-func (c *ctlStep) flush(last int, emit func(Signal)) {
-	if c.prev != 0 && last-c.start+1 >= c.minPts {
-		side := 0
-		if !c.alternate {
-			side = c.prev
-		}
-		emit(Signal{Rule: c.rule, Side: side, First: c.start, Last: last})
 	}
 }
 
