@@ -1054,7 +1054,18 @@ func (b *stabBuild) ewmaCusum(x []float64, centre, sigma float64, scale string) 
 		lo, hi := lims.Limits(v.j)
 		ewma = append(ewma, EWMAPt{I: b.posOf(v.j) + 1, Z: v.a, Lo: lo, Hi: hi})
 	})
-	err := method.EWMAScan(x, centre, sigma, lam, L, func(j int, z float64, out bool) {
+	// with a thinned chart only the points drawn, the alarms and the
+	// points ending them are visited (every point otherwise)
+	ewmaScan, cusumScan := method.EWMAScan, method.CUSUMScan
+	if b.keep != nil {
+		ewmaScan = func(x []float64, centre, sigma, lam, L float64, visit func(int, float64, bool)) error {
+			return method.EWMAScanAt(x, centre, sigma, lam, L, keepJ, visit)
+		}
+		cusumScan = func(x []float64, centre, sigma, k, h float64, visit func(int, float64, float64, int32, int32, bool)) error {
+			return method.CUSUMScanAt(x, centre, sigma, k, h, keepJ, visit)
+		}
+	}
+	err := ewmaScan(x, centre, sigma, lam, L, func(j int, z float64, out bool) {
 		if out {
 			sc.beyond++
 		}
@@ -1075,7 +1086,7 @@ func (b *stabBuild) ewmaCusum(x []float64, centre, sigma float64, scale string) 
 	sc = newAlarmScan(b, b.on[SignalCUSUM], SignalCUSUM, "cusum", keepJ, len(x), func(v alarmPt) {
 		cusum = append(cusum, CUSUMPt{I: b.posOf(v.j) + 1, Up: v.a, Down: v.b})
 	})
-	err = method.CUSUMScan(x, centre, sigma, k, h, func(j int, up, lo float64, nu, nl int32, out bool) {
+	err = cusumScan(x, centre, sigma, k, h, func(j int, up, lo float64, nu, nl int32, out bool) {
 		if out {
 			sc.beyond++
 		}

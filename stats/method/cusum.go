@@ -49,6 +49,17 @@ func CUSUM(x []float64, centre, sigma, k, h float64) (CUSUMChart, error) {
 // each has been above 0 in a row, and whether a sum exceeds H·σ, in order.
 // Memory O(1), for long series.
 func CUSUMScan(x []float64, centre, sigma, k, h float64, visit func(i int, up, lo float64, nu, nl int32, beyond bool)) error {
+	return cusumScan(x, centre, sigma, k, h, nil, true, visit)
+}
+
+// CUSUMScanAt is CUSUMScan visiting only some points, in order: those
+// listed in at (ascending), every point where a sum exceeds H·σ and the
+// point after each of them (where a run beyond ends).
+func CUSUMScanAt(x []float64, centre, sigma, k, h float64, at []int, visit func(i int, up, lo float64, nu, nl int32, beyond bool)) error {
+	return cusumScan(x, centre, sigma, k, h, at, false, visit)
+}
+
+func cusumScan(x []float64, centre, sigma, k, h float64, at []int, all bool, visit func(i int, up, lo float64, nu, nl int32, beyond bool)) error {
 	if err := ctlCheckKH(k, h); err != nil {
 		return err
 	}
@@ -59,20 +70,25 @@ func CUSUMScan(x []float64, centre, sigma, k, h float64, visit func(i int, up, l
 	var nu, nl int32
 	slack, decision := k*sigma, h*sigma
 	hi, low := centre+slack, centre-slack
+	next, ai := ctlNextAt(at, 0, all)
+	was := false
 	for i, v := range x {
 		up = max(0, v-hi+up) // the built-in max: no branch to mispredict
 		lo = max(0, low-v+lo)
-		if up > 0 {
-			nu++
-		} else {
-			nu = 0
+		// counts of points above 0 in a row, without branches
+		nu = (nu + 1) * int32(ctlU(up > 0))
+		nl = (nl + 1) * int32(ctlU(lo > 0))
+		beyond := up > decision || lo > decision
+		if beyond || was || i == next {
+			visit(i, up, lo, nu, nl, beyond)
+			if i == next {
+				next, ai = ctlNextAt(at, ai+1, all)
+				if all {
+					next = i + 1
+				}
+			}
 		}
-		if lo > 0 {
-			nl++
-		} else {
-			nl = 0
-		}
-		visit(i, up, lo, nu, nl, up > decision || lo > decision)
+		was = beyond
 	}
 	return nil
 }

@@ -296,3 +296,63 @@ func ctlRandomSeries(seed uint64, n int) []float64 {
 	}
 	return x
 }
+
+// TestScanAtVisits: EWMAScanAt and CUSUMScanAt give the values of the full
+// scans at the points asked for, at every point beyond and at the point
+// after each, and at no other point.
+func TestScanAtVisits(t *testing.T) {
+	x := ctlRandomSeries(3, 5000)
+	at := []int{0, 7, 8, 500, 2001, 4999}
+	want := func(i int, beyond, was bool) bool {
+		_, listed := slicesIndex(at, i)
+		return listed || beyond || was
+	}
+	type ev struct {
+		i    int
+		a, b float64
+		n    int32
+		out  bool
+	}
+	var full, got []ev
+	was := false
+	if err := EWMAScan(x, 0, 1, 0.2, 3, func(i int, z float64, out bool) {
+		if want(i, out, was) {
+			full = append(full, ev{i: i, a: z, out: out})
+		}
+		was = out
+	}); err != nil {
+		t.Fatal(err)
+	}
+	if err := EWMAScanAt(x, 0, 1, 0.2, 3, at, func(i int, z float64, out bool) { got = append(got, ev{i: i, a: z, out: out}) }); err != nil {
+		t.Fatal(err)
+	}
+	if !reflect.DeepEqual(full, got) || len(got) < len(at)+2 {
+		t.Fatalf("EWMA: %d visits, want %d", len(got), len(full))
+	}
+	full, got, was = nil, nil, false
+	if err := CUSUMScan(x, 0, 1, 0.5, 4, func(i int, up, lo float64, nu, nl int32, out bool) {
+		if want(i, out, was) {
+			full = append(full, ev{i, up, lo, nu - nl, out})
+		}
+		was = out
+	}); err != nil {
+		t.Fatal(err)
+	}
+	if err := CUSUMScanAt(x, 0, 1, 0.5, 4, at, func(i int, up, lo float64, nu, nl int32, out bool) {
+		got = append(got, ev{i, up, lo, nu - nl, out})
+	}); err != nil {
+		t.Fatal(err)
+	}
+	if !reflect.DeepEqual(full, got) || len(got) < len(at)+2 {
+		t.Fatalf("CUSUM: %d visits, want %d", len(got), len(full))
+	}
+}
+
+func slicesIndex(s []int, v int) (int, bool) {
+	for k, x := range s {
+		if x == v {
+			return k, true
+		}
+	}
+	return -1, false
+}
