@@ -179,9 +179,30 @@ func ScanSignals(x []float64, centre float64, sigma []float64, s SignalSettings,
 		minAlt: ctlDefaultI(s.AlternatingRun, 14)}
 	sc.w23 = ctlWindow{rule: SignalTwoOfThree, m: 2, w: 3}
 	sc.w45 = ctlWindow{rule: SignalFourOfFive, m: 4, w: 5}
-	onB, on23, on45 := ctlU(s.BeyondLimits), ctlU(s.TwoOfThree), ctlU(s.FourOfFive)
-	onSame, onHug, onAvoid := ctlU(s.RunSameSide), ctlU(s.HuggingCentre), ctlU(s.AvoidCentre)
-	onTrend, onAlt := ctlU(s.Trend), ctlU(s.Alternating)
+	// a check switched off never fires: its limit or threshold is out of
+	// reach, its window table all zeros
+	const never = math.MaxUint64
+	if !s.BeyondLimits {
+		lim = math.Inf(1)
+	}
+	var t23, t45 [32]uint64 // fires for these bits of the last points (bit 0: the current one)
+	for h := range 32 {
+		if s.TwoOfThree && h&1 != 0 && h&6 != 0 {
+			t23[h] = 1
+		}
+		if s.FourOfFive && h&1 != 0 && bits.OnesCount8(uint8(h&0x1e)) >= 3 {
+			t45[h] = 1
+		}
+	}
+	thr := func(on bool, v int) uint64 {
+		if !on {
+			return never
+		}
+		return uint64(v)
+	}
+	thrSame, thrHug, thrAvoid := thr(s.RunSameSide, sc.minSame), thr(s.HuggingCentre, sc.minHug), thr(s.AvoidCentre, sc.minAvoid)
+	// the step checks count steps: p points make p − 1 (at least one)
+	thrTrend, thrAlt := thr(s.Trend, max(1, sc.minTrend-1)), thr(s.Alternating, max(1, sc.minAlt-1))
 	sg := 0.0
 	if len(sigma) > 0 {
 		sg = sigma[0]
@@ -191,12 +212,16 @@ func ScanSignals(x []float64, centre float64, sigma []float64, s SignalSettings,
 	// points would mispredict them): the last points' zones as bits
 	// (bit 0 the current point) for the windowed checks, and the lengths
 	// of the runs ending at the current point for the run checks. A run
-	// ends when its length drops to 0; the rare points where a check
-	// fires or a long run ends take the slow path (sc.fire).
+	// ends when the next point does not extend it; the rare points where
+	// a check fires or a long run ends take the slow path.
 	var hA2, hB2, hA1, hB1 uint64 // above / below, beyond 2σ / 1σ
-	var rA, rB, rIn, rOut uint64  // points in a row above, below, within 1σ, beyond 1σ
-	var tU, tD, tAlt uint64       // steps in a row up, down, alternating
-	prev, prevStep := 0.0, 0
+	var r, rIn, rOut uint64       // points in a row on one side, within 1σ, beyond 1σ
+	var t, tAlt uint64            // steps in a row the same way, alternating
+	var prevSide, prevStep int
+	prev := 0.0
+	if n > 0 {
+		prev = x[0] // no step at the first point
+	}
 	for i, v := range x {
 		if perPoint {
 			sg = sigma[i]
@@ -209,73 +234,65 @@ func ScanSignals(x []float64, centre float64, sigma []float64, s SignalSettings,
 		hB2 = hB2<<1 | below&o2
 		hA1 = hA1<<1 | above&o1
 		hB1 = hB1<<1 | below&o1
-		f23 := (hA2&1)&ctlU(hA2&6 != 0) | (hB2&1)&ctlU(hB2&6 != 0)
-		f45 := (hA1&1)&ctlU(bits.OnesCount8(uint8(hA1&0x1e)) >= 3) | (hB1&1)&ctlU(bits.OnesCount8(uint8(hB1&0x1e)) >= 3)
-		nA, nB, nIn, nOut := (rA+1)*above, (rB+1)*below, (rIn+1)*in1, (rOut+1)*o1
-		endSame := ctlU(nA == 0)&ctlU(rA >= uint64(sc.minSame)) | ctlU(nB == 0)&ctlU(rB >= uint64(sc.minSame))
-		endHug := ctlU(nIn == 0) & ctlU(rIn >= uint64(sc.minHug))
-		endAvoid := ctlU(nOut == 0) & ctlU(rOut >= uint64(sc.minAvoid))
-		// the step from the point before (none at the first point)
-		up, down := ctlU(v > prev)&ctlU(i > 0), ctlU(v < prev)&ctlU(i > 0)
+		f := oL | t23[hA2&31] | t23[hB2&31] | t45[hA1&31] | t45[hB1&31]
+		side := int(above) - int(below)
+		nr := (r*ctlU(side == prevSide) + 1) * (above | below)
+		nIn, nOut := (rIn+1)*in1, (rOut+1)*o1
+		up, down := ctlU(v > prev), ctlU(v < prev)
 		step := int(up) - int(down)
-		nU, nD := (tU+1)*up, (tD+1)*down
+		nt := (t*ctlU(step == prevStep) + 1) * (up | down)
 		nAlt := (tAlt*ctlU(step == -prevStep) + 1) * (up | down)
-		endTrend := ctlU(nU == 0)&ctlU(tU+1 >= uint64(sc.minTrend))&ctlU(tU > 0) | ctlU(nD == 0)&ctlU(tD+1 >= uint64(sc.minTrend))&ctlU(tD > 0)
-		endAlt := ctlU(nAlt != tAlt+1) & ctlU(tAlt > 0) & ctlU(tAlt+1 >= uint64(sc.minAlt))
-		if oL&onB|f23&on23|f45&on45|endSame&onSame|endHug&onHug|endAvoid&onAvoid|endTrend&onTrend|endAlt&onAlt != 0 {
-			if oL&onB != 0 {
+		f |= ctlU(nr != r+1)&ctlU(r >= thrSame) | (in1^1)&ctlU(rIn >= thrHug) | (o1^1)&ctlU(rOut >= thrAvoid) |
+			ctlU(nt != t+1)&ctlU(t >= thrTrend) | ctlU(nAlt != tAlt+1)&ctlU(tAlt >= thrAlt)
+		if f != 0 {
+			if oL != 0 {
 				sc.one[0] = i
-				emit(Signal{Rule: SignalBeyondLimits, Side: int(above) - int(below), First: i, Last: i, Points: sc.one[:]})
+				emit(Signal{Rule: SignalBeyondLimits, Side: side, First: i, Last: i, Points: sc.one[:]})
 			}
-			if f23&on23 != 0 {
+			if t23[hA2&31]|t23[hB2&31] != 0 {
 				sc.w23.fire(i, hA2, hB2, emit)
 			}
-			if f45&on45 != 0 {
+			if t45[hA1&31]|t45[hB1&31] != 0 {
 				sc.w45.fire(i, hA1, hB1, emit)
 			}
-			if endSame&onSame != 0 {
-				sc.endRun(SignalRunSameSide, int(ctlU(rA > 0))-int(ctlU(rB > 0)), i-int(rA+rB), i-1)
+			if nr != r+1 && r >= thrSame {
+				sc.endRun(SignalRunSameSide, prevSide, i-int(r), i-1)
 			}
-			if endHug&onHug != 0 {
+			if in1 == 0 && rIn >= thrHug {
 				sc.endRun(SignalHuggingCentre, 0, i-int(rIn), i-1)
 			}
-			if endAvoid&onAvoid != 0 {
+			if o1 == 0 && rOut >= thrAvoid {
 				sc.endAvoid(i-int(rOut), i-1)
 			}
-			if endTrend&onTrend != 0 {
-				sc.endRun(SignalTrend, int(ctlU(tU > 0))-int(ctlU(tD > 0)), i-1-int(tU+tD), i-1)
+			if nt != t+1 && t >= thrTrend {
+				sc.endRun(SignalTrend, prevStep, i-1-int(t), i-1)
 			}
-			if endAlt&onAlt != 0 {
+			if nAlt != tAlt+1 && tAlt >= thrAlt {
 				sc.endRun(SignalAlternating, 0, i-1-int(tAlt), i-1)
 			}
 		}
-		rA, rB, rIn, rOut = nA, nB, nIn, nOut
-		tU, tD, tAlt = nU, nD, nAlt
-		prev, prevStep = v, step
+		r, rIn, rOut, t, tAlt = nr, nIn, nOut, nt, nAlt
+		prev, prevSide, prevStep = v, side, step
 	}
 	// the open clusters and runs end with the points
 	if n == 0 {
 		return nil
 	}
-	if on23 != 0 {
-		sc.w23.close(emit)
+	sc.w23.close(emit)
+	sc.w45.close(emit)
+	if r >= thrSame {
+		sc.endRun(SignalRunSameSide, prevSide, n-int(r), n-1)
 	}
-	if on45 != 0 {
-		sc.w45.close(emit)
+	if t >= thrTrend {
+		sc.endRun(SignalTrend, prevStep, n-1-int(t), n-1)
 	}
-	if onSame != 0 && rA+rB >= uint64(sc.minSame) {
-		sc.endRun(SignalRunSameSide, int(ctlU(rA > 0))-int(ctlU(rB > 0)), n-int(rA+rB), n-1)
-	}
-	if onTrend != 0 && tU+tD > 0 && tU+tD+1 >= uint64(sc.minTrend) {
-		sc.endRun(SignalTrend, int(ctlU(tU > 0))-int(ctlU(tD > 0)), n-1-int(tU+tD), n-1)
-	}
-	if onAlt != 0 && tAlt > 0 && tAlt+1 >= uint64(sc.minAlt) {
+	if tAlt >= thrAlt {
 		sc.endRun(SignalAlternating, 0, n-1-int(tAlt), n-1)
 	}
-	if onHug != 0 && rIn >= uint64(sc.minHug) {
+	if rIn >= thrHug {
 		sc.endRun(SignalHuggingCentre, 0, n-int(rIn), n-1)
 	}
-	if onAvoid != 0 && rOut >= uint64(sc.minAvoid) {
+	if rOut >= thrAvoid {
 		sc.endAvoid(n-int(rOut), n-1)
 	}
 	return nil
