@@ -1482,15 +1482,22 @@ func (b *stabBuild) thin(limit int) {
 	blocks := limit / 2
 	for k := range blocks {
 		a, e := k*n/blocks, (k+1)*n/blocks
-		lo, hi := a, a
-		ylo, yhi := b.y(a), b.y(a)
-		for p := a + 1; p < e; p++ {
-			v := b.y(p)
-			if v < ylo {
-				lo, ylo = p, v
-			}
-			if v > yhi {
-				hi, yhi = p, v
+		var lo, hi int
+		if b.subgroup || len(b.leftPos) == 0 {
+			// every plotted point is judged: the values directly
+			lo, hi = blockMinMax(b.judged[a:e])
+			lo, hi = lo+a, hi+a
+		} else {
+			lo, hi = a, a
+			ylo, yhi := b.y(a), b.y(a)
+			for p := a + 1; p < e; p++ {
+				v := b.y(p)
+				if v < ylo {
+					lo, ylo = p, v
+				}
+				if v > yhi {
+					hi, yhi = p, v
+				}
 			}
 		}
 		keep = append(keep, int32(lo), int32(hi))
@@ -1520,6 +1527,21 @@ func (b *stabBuild) thin(limit int) {
 	}
 	slices.Sort(keep)
 	b.keep = slices.Compact(keep)
+}
+
+// blockMinMax gives the positions of the first lowest and the first
+// highest of ys (not empty).
+func blockMinMax(ys []float64) (lo, hi int) {
+	ylo, yhi := ys[0], ys[0]
+	for p, v := range ys {
+		if v < ylo {
+			lo, ylo = p, v
+		}
+		if v > yhi {
+			hi, yhi = p, v
+		}
+	}
+	return lo, hi
 }
 
 // drawPoints fills the chart's points (and the EWMA and CUSUM values) at
