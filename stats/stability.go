@@ -522,13 +522,13 @@ func buildStability(w words, cv *colView, ws *withinSigma, smp *sample, opts Opt
 		err = b.subgroups(settings)
 	}
 	if err != nil {
+		// no drift tests either (their notes are the only ones so far)
 		st.Judged = false
-		st.Chart = nil
+		st.Chart, st.Drift, st.Change = nil, nil, nil
 		st.Verdict = w.stabNoSpread(err.Error())
 		st.Reasons = append(st.Reasons, Reason{Code: "no-spread", Text: st.Verdict})
-		return st, append(notes, b.notes...)
+		return st, notes
 	}
-	b.drift()
 	b.finishChart()
 	b.verdict()
 	return st, append(notes, b.notes...)
@@ -565,7 +565,7 @@ type stabBuild struct {
 	gLeft, gOut []bool
 	// sigs holds the signals by code (sigCodes), each list in the order
 	// found; pts the points of the windowed checks' signals
-	sigs    [len(sigCodes)][]stabSig
+	sigs    [len(sigCodes)]sigList
 	pts     []int32
 	keep    []int32 // plotted positions drawn (ascending); nil: all
 	extra   []int32 // positions of EWMA and CUSUM alarms drawn too
@@ -580,6 +580,24 @@ type stabSig struct {
 	off, np     int32
 	side        int8
 	code        uint8 // index in sigCodes
+}
+
+// sigList holds signals in chunks of fixed size: no copy, and little
+// unused room, as the list grows.
+type sigList struct {
+	chunks [][]stabSig
+	n      int
+}
+
+const sigChunk = 1024
+
+func (l *sigList) add(g stabSig) {
+	if k := len(l.chunks); k == 0 || len(l.chunks[k-1]) == sigChunk {
+		l.chunks = append(l.chunks, make([]stabSig, 0, sigChunk))
+	}
+	k := len(l.chunks) - 1
+	l.chunks[k] = append(l.chunks[k], g)
+	l.n++
 }
 
 // sigCodes are the signal codes in the order signals are listed, drawn
@@ -646,7 +664,7 @@ func (b *stabBuild) addSignal(code uint8, side, first, last int, points []int) {
 			b.pts = append(b.pts, int32(j))
 		}
 	}
-	b.sigs[code] = append(b.sigs[code], g)
+	b.sigs[code].add(g)
 }
 
 // scanSignals runs the switched-on checks of the values chart in one pass
@@ -661,9 +679,11 @@ func (b *stabBuild) scanSignals(x []float64, centre float64, sigma []float64, se
 // false.
 func (b *stabBuild) eachSignal(f func(g stabSig) bool) {
 	for _, l := range b.sigs {
-		for _, g := range l {
-			if !f(g) {
-				return
+		for _, c := range l.chunks {
+			for _, g := range c {
+				if !f(g) {
+					return
+				}
 			}
 		}
 	}
@@ -819,6 +839,9 @@ func (b *stabBuild) individuals(settings method.SignalSettings) error {
 	lim := CtlLimits{From: 1, To: b.nPlot, Lower: centre - 3*sigma, Upper: centre + 3*sigma,
 		SpreadCentre: c2.SmallD2 * sigma, SpreadLower: math.Max(0, c2.SmallD2-3*c2.SmallD3) * sigma, SpreadUpper: (c2.SmallD2 + 3*c2.SmallD3) * sigma}
 	st.Chart.Limits = []CtlLimits{lim}
+	// the drift tests before the checks: their working memory (block
+	// sums, ranks) is freed before the signals are kept
+	b.drift()
 	if err := b.scanSignals(ws.series, centre, []float64{sigma}, settings); err != nil {
 		return err
 	}
@@ -956,6 +979,7 @@ func (b *stabBuild) subgroups(settings method.SignalSettings) error {
 		}
 	}
 	b.judged = means
+	b.drift()
 	if err := b.scanSignals(means, centre, sig, settings); err != nil {
 		return err
 	}
@@ -1408,16 +1432,17 @@ func (b *stabBuild) finishChart() {
 	counts := map[string]int{}
 	total := 0
 	for code, l := range b.sigs {
-		counts[sigCodes[code]] = len(l)
-		total += len(l)
-		for _, g := range l {
-			if len(st.Signals) >= maxSignalsListed {
-				st.SignalsCut = true
-				break
-			}
-			st.Signals = append(st.Signals, b.signalInfo(g))
-		}
+		counts[sigCodes[code]] = l.n
+		total += l.n
 	}
+	b.eachSignal(func(g stabSig) bool {
+		if len(st.Signals) >= maxSignalsListed {
+			st.SignalsCut = true
+			return false
+		}
+		st.Signals = append(st.Signals, b.signalInfo(g))
+		return true
+	})
 	for _, c := range checkOrder {
 		cnt := counts[c]
 		if c == method.SignalBeyondLimits {
