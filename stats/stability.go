@@ -478,9 +478,10 @@ func buildStability(w words, cv *colView, ws *withinSigma, smp *sample, opts Opt
 	var notes []Note
 	st.Order = orderInfo(w, cv)
 	sub := cv.subgroup
-	if sub != nil && len(ws.groups) > 0 && allSingles(ws.groups) {
+	if sub != nil && ws.singles {
+		// every subgroup holds one reading: ws is already the individuals'
+		// estimate (within.go), shared with the spec section
 		notes = append(notes, Note{Field: "stability.chart", Text: w.stabAllSingles()})
-		ws = estimateWithin(cv, nil, "")
 		sub = nil
 	}
 	ranges, _ := rowRanges(opts.Baseline)

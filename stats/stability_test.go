@@ -488,3 +488,49 @@ func cusumIs(p []CUSUMPt) []int {
 	}
 	return out
 }
+
+// TestWithinAllSingles: with a subgroup column whose every subgroup holds
+// one reading, the spec and stability sections use the same within sigma
+// (within.go): the moving-range estimate of the readings as individuals,
+// the one an analysis without the subgroup column gives (that estimate is
+// checked against R in TestStabilityIndividualsAgainstR). Data
+// constructed: 40 readings typed to 0.01, one per lot label.
+func TestWithinAllSingles(t *testing.T) {
+	var withSub, plain strings.Builder
+	withSub.WriteString("Lot\tV\n")
+	plain.WriteString("V\n")
+	for i := 0; i < 40; i++ {
+		x := 5.1 + 0.01*float64((i*7)%11) - 0.02*float64(i%3)
+		fmt.Fprintf(&withSub, "L%02d\t%.2f\n", i, x)
+		fmt.Fprintf(&plain, "%.2f\n", x)
+	}
+	lsl, usl := 4.8, 5.4
+	for _, within := range []string{"", WithinPooledSD, WithinMeanRange, WithinMeanSD} {
+		rep, err := Analyze(Request{Text: withSub.String(), Value: "V", Subgroup: "Lot", Options: Options{LSL: &lsl, USL: &usl, WithinSigma: within}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		ref, err := Analyze(Request{Text: plain.String(), Value: "V", Options: Options{LSL: &lsl, USL: &usl}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		st, sp := rep.Stability, rep.Spec
+		if st == nil || st.Chart == nil || sp == nil || sp.Sigma.Within == nil {
+			t.Fatalf("%q: stability %+v, spec %+v", within, st, sp)
+		}
+		if st.Chart.Kind != "individuals" || st.Chart.SigmaMethod != WithinMovingRange || sp.Sigma.Within.Method != WithinMovingRange {
+			t.Errorf("%q: chart %s by %s, spec by %s", within, st.Chart.Kind, st.Chart.SigmaMethod, sp.Sigma.Within.Method)
+		}
+		want := ref.Spec.Sigma.Within.Value
+		if st.Chart.Sigma != want || sp.Sigma.Within.Value != want || ref.Stability.Chart.Sigma != want {
+			t.Errorf("%q: stability sigma %g, spec %g, individuals %g", within, st.Chart.Sigma, sp.Sigma.Within.Value, want)
+		}
+		noted := false
+		for _, n := range rep.Notes {
+			noted = noted || n.Field == "spec.sigma.within" && strings.Contains(n.Text, "one reading")
+		}
+		if !noted {
+			t.Errorf("%q: no note on the spec's within sigma", within)
+		}
+	}
+}

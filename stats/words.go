@@ -864,6 +864,12 @@ func (w words) specFailed(err error) string {
 	return "the spec section could not be computed: " + err.Error()
 }
 
+// withinSingles: a subgroup column was chosen but every subgroup holds one
+// reading (within.go).
+func (w words) withinSingles() string {
+	return "every subgroup holds one reading: the within-process sigma is estimated from the moving ranges of consecutive readings, as on the control chart"
+}
+
 func (w words) noWithin(err error) string {
 	return "no within-process sigma: " + err.Error() + "; the within-process indices (Cp, Cpk) are left out"
 }
