@@ -64,12 +64,15 @@ type Stability struct {
 	// chart, marked, and set no limits.
 	LeftOut []Reading `json:"leftOut,omitempty"`
 
-	Chart   *ControlChart `json:"chart,omitempty"`
-	Checks  []CheckInfo   `json:"checks"`
-	Signals []SignalInfo  `json:"signals"`
-	// SignalsListed is false when more signals were found than listed
-	// (maxSignalsListed); Checks hold the full counts.
-	SignalsCut bool `json:"signalsCut,omitempty"`
+	Chart  *ControlChart `json:"chart,omitempty"`
+	Checks []CheckInfo   `json:"checks"`
+	// Signals lists at most maxSignalsListed (200) signals, check by
+	// check in the order of Checks, each check's in time order;
+	// SignalsCut is true when more were found: Checks hold the full
+	// counts, and the verdict and Reasons name the earliest signal of
+	// all, listed or not.
+	Signals    []SignalInfo `json:"signals"`
+	SignalsCut bool         `json:"signalsCut,omitempty"`
 
 	EWMA   *EWMAInfo   `json:"ewma,omitempty"`
 	CUSUM  *CUSUMInfo  `json:"cusum,omitempty"`
@@ -1690,14 +1693,14 @@ func (b *stabBuild) verdict() {
 	st.Stable = chartN == 0 && ewmaN == 0 && cusumN == 0 && !trend && !change
 	w, dec, unit := b.w, b.dataDecimals(), b.cv.unit
 	if chartN > 0 {
-		first := firstSignal(st.Signals, "values", "spread")
+		first := b.firstSignal("values", "spread")
 		st.Reasons = append(st.Reasons, Reason{Code: "signals", Text: w.stabReasonSignals(chartN, first), Vals: map[string]float64{"count": float64(chartN)}})
 	}
 	if ewmaN > 0 {
-		st.Reasons = append(st.Reasons, Reason{Code: "ewma", Text: w.stabReasonEWMA(ewmaN, firstSignal(st.Signals, "ewma")), Vals: map[string]float64{"count": float64(ewmaN)}})
+		st.Reasons = append(st.Reasons, Reason{Code: "ewma", Text: w.stabReasonEWMA(ewmaN, b.firstSignal("ewma")), Vals: map[string]float64{"count": float64(ewmaN)}})
 	}
 	if cusumN > 0 {
-		st.Reasons = append(st.Reasons, Reason{Code: "cusum", Text: w.stabReasonCUSUM(cusumN, firstSignal(st.Signals, "cusum")), Vals: map[string]float64{"count": float64(cusumN)}})
+		st.Reasons = append(st.Reasons, Reason{Code: "cusum", Text: w.stabReasonCUSUM(cusumN, b.firstSignal("cusum")), Vals: map[string]float64{"count": float64(cusumN)}})
 	}
 	if trend {
 		t := st.Drift.Trend
@@ -1728,7 +1731,7 @@ func (b *stabBuild) verdict() {
 	case trend && st.Drift.Slope != nil:
 		lead = w.stabLeadDrift(st.Drift.Slope.Slope, dec, unit)
 	default:
-		lead = w.stabLeadSignals(nSig, firstSignal(st.Signals, "values", "spread", "ewma", "cusum"))
+		lead = w.stabLeadSignals(nSig, b.firstSignal("values", "spread", "ewma", "cusum"))
 	}
 	if st.Baseline != nil {
 		lead = w.stabLeadBaseline(lead, st.Baseline.Text)
@@ -1745,14 +1748,29 @@ func (b *stabBuild) dataDecimals() int {
 	return 3
 }
 
-func firstSignal(list []SignalInfo, charts ...string) *SignalInfo {
-	var best *SignalInfo
-	for i := range list {
-		if slices.Contains(charts, list[i].Chart) && (best == nil || list[i].First < best.First) {
-			best = &list[i]
+// firstSignal is the earliest signal on the charts named (the first in
+// listing order among those starting at the same point), from every
+// signal found, listed or not; nil when there is none.
+func (b *stabBuild) firstSignal(charts ...string) *SignalInfo {
+	var best stabSig
+	found := false
+	start := func(g stabSig) int32 {
+		if g.np > 0 {
+			return b.pts[g.off]
 		}
+		return g.first
 	}
-	return best
+	b.eachSignal(func(g stabSig) bool {
+		if slices.Contains(charts, g.chart()) && (!found || start(g) < start(best)) {
+			best, found = g, true
+		}
+		return true
+	})
+	if !found {
+		return nil
+	}
+	si := b.signalInfo(best)
+	return &si
 }
 
 // roundedConstants are the chart constants rounded to 12 significant

@@ -534,3 +534,43 @@ func TestWithinAllSingles(t *testing.T) {
 		}
 	}
 }
+
+// TestStabilityVerdictCut: with more signals than are listed, the list
+// runs check by check (every "beyond a limit" first) but the verdict and
+// the reasons name the earliest signal of all, here a steady climb over
+// the first six readings that the list leaves out. Data constructed: a
+// steady pattern typed to 0.01 about 10, rising over readings 1-6, with
+// 250 readings 0.5 high from reading 1000 on.
+func TestStabilityVerdictCut(t *testing.T) {
+	pattern := []int{0, 2, -1, 1, -2, 0, 1, -1}
+	var b strings.Builder
+	for i := 1; i <= 20000; i++ {
+		x := 10 + 0.01*float64(pattern[i%8])
+		if i <= 6 {
+			x = 9.96 + 0.01*float64(i)
+		}
+		if i >= 1000 && i%50 == 0 && i < 1000+250*50 {
+			x += 0.5
+		}
+		fmt.Fprintf(&b, "%.2f\n", x)
+	}
+	s := stab(t, Request{Text: b.String()})
+	if !s.SignalsCut || len(s.Signals) != maxSignalsListed {
+		t.Fatalf("cut %v, %d listed", s.SignalsCut, len(s.Signals))
+	}
+	for _, g := range s.Signals {
+		if g.Code == method.SignalTrend {
+			t.Fatalf("the climb is listed (%+v): the test needs it left out", g)
+		}
+	}
+	if !strings.Contains(s.Verdict, "readings 1-6") || !strings.Contains(s.Reasons[0].Text, "readings 1-6") {
+		t.Errorf("verdict %q, reason %q: want the climb over readings 1-6", s.Verdict, s.Reasons[0].Text)
+	}
+	total := 0
+	for _, c := range s.Checks {
+		total += c.Count
+	}
+	if !strings.HasPrefix(s.Verdict, fmt.Sprintf("Not stable: %d signals", total)) {
+		t.Errorf("verdict %q: want the full count %d", s.Verdict, total)
+	}
+}

@@ -1076,7 +1076,7 @@ func (w words) stabSenThinned(n, every, used int) string {
 }
 
 func (w words) stabSignalsCut(total, listed int) string {
-	return fmt.Sprintf("%d signals were found; the first %d are listed (the checks give the full counts)", total, listed)
+	return fmt.Sprintf("%d signals were found; %d are listed, check by check in the order of the checks (the checks give the full counts, and the verdict names the earliest signal of all)", total, listed)
 }
 
 // stabTestFailed: a drift test (named) could not be computed.
