@@ -185,13 +185,13 @@ func ScanSignals(x []float64, centre float64, sigma []float64, s SignalSettings,
 	if !s.BeyondLimits {
 		lim = math.Inf(1)
 	}
-	var t23, t45 [32]uint64 // fires for these bits of the last points (bit 0: the current one)
+	sc.lim = lim
 	for h := range 32 {
 		if s.TwoOfThree && h&1 != 0 && h&6 != 0 {
-			t23[h] = 1
+			sc.t23[h] = 1
 		}
 		if s.FourOfFive && h&1 != 0 && bits.OnesCount8(uint8(h&0x1e)) >= 3 {
-			t45[h] = 1
+			sc.t45[h] = 1
 		}
 	}
 	thr := func(on bool, v int) uint64 {
@@ -200,31 +200,236 @@ func ScanSignals(x []float64, centre float64, sigma []float64, s SignalSettings,
 		}
 		return uint64(v)
 	}
-	thrSame, thrHug, thrAvoid := thr(s.RunSameSide, sc.minSame), thr(s.HuggingCentre, sc.minHug), thr(s.AvoidCentre, sc.minAvoid)
+	sc.thrSame, sc.thrHug, sc.thrAvoid = thr(s.RunSameSide, sc.minSame), thr(s.HuggingCentre, sc.minHug), thr(s.AvoidCentre, sc.minAvoid)
 	// the step checks count steps: p points make p − 1 (at least one)
-	thrTrend, thrAlt := thr(s.Trend, max(1, sc.minTrend-1)), thr(s.Alternating, max(1, sc.minAlt-1))
+	sc.thrTrend, sc.thrAlt = thr(s.Trend, max(1, sc.minTrend-1)), thr(s.Alternating, max(1, sc.minAlt-1))
+	sc.on23, sc.on45 = s.TwoOfThree, s.FourOfFive
+
+	// The points go by words of 64. A word's zones and steps are first
+	// gathered as bit masks (bit j: point base + j); where the masks show
+	// that nothing can fire in the word (no point beyond the limits, no
+	// window of a windowed check filled, no run reaching its length), the
+	// state is carried over the word from the masks alone; otherwise, and
+	// for the first and last words, the points are run through exactly,
+	// one by one (sc.exact). Most words of a steady process need nothing.
+	var st ctlState
+	var prev ctlMasks
+	for base := 0; base < n; base += 64 {
+		end := min(base+64, n)
+		if end-base < 64 {
+			sc.exact(&st, &prev, base, end)
+			break
+		}
+		m := sc.masks(base)
+		if base > 0 && sc.quiet(&st, &m, &prev) {
+			st.carry(&m)
+		} else {
+			sc.exact(&st, &prev, base, end)
+		}
+		prev = m
+	}
+	// the open clusters and runs end with the points
+	if n == 0 {
+		return nil
+	}
+	sc.w23.close(emit)
+	sc.w45.close(emit)
+	if st.r >= sc.thrSame {
+		sc.endRun(SignalRunSameSide, st.prevSide, n-int(st.r), n-1)
+	}
+	if st.t >= sc.thrTrend {
+		sc.endRun(SignalTrend, st.prevStep, n-1-int(st.t), n-1)
+	}
+	if st.tAlt >= sc.thrAlt {
+		sc.endRun(SignalAlternating, 0, n-1-int(st.tAlt), n-1)
+	}
+	if st.rIn >= sc.thrHug {
+		sc.endRun(SignalHuggingCentre, 0, n-int(st.rIn), n-1)
+	}
+	if st.rOut >= sc.thrAvoid {
+		sc.endAvoid(n-int(st.rOut), n-1)
+	}
+	return nil
+}
+
+// ctlState is the state of ScanSignals after a point: the lengths of the
+// runs ending there (points on one side, within 1σ, beyond 1σ; steps the
+// same way, alternating) and the side and step of that point.
+type ctlState struct {
+	r, rIn, rOut, t, tAlt uint64
+	prevSide, prevStep    int
+}
+
+// ctlMasks are the zones and steps of the 64 points of a word (bit j:
+// point base + j): above and below the centre, beyond 1σ, 2σ and the
+// limit, within 1σ, a step up or down from the point before.
+type ctlMasks struct {
+	above, below, o1, o2, oL, in1, up, down uint64
+}
+
+// masks gathers the masks of the 64 points from base.
+func (sc *ctlScan) masks(base int) ctlMasks {
+	x := sc.x[base : base+64]
+	prev := sc.x[max(0, base-1)] // no step at the first point
+	centre, lim := sc.centre, sc.lim
+	var m ctlMasks
 	sg := 0.0
-	if len(sigma) > 0 {
-		sg = sigma[0]
+	perPoint := len(sc.sigma) > 1
+	if !perPoint {
+		sg = sc.sigma[0]
 	}
-	perPoint := len(sigma) > 1
-	// Each check keeps a few integers, updated without branches (random
-	// points would mispredict them): the last points' zones as bits
-	// (bit 0 the current point) for the windowed checks, and the lengths
-	// of the runs ending at the current point for the run checks. A run
-	// ends when the next point does not extend it; the rare points where
-	// a check fires or a long run ends take the slow path.
-	var hA2, hB2, hA1, hB1 uint64 // above / below, beyond 2σ / 1σ
-	var r, rIn, rOut uint64       // points in a row on one side, within 1σ, beyond 1σ
-	var t, tAlt uint64            // steps in a row the same way, alternating
-	var prevSide, prevStep int
-	prev := 0.0
-	if n > 0 {
-		prev = x[0] // no step at the first point
-	}
-	for i, v := range x {
+	for j, v := range x {
 		if perPoint {
-			sg = sigma[i]
+			sg = sc.sigma[base+j]
+		}
+		d := v - centre
+		a := math.Abs(d)
+		m.above |= ctlU(d > 0) << j
+		m.below |= ctlU(d < 0) << j
+		m.o1 |= ctlU(a > sg) << j
+		m.o2 |= ctlU(a > 2*sg) << j
+		m.oL |= ctlU(a > lim*sg) << j
+		m.in1 |= ctlU(a < sg) << j
+		m.up |= ctlU(v > prev) << j
+		m.down |= ctlU(v < prev) << j
+		prev = v
+	}
+	return m
+}
+
+// quiet tells whether nothing can fire or end in the word of masks m
+// (p: the word before), the state st being the one before the word. It
+// may answer false where nothing happens (the word is then run through
+// exactly), never true where something does.
+func (sc *ctlScan) quiet(st *ctlState, m, p *ctlMasks) bool {
+	if m.oL != 0 {
+		return false
+	}
+	// with bit j standing for point j, M<<k | P>>(64−k) holds point j − k
+	sh := func(M, P uint64, k int) uint64 { return M<<k | P>>(64-k) }
+	if sc.on23 {
+		for _, mp := range [2][2]uint64{{m.above & m.o2, p.above & p.o2}, {m.below & m.o2, p.below & p.o2}} {
+			M, P := mp[0], mp[1]
+			if M&(sh(M, P, 1)|sh(M, P, 2)) != 0 {
+				return false
+			}
+		}
+	}
+	if sc.on45 {
+		for _, mp := range [2][2]uint64{{m.above & m.o1, p.above & p.o1}, {m.below & m.o1, p.below & p.o1}} {
+			M, P := mp[0], mp[1]
+			s1, s2, s3, s4 := sh(M, P, 1), sh(M, P, 2), sh(M, P, 3), sh(M, P, 4)
+			if M&(s1&s2&(s3|s4)|s3&s4&(s1|s2)) != 0 {
+				return false
+			}
+		}
+	}
+	carried := func(cond bool, v uint64) uint64 {
+		if cond {
+			return v
+		}
+		return 0
+	}
+	alt := m.up&sh(m.down, p.down, 1) | m.down&sh(m.up, p.up, 1)
+	altThr := sc.thrAlt
+	if altThr != math.MaxUint64 && altThr > 1 {
+		altThr-- // a stretch of k alternating steps has k − 1 alternations
+	} else if altThr == 1 && m.up|m.down != 0 {
+		return false
+	}
+	return ctlNoRun(m.above, carried(st.prevSide == 1, st.r), sc.thrSame) &&
+		ctlNoRun(m.below, carried(st.prevSide == -1, st.r), sc.thrSame) &&
+		ctlNoRun(m.in1, st.rIn, sc.thrHug) && ctlNoRun(m.o1, st.rOut, sc.thrAvoid) &&
+		ctlNoRun(m.up, carried(st.prevStep == 1, st.t), sc.thrTrend) &&
+		ctlNoRun(m.down, carried(st.prevStep == -1, st.t), sc.thrTrend) &&
+		ctlNoRun(alt, carried(st.tAlt > 0, st.tAlt-1), altThr)
+}
+
+// ctlNoRun tells whether no run of ones in M, with carry ones running
+// into the word from before, reaches thr (a run reaching it may end here).
+func ctlNoRun(M, carry, thr uint64) bool {
+	if thr == math.MaxUint64 {
+		return true
+	}
+	if carry > 0 && carry+uint64(bits.TrailingZeros64(^M)) >= thr {
+		return false
+	}
+	r := M // r: the starts of runs of at least k + 1 ones
+	for k := uint64(1); k < thr && r != 0; k++ {
+		r &= M >> k
+	}
+	return r == 0
+}
+
+// carry moves the state over a quiet word of masks m.
+func (st *ctlState) carry(m *ctlMasks) {
+	top := func(M uint64) uint64 { return uint64(bits.LeadingZeros64(^M)) } // ones ending at bit 63
+	switch {
+	case m.above>>63 != 0:
+		st.r = top(m.above) + ctlIf(top(m.above) == 64 && st.prevSide == 1, st.r)
+		st.prevSide = 1
+	case m.below>>63 != 0:
+		st.r = top(m.below) + ctlIf(top(m.below) == 64 && st.prevSide == -1, st.r)
+		st.prevSide = -1
+	default:
+		st.r, st.prevSide = 0, 0
+	}
+	st.rIn = top(m.in1) + ctlIf(top(m.in1) == 64, st.rIn)
+	st.rOut = top(m.o1) + ctlIf(top(m.o1) == 64, st.rOut)
+	// alternations: step j the opposite of step j − 1 (bit 0 against the
+	// last step of the word before, known from prevStep)
+	prevUp, prevDown := ctlU(st.prevStep == 1), ctlU(st.prevStep == -1)
+	alt := m.up&(m.down<<1|prevDown) | m.down&(m.up<<1|prevUp)
+	switch {
+	case m.up>>63 != 0:
+		st.t = top(m.up) + ctlIf(top(m.up) == 64 && st.prevStep == 1, st.t)
+		st.prevStep = 1
+	case m.down>>63 != 0:
+		st.t = top(m.down) + ctlIf(top(m.down) == 64 && st.prevStep == -1, st.t)
+		st.prevStep = -1
+	default:
+		st.t, st.prevStep = 0, 0
+	}
+	if st.prevStep == 0 {
+		st.tAlt = 0
+	} else if a := top(alt); a == 64 {
+		st.tAlt += 64
+	} else {
+		st.tAlt = a + 1
+	}
+}
+
+func ctlIf(cond bool, v uint64) uint64 {
+	if cond {
+		return v
+	}
+	return 0
+}
+
+// exact runs the points base..end−1 one by one from state st (p: the
+// masks of the word before, for the windows), emitting what fires.
+func (sc *ctlScan) exact(st *ctlState, p *ctlMasks, base, end int) {
+	x := sc.x
+	rev := func(M uint64) uint64 { return bits.Reverse64(M) } // bit k: point base − 1 − k
+	var hA2, hB2, hA1, hB1 uint64
+	if base > 0 {
+		hA2, hB2, hA1, hB1 = rev(p.above&p.o2), rev(p.below&p.o2), rev(p.above&p.o1), rev(p.below&p.o1)
+	}
+	r, rIn, rOut, t, tAlt := st.r, st.rIn, st.rOut, st.t, st.tAlt
+	prevSide, prevStep := st.prevSide, st.prevStep
+	centre, lim := sc.centre, sc.lim
+	t23, t45 := &sc.t23, &sc.t45
+	thrSame, thrHug, thrAvoid, thrTrend, thrAlt := sc.thrSame, sc.thrHug, sc.thrAvoid, sc.thrTrend, sc.thrAlt
+	perPoint := len(sc.sigma) > 1
+	sg := 0.0
+	if !perPoint && len(sc.sigma) > 0 {
+		sg = sc.sigma[0]
+	}
+	prev := x[max(0, base-1)] // no step at the first point
+	for i := base; i < end; i++ {
+		v := x[i]
+		if perPoint {
+			sg = sc.sigma[i]
 		}
 		d := v - centre
 		a := math.Abs(d)
@@ -247,13 +452,13 @@ func ScanSignals(x []float64, centre float64, sigma []float64, s SignalSettings,
 		if f != 0 {
 			if oL != 0 {
 				sc.one[0] = i
-				emit(Signal{Rule: SignalBeyondLimits, Side: side, First: i, Last: i, Points: sc.one[:]})
+				sc.emit(Signal{Rule: SignalBeyondLimits, Side: side, First: i, Last: i, Points: sc.one[:]})
 			}
 			if t23[hA2&31]|t23[hB2&31] != 0 {
-				sc.w23.fire(i, hA2, hB2, emit)
+				sc.w23.fire(i, hA2, hB2, sc.emit)
 			}
 			if t45[hA1&31]|t45[hB1&31] != 0 {
-				sc.w45.fire(i, hA1, hB1, emit)
+				sc.w45.fire(i, hA1, hB1, sc.emit)
 			}
 			if nr != r+1 && r >= thrSame {
 				sc.endRun(SignalRunSameSide, prevSide, i-int(r), i-1)
@@ -274,28 +479,8 @@ func ScanSignals(x []float64, centre float64, sigma []float64, s SignalSettings,
 		r, rIn, rOut, t, tAlt = nr, nIn, nOut, nt, nAlt
 		prev, prevSide, prevStep = v, side, step
 	}
-	// the open clusters and runs end with the points
-	if n == 0 {
-		return nil
-	}
-	sc.w23.close(emit)
-	sc.w45.close(emit)
-	if r >= thrSame {
-		sc.endRun(SignalRunSameSide, prevSide, n-int(r), n-1)
-	}
-	if t >= thrTrend {
-		sc.endRun(SignalTrend, prevStep, n-1-int(t), n-1)
-	}
-	if tAlt >= thrAlt {
-		sc.endRun(SignalAlternating, 0, n-1-int(tAlt), n-1)
-	}
-	if rIn >= thrHug {
-		sc.endRun(SignalHuggingCentre, 0, n-int(rIn), n-1)
-	}
-	if rOut >= thrAvoid {
-		sc.endAvoid(n-int(rOut), n-1)
-	}
-	return nil
+	st.r, st.rIn, st.rOut, st.t, st.tAlt = r, rIn, rOut, t, tAlt
+	st.prevSide, st.prevStep = prevSide, prevStep
 }
 
 // ctlU is 1 for true (the compiler makes it a flag set, not a branch).
@@ -310,12 +495,17 @@ func ctlU(b bool) uint64 {
 // ctlScan holds what ScanSignals needs on its slow path.
 type ctlScan struct {
 	x                                           []float64
-	centre                                      float64
+	centre, lim                                 float64
 	sigma                                       []float64
 	emit                                        func(Signal)
 	one                                         [1]int
 	w23, w45                                    ctlWindow
 	minSame, minHug, minAvoid, minTrend, minAlt int
+	// the window tables (fires for these bits of the last points, bit 0
+	// the current one) and the run thresholds (never: switched off)
+	t23, t45                                    [32]uint64
+	on23, on45                                  bool
+	thrSame, thrHug, thrAvoid, thrTrend, thrAlt uint64
 }
 
 func (sc *ctlScan) endRun(rule string, side, first, last int) {

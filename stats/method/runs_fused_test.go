@@ -228,6 +228,11 @@ func ctlSameSignals(t *testing.T, x []float64, centre float64, sigma []float64, 
 func FuzzScanSignals(f *testing.F) {
 	f.Add([]byte{1, 2, 3, 200, 4, 5, 6, 7, 8, 9, 10, 30, 31, 32, 33, 34, 35}, uint8(10), uint8(3), false)
 	f.Add(make([]byte, 64), uint8(0), uint8(0), true)
+	long := make([]byte, 300) // several words of 64 points
+	for i := range long {
+		long[i] = byte(i*37%251) / 4
+	}
+	f.Add(long, uint8(16), uint8(9), false)
 	f.Fuzz(func(t *testing.T, data []byte, sig uint8, runs uint8, perPoint bool) {
 		x := make([]float64, len(data))
 		sigma := []float64{float64(sig) / 16}
@@ -257,7 +262,10 @@ func FuzzScanSignals(f *testing.F) {
 func TestScanSignalsAgrees(t *testing.T) {
 	for seed := uint64(1); seed <= 40; seed++ {
 		x := ctlRandomSeries(seed, 3000)
-		for _, r := range []int{0, 2, 3, 7} {
+		if seed%2 == 0 {
+			x = append(x, ctlLongRuns(seed)...)
+		}
+		for _, r := range []int{0, 1, 2, 3, 7, 63, 64, 65, 70, 130} {
 			s := DefaultSignalSettings()
 			s.SameSideRun, s.TrendRun, s.AlternatingRun, s.HuggingRun, s.AvoidRun = r, r, r, r, r
 			ctlSameSignals(t, x, 0, []float64{1}, s)
@@ -355,4 +363,37 @@ func slicesIndex(s []int, v int) (int, bool) {
 		}
 	}
 	return -1, false
+}
+
+// ctlLongRuns gives stretches longer than the 64 points ScanSignals
+// passes at a time: steady climbs and falls, points hugging the centre,
+// points alternating beyond 1σ, long runs on one side, each of a length
+// that crosses words at several offsets.
+func ctlLongRuns(seed uint64) []float64 {
+	r := rand.New(rand.NewPCG(seed, 9))
+	var x []float64
+	for k := 0; k < 12; k++ {
+		n := 50 + r.IntN(200)
+		switch k % 4 {
+		case 0: // a climb or a fall
+			dir := float64(1 - 2*r.IntN(2))
+			for i := 0; i < n; i++ {
+				x = append(x, dir*(-2+4*float64(i)/float64(n)))
+			}
+		case 1: // hugging the centre
+			for i := 0; i < n; i++ {
+				x = append(x, 0.5*r.Float64()-0.25)
+			}
+		case 2: // alternating beyond 1σ
+			for i := 0; i < n; i++ {
+				x = append(x, float64(1-2*(i%2))*(1.2+0.6*r.Float64()))
+			}
+		default: // on one side
+			for i := 0; i < n; i++ {
+				x = append(x, 0.1+r.Float64())
+			}
+		}
+		x = append(x, r.NormFloat64())
+	}
+	return x
 }
