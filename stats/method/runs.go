@@ -205,13 +205,13 @@ func ScanSignals(x []float64, centre float64, sigma []float64, s SignalSettings,
 	sc.thrTrend, sc.thrAlt = thr(s.Trend, max(1, sc.minTrend-1)), thr(s.Alternating, max(1, sc.minAlt-1))
 	sc.on23, sc.on45 = s.TwoOfThree, s.FourOfFive
 
-	// The points go by words of 64. A word's zones and steps are first
-	// gathered as bit masks (bit j: point base + j); where the masks show
-	// that nothing can fire in the word (no point beyond the limits, no
-	// window of a windowed check filled, no run reaching its length), the
-	// state is carried over the word from the masks alone; otherwise, and
-	// for the first and last words, the points are run through exactly,
-	// one by one (sc.exact). Most words of a steady process need nothing.
+	// The points go by words of 64. A word's zones and steps are gathered
+	// as bit masks (bit j: point base + j); the state (run lengths, side
+	// and step) is carried over the word from the masks alone. Where the
+	// masks show that something may fire or end (a point beyond the
+	// limits, a window of a windowed check filled, a run reaching its
+	// length), sc.events finds each signal from the masks. The last points
+	// (fewer than 64) are run through one by one (sc.exact).
 	var st ctlState
 	var prev ctlMasks
 	for base := 0; base < n; base += 64 {
@@ -221,11 +221,10 @@ func ScanSignals(x []float64, centre float64, sigma []float64, s SignalSettings,
 			break
 		}
 		m := sc.masks(base)
-		if base > 0 && sc.quiet(&st, &m, &prev) {
-			st.carry(&m)
-		} else {
-			sc.exact(&st, &prev, base, end)
+		if !sc.quiet(&st, &m, &prev) {
+			sc.events(&st, &m, &prev, base)
 		}
+		st.carry(&m)
 		prev = m
 	}
 	// the open clusters and runs end with the points
@@ -361,7 +360,122 @@ func ctlNoRun(M, carry, thr uint64) bool {
 	return r == 0
 }
 
-// carry moves the state over a quiet word of masks m.
+// events emits the signals that fire or end in the word of masks m at
+// base (p: the word before), st being the state before the word.
+func (sc *ctlScan) events(st *ctlState, m, p *ctlMasks, base int) {
+	for b := m.oL; b != 0; b &= b - 1 {
+		j := bits.TrailingZeros64(b)
+		sc.one[0] = base + j
+		side := int(m.above>>j&1) - int(m.below>>j&1)
+		sc.emit(Signal{Rule: SignalBeyondLimits, Side: side, First: base + j, Last: base + j, Points: sc.one[:]})
+	}
+	sh := func(M, P uint64, k int) uint64 { return M<<k | P>>(64-k) }
+	if sc.on23 {
+		A, B, PA, PB := m.above&m.o2, m.below&m.o2, p.above&p.o2, p.below&p.o2
+		for b := A&(sh(A, PA, 1)|sh(A, PA, 2)) | B&(sh(B, PB, 1)|sh(B, PB, 2)); b != 0; b &= b - 1 {
+			j := bits.TrailingZeros64(b)
+			sc.w23.fire(base+j, ctlLast5(A, PA, j), ctlLast5(B, PB, j), sc.emit)
+		}
+	}
+	if sc.on45 {
+		A, B, PA, PB := m.above&m.o1, m.below&m.o1, p.above&p.o1, p.below&p.o1
+		f := func(M, P uint64) uint64 {
+			s1, s2, s3, s4 := sh(M, P, 1), sh(M, P, 2), sh(M, P, 3), sh(M, P, 4)
+			return M & (s1&s2&(s3|s4) | s3&s4&(s1|s2))
+		}
+		for b := f(A, PA) | f(B, PB); b != 0; b &= b - 1 {
+			j := bits.TrailingZeros64(b)
+			sc.w45.fire(base+j, ctlLast5(A, PA, j), ctlLast5(B, PB, j), sc.emit)
+		}
+	}
+	// Runs of ones in M1 (side +1) or M2 (side −1, may be 0): each ends at
+	// the first bit not in it, and its length counts the bits before
+	// (c1, c2: the ones carried from before the word). The runs of both
+	// sides are taken in order. For runs of points (off 0) the run ends
+	// at point i − 1 with i = base + j; for runs of steps (off 1) a
+	// stretch of L steps ending at point i − 1 starts at point i − 1 − L.
+	runs := func(rule string, M1, c1, M2, c2, thr uint64, off int) {
+		if ctlNoRun(M1, c1, thr) && ctlNoRun(M2, c2, thr) {
+			return
+		}
+		e1, e2 := ^M1&(M1<<1|ctlU(c1 > 0)), ^M2&(M2<<1|ctlU(c2 > 0))
+		for b := e1 | e2; b != 0; b &= b - 1 {
+			j := bits.TrailingZeros64(b)
+			L, side := ctlRunBefore(M1, c1, j), 1
+			if e1>>j&1 == 0 {
+				L, side = ctlRunBefore(M2, c2, j), -1
+			}
+			if L < thr {
+				continue
+			}
+			i := base + j
+			switch rule {
+			case SignalAvoidCentre:
+				sc.endAvoid(i-int(L), i-1)
+			case SignalHuggingCentre:
+				sc.endRun(rule, 0, i-int(L), i-1)
+			default:
+				sc.endRun(rule, side, i-off-int(L), i-1)
+			}
+		}
+	}
+	runs(SignalRunSameSide, m.above, ctlIf(st.prevSide == 1, st.r), m.below, ctlIf(st.prevSide == -1, st.r), sc.thrSame, 0)
+	runs(SignalHuggingCentre, m.in1, st.rIn, 0, 0, sc.thrHug, 0)
+	runs(SignalAvoidCentre, m.o1, st.rOut, 0, 0, sc.thrAvoid, 0)
+	runs(SignalTrend, m.up, ctlIf(st.prevStep == 1, st.t), m.down, ctlIf(st.prevStep == -1, st.t), sc.thrTrend, 1)
+	// alternating stretches: step j alternates with step j − 1; a stretch
+	// of k steps ending at point i − 1 has k − 1 alternations
+	if sc.thrAlt != math.MaxUint64 {
+		nz := m.up | m.down
+		alt := m.up&sh(m.down, p.down, 1) | m.down&sh(m.up, p.up, 1)
+		if sc.thrAlt <= 1 || !ctlNoRun(alt, ctlIf(st.tAlt > 0, st.tAlt-1), sc.thrAlt-1) {
+			for b := ^alt & (nz<<1 | ctlU(st.prevStep != 0)); b != 0; b &= b - 1 {
+				j := bits.TrailingZeros64(b)
+				// steps in the stretch ending at point base + j − 1
+				var k uint64
+				if j == 0 {
+					k = st.tAlt
+				} else if below := alt & (1<<j - 1); below == 1<<j-1 {
+					k = st.tAlt + uint64(j) // alternating since before the word
+				} else {
+					k = uint64(j-1-(63-bits.LeadingZeros64(^alt&(1<<j-1)))) + 1
+				}
+				if k >= sc.thrAlt {
+					sc.endRun(SignalAlternating, 0, base+j-1-int(k), base+j-1)
+				}
+			}
+		}
+	}
+}
+
+// ctlRunBefore is the length of the run of ones in M ending at bit j − 1
+// (with carry ones before the word when it reaches bit 0).
+func ctlRunBefore(M, carry uint64, j int) uint64 {
+	if j == 0 {
+		return carry
+	}
+	z := ^M & (1<<j - 1) // zeros below bit j
+	if z == 0 {
+		return uint64(j) + carry
+	}
+	return uint64(j - 1 - (63 - bits.LeadingZeros64(z)))
+}
+
+// ctlLast5 gives the bits of points base+j, base+j−1, .., base+j−4 (bit k:
+// point base+j−k) from the masks of the word (M) and the word before (P).
+func ctlLast5(M, P uint64, j int) uint64 {
+	var h uint64
+	for k := 0; k < 5; k++ {
+		if q := j - k; q >= 0 {
+			h |= (M >> q & 1) << k
+		} else {
+			h |= (P >> (64 + q) & 1) << k
+		}
+	}
+	return h
+}
+
+// carry moves the state over a word of masks m.
 func (st *ctlState) carry(m *ctlMasks) {
 	top := func(M uint64) uint64 { return uint64(bits.LeadingZeros64(^M)) } // ones ending at bit 63
 	switch {
