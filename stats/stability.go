@@ -1777,15 +1777,7 @@ func (b *stabBuild) firstSignal(charts ...string) *SignalInfo {
 // digits (they are computed to about 1e-14 by integration): the engine's
 // native and WebAssembly builds differ in the last bits of their
 // exponential and logarithm, and the report must be the same in both.
-// They are kept by subgroup size: each is a numerical integration
-// (milliseconds), wanted once per subgroup.
 func roundedConstants(n int) method.ChartConstants {
-	constMu.Lock()
-	c, ok := constCache[n]
-	constMu.Unlock()
-	if ok {
-		return c
-	}
 	c, err := method.Constants(n)
 	if err != nil {
 		return c
@@ -1793,16 +1785,8 @@ func roundedConstants(n int) method.ChartConstants {
 	for _, p := range []*float64{&c.SmallD2, &c.SmallD3, &c.C4, &c.C5} {
 		*p = roundSig(*p, 12)
 	}
-	constMu.Lock()
-	constCache[n] = c
-	constMu.Unlock()
 	return c
 }
-
-var (
-	constMu    sync.Mutex
-	constCache = map[int]method.ChartConstants{}
-)
 
 // arlCache keeps the run lengths by chart and settings: each is a linear
 // solve of 301 states (tens of milliseconds), and the page re-runs the
