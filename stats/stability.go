@@ -569,11 +569,13 @@ type stabBuild struct {
 	gLeft, gOut []bool
 	// sigs holds the signals by code (sigCodes), each list in the order
 	// found; pts the points of the windowed checks' signals
-	sigs    [len(sigCodes)]sigList
-	pts     []int32
-	keep    []int32 // plotted positions drawn (ascending); nil: all
-	extra   []int32 // positions of EWMA and CUSUM alarms drawn too
-	flagged int     // points of signals chosen for drawing
+	sigs      [len(sigCodes)]sigList
+	pts       []int32
+	keep      []int32 // plotted positions drawn (ascending); nil: all
+	extra     []int32 // positions of EWMA and CUSUM alarms drawn too
+	blockKeep []int32 // the lowest and highest of thin's blocks, when found early
+	flagged   int     // points of signals chosen for drawing
+	firsts    map[string]firstSig
 }
 
 // stabSig is one signal while the section is built, kept small (a long
@@ -851,12 +853,11 @@ func (b *stabBuild) individuals(settings method.SignalSettings) error {
 	}
 	// moving ranges between consecutive used readings, judged by their
 	// upper limit (a moving range is made by two readings)
-	if b.on[method.SignalBeyondLimits] {
-		for j := 1; j < n; j++ {
-			if math.Abs(ws.series[j]-ws.series[j-1]) > lim.SpreadUpper*(1-1e-12) && b.diff(j, j-1) > lim.SpreadUpper {
-				b.addSignal(sigSpread, 0, j-1, j, nil)
-			}
-		}
+	// (in the same pass, on a long series without readings left out, the
+	// lowest and highest of each block thin keeps)
+	spreadOn := b.on[method.SignalBeyondLimits]
+	if spreadOn || (b.nPlot > maxChartPoints && len(b.leftPos) == 0) {
+		b.spreadAndBlocks(ws.series, lim.SpreadUpper, spreadOn)
 	}
 	b.baselineInfo(base, n)
 	b.ewmaCusum(ws.series, centre, sigma, "data")
@@ -1509,6 +1510,10 @@ func (b *stabBuild) thin(limit int) {
 	}
 	keep := make([]int32, 0, 3*limit)
 	blocks := limit / 2
+	if b.blockKeep != nil && limit == maxChartPoints {
+		keep = append(keep, b.blockKeep...)
+		blocks = 0
+	}
 	for k := range blocks {
 		a, e := k*n/blocks, (k+1)*n/blocks
 		var lo, hi int
@@ -1556,6 +1561,40 @@ func (b *stabBuild) thin(limit int) {
 	}
 	slices.Sort(keep)
 	b.keep = slices.Compact(keep)
+}
+
+// spreadAndBlocks judges the moving ranges of x (individuals, judged by
+// their upper limit up when on) and, when the chart will be thinned and
+// every plotted point is judged, keeps the positions of the lowest and
+// highest of each of thin's blocks (b.blockKeep), in one pass.
+func (b *stabBuild) spreadAndBlocks(x []float64, up float64, on bool) {
+	n := len(x)
+	blocks := 0
+	if n > maxChartPoints && len(b.leftPos) == 0 {
+		blocks = maxChartPoints / 2
+		b.blockKeep = make([]int32, 0, 2*blocks)
+	}
+	cut := up * (1 - 1e-12) // a cheap test before the exact one
+	judge := func(lo, hi int) {
+		if !on {
+			return
+		}
+		for j := max(lo, 1); j < hi; j++ {
+			if math.Abs(x[j]-x[j-1]) > cut && b.diff(j, j-1) > up {
+				b.addSignal(sigSpread, 0, j-1, j, nil)
+			}
+		}
+	}
+	if blocks == 0 {
+		judge(0, n)
+		return
+	}
+	for k := range blocks {
+		a, e := k*n/blocks, (k+1)*n/blocks
+		judge(a, e)
+		lo, hi := blockMinMax(x[a:e])
+		b.blockKeep = append(b.blockKeep, int32(lo+a), int32(hi+a))
+	}
 }
 
 // blockMinMax gives the positions of the first lowest and the first
@@ -1752,25 +1791,42 @@ func (b *stabBuild) dataDecimals() int {
 // listing order among those starting at the same point), from every
 // signal found, listed or not; nil when there is none.
 func (b *stabBuild) firstSignal(charts ...string) *SignalInfo {
-	var best stabSig
-	found := false
-	start := func(g stabSig) int32 {
-		if g.np > 0 {
-			return b.pts[g.off]
-		}
-		return g.first
+	if b.firsts == nil {
+		// once: the earliest signal of each chart, with its place in the
+		// listing order for ties
+		b.firsts = map[string]firstSig{}
+		seq := 0
+		b.eachSignal(func(g stabSig) bool {
+			start := g.first
+			if g.np > 0 {
+				start = b.pts[g.off]
+			}
+			if f, ok := b.firsts[g.chart()]; !ok || start < f.start {
+				b.firsts[g.chart()] = firstSig{g: g, start: start, seq: seq}
+			}
+			seq++
+			return true
+		})
 	}
-	b.eachSignal(func(g stabSig) bool {
-		if slices.Contains(charts, g.chart()) && (!found || start(g) < start(best)) {
-			best, found = g, true
+	var best firstSig
+	found := false
+	for _, c := range charts {
+		if f, ok := b.firsts[c]; ok && (!found || f.start < best.start || f.start == best.start && f.seq < best.seq) {
+			best, found = f, true
 		}
-		return true
-	})
+	}
 	if !found {
 		return nil
 	}
-	si := b.signalInfo(best)
+	si := b.signalInfo(best.g)
 	return &si
+}
+
+// firstSig is the earliest signal of a chart (firstSignal).
+type firstSig struct {
+	g     stabSig
+	start int32
+	seq   int
 }
 
 // roundedConstants are the chart constants rounded to 12 significant
