@@ -271,7 +271,8 @@ func (sc *ctlScan) masks(base int) ctlMasks {
 	x := sc.x[base : base+64]
 	prev := sc.x[max(0, base-1)] // no step at the first point
 	centre, lim := sc.centre, sc.lim
-	var m ctlMasks
+	// the masks in local variables (registers), not in m's fields
+	var above, below, o1, o2, oL, in1, up, down uint64
 	sg := 0.0
 	perPoint := len(sc.sigma) > 1
 	if !perPoint {
@@ -283,17 +284,17 @@ func (sc *ctlScan) masks(base int) ctlMasks {
 		}
 		d := v - centre
 		a := math.Abs(d)
-		m.above |= ctlU(d > 0) << j
-		m.below |= ctlU(d < 0) << j
-		m.o1 |= ctlU(a > sg) << j
-		m.o2 |= ctlU(a > 2*sg) << j
-		m.oL |= ctlU(a > lim*sg) << j
-		m.in1 |= ctlU(a < sg) << j
-		m.up |= ctlU(v > prev) << j
-		m.down |= ctlU(v < prev) << j
+		above |= ctlU(d > 0) << j
+		below |= ctlU(d < 0) << j
+		o1 |= ctlU(a > sg) << j
+		o2 |= ctlU(a > 2*sg) << j
+		oL |= ctlU(a > lim*sg) << j
+		in1 |= ctlU(a < sg) << j
+		up |= ctlU(v > prev) << j
+		down |= ctlU(v < prev) << j
 		prev = v
 	}
-	return m
+	return ctlMasks{above: above, below: below, o1: o1, o2: o2, oL: oL, in1: in1, up: up, down: down}
 }
 
 // quiet tells whether nothing can fire or end in the word of masks m
