@@ -1077,7 +1077,8 @@ func (b *stabBuild) ewmaCusum(x []float64, centre, sigma float64, scale string) 
 			}
 		}
 	}
-	var ewma []EWMAPt
+	// room for the points drawn and some alarms' points
+	ewma := make([]EWMAPt, 0, len(keepJ)+64)
 	lims := method.EWMAChart{Lambda: lam, L: L, Centre: centre, Sigma: sigma}
 	sc := newAlarmScan(b, b.on[SignalEWMA], SignalEWMA, "ewma", keepJ, len(x), func(v alarmPt) {
 		lo, hi := lims.Limits(v.j)
@@ -1110,7 +1111,7 @@ func (b *stabBuild) ewmaCusum(x []float64, centre, sigma float64, scale string) 
 		b.st.EWMA = &EWMAInfo{Lambda: lam, L: L, Scale: scale, Centre: centre, Sigma: sigma, Beyond: sc.beyond, Points: sortedPts(ewma, func(p EWMAPt) int { return p.I }),
 			ARL0: cachedARL("ewma", lam, L, 0), ARL1: cachedARL("ewma", lam, L, 1)}
 	}
-	var cusum []CUSUMPt
+	cusum := make([]CUSUMPt, 0, len(keepJ)+64)
 	decision := h * sigma
 	sc = newAlarmScan(b, b.on[SignalCUSUM], SignalCUSUM, "cusum", keepJ, len(x), func(v alarmPt) {
 		cusum = append(cusum, CUSUMPt{I: b.posOf(v.j) + 1, Up: v.a, Down: v.b})
@@ -1624,11 +1625,22 @@ func (b *stabBuild) drawPoints() {
 		_, ok := slices.BinarySearch(b.keep, int32(p))
 		return ok
 	}
-	// flags by drawn position
-	flags := map[int][]string{}
+	// flags by drawn position: index p, or p's index in b.keep
+	count := b.nPlot
+	if b.keep != nil {
+		count = len(b.keep)
+	}
+	flags := make([][]string, count)
+	slot := func(p int) int {
+		if b.keep == nil {
+			return p
+		}
+		k, _ := slices.BinarySearch(b.keep, int32(p))
+		return k
+	}
 	mark := func(p int, code string) {
-		if !slices.Contains(flags[p], code) {
-			flags[p] = append(flags[p], code)
+		if k := slot(p); !slices.Contains(flags[k], code) {
+			flags[k] = append(flags[k], code)
 		}
 	}
 	b.eachSignal(func(g stabSig) bool {
@@ -1658,14 +1670,10 @@ func (b *stabBuild) drawPoints() {
 		}
 		return true
 	})
-	count := b.nPlot
-	if b.keep != nil {
-		count = len(b.keep)
-	}
 	ch.Points = make([]CtlPoint, 0, count)
 	point := func(p int) {
 		j, left := b.atPos(p)
-		cp := CtlPoint{I: p + 1, Flags: flags[p]}
+		cp := CtlPoint{I: p + 1, Flags: flags[slot(p)]}
 		var cell int32
 		switch {
 		case left >= 0:
