@@ -1084,18 +1084,12 @@ func (b *stabBuild) ewmaCusum(x []float64, centre, sigma float64, scale string) 
 		lo, hi := lims.Limits(v.j)
 		ewma = append(ewma, EWMAPt{I: b.posOf(v.j) + 1, Z: v.a, Lo: lo, Hi: hi})
 	})
-	// with a thinned chart only the points drawn, the alarms and the
-	// points ending them are visited (every point otherwise)
-	ewmaScan, cusumScan := method.EWMAScan, method.CUSUMScan
-	if b.keep != nil {
-		ewmaScan = func(x []float64, centre, sigma, lam, L float64, visit func(int, float64, bool)) error {
-			return method.EWMAScanAt(x, centre, sigma, lam, L, keepJ, visit)
-		}
-		cusumScan = func(x []float64, centre, sigma, k, h float64, visit func(int, float64, float64, int32, int32, bool)) error {
-			return method.CUSUMScanAt(x, centre, sigma, k, h, keepJ, visit)
-		}
-	}
-	err := ewmaScan(x, centre, sigma, lam, L, func(j int, z float64, out bool) {
+	cusum := make([]CUSUMPt, 0, len(keepJ)+64)
+	decision := h * sigma
+	scC := newAlarmScan(b, b.on[SignalCUSUM], SignalCUSUM, "cusum", keepJ, len(x), func(v alarmPt) {
+		cusum = append(cusum, CUSUMPt{I: b.posOf(v.j) + 1, Up: v.a, Down: v.b})
+	})
+	visitE := func(j int, z float64, out bool) {
 		if out {
 			sc.beyond++
 		}
@@ -1106,31 +1100,38 @@ func (b *stabBuild) ewmaCusum(x []float64, centre, sigma float64, scale string) 
 			}
 			sc.step(alarmPt{j: j, a: z}, out, side, j)
 		}
-	})
-	if err == nil {
-		b.st.EWMA = &EWMAInfo{Lambda: lam, L: L, Scale: scale, Centre: centre, Sigma: sigma, Beyond: sc.beyond, Points: sortedPts(ewma, func(p EWMAPt) int { return p.I }),
-			ARL0: cachedARL("ewma", lam, L, 0), ARL1: cachedARL("ewma", lam, L, 1)}
 	}
-	cusum := make([]CUSUMPt, 0, len(keepJ)+64)
-	decision := h * sigma
-	sc = newAlarmScan(b, b.on[SignalCUSUM], SignalCUSUM, "cusum", keepJ, len(x), func(v alarmPt) {
-		cusum = append(cusum, CUSUMPt{I: b.posOf(v.j) + 1, Up: v.a, Down: v.b})
-	})
-	err = cusumScan(x, centre, sigma, k, h, func(j int, up, lo float64, nu, nl int32, out bool) {
+	visitC := func(j int, up, lo float64, nu, nl int32, out bool) {
 		if out {
-			sc.beyond++
+			scC.beyond++
 		}
-		if out || j == sc.nextJ || sc.start >= 0 {
+		if out || j == scC.nextJ || scC.start >= 0 {
 			// the shift began about the point after the sum was last zero
 			side, start := 1, j-int(nu)+1
 			if up <= decision {
 				side, start = -1, j-int(nl)+1
 			}
-			sc.step(alarmPt{j: j, a: up, b: lo}, out, side, max(0, start))
+			scC.step(alarmPt{j: j, a: up, b: lo}, out, side, max(0, start))
 		}
-	})
-	if err == nil {
-		b.st.CUSUM = &CUSUMInfo{K: k, H: h, Scale: scale, Centre: centre, Sigma: sigma, Decision: decision, Beyond: sc.beyond, Points: sortedPts(cusum, func(p CUSUMPt) int { return p.I }),
+	}
+	var errE, errC error
+	if b.keep != nil {
+		// thinned: one pass for both, visiting only the points drawn, the
+		// alarms and the points ending them; the CUSUM's alarms join the
+		// drawing after the EWMA's, as when each had its own pass
+		scC.deferred = true
+		errE, errC = method.EWMACUSUMScanAt(x, centre, sigma, lam, L, k, h, keepJ, visitE, visitC)
+		scC.replay()
+	} else {
+		errE = method.EWMAScan(x, centre, sigma, lam, L, visitE)
+		errC = method.CUSUMScan(x, centre, sigma, k, h, visitC)
+	}
+	if errE == nil {
+		b.st.EWMA = &EWMAInfo{Lambda: lam, L: L, Scale: scale, Centre: centre, Sigma: sigma, Beyond: sc.beyond, Points: sortedPts(ewma, func(p EWMAPt) int { return p.I }),
+			ARL0: cachedARL("ewma", lam, L, 0), ARL1: cachedARL("ewma", lam, L, 1)}
+	}
+	if errC == nil {
+		b.st.CUSUM = &CUSUMInfo{K: k, H: h, Scale: scale, Centre: centre, Sigma: sigma, Decision: decision, Beyond: scC.beyond, Points: sortedPts(cusum, func(p CUSUMPt) int { return p.I }),
 			ARL0: cachedARL("cusum", k, h, 0), ARL1: cachedARL("cusum", k, h, 1)}
 	}
 }
@@ -1158,6 +1159,11 @@ type alarmScan struct {
 	last        alarmPt
 	beyond      int
 	out         func(v alarmPt)
+	// deferred: the alarms' points wait in pending (at most
+	// maxChartPoints of them) and join the drawing at replay
+	deferred bool
+	pending  [][]alarmPt
+	npending int
 }
 
 func newAlarmScan(b *stabBuild, on bool, code, chart string, keepJ []int, n int, out func(v alarmPt)) *alarmScan {
@@ -1203,18 +1209,43 @@ func (sc *alarmScan) step(v alarmPt, beyond bool, side, start int) {
 	if sc.on {
 		b.addSignal(sigCode(sc.code), sc.side, sc.start, lastJ, nil)
 	}
-	if b.keep != nil && b.flagged < maxChartPoints {
+	if b.keep != nil {
 		pts := sc.buf
 		if lastJ-sc.start+1 > maxSignalRows {
 			pts = []alarmPt{sc.buf[0], sc.last}
 		}
-		for _, p := range pts {
-			sc.out(p)
-			b.extra = append(b.extra, int32(b.posOf(p.j)))
+		if !sc.deferred {
+			sc.draw(pts)
+		} else if sc.npending < maxChartPoints {
+			// beyond that many points none could join (the budget is
+			// spent by then)
+			sc.pending = append(sc.pending, slices.Clone(pts))
+			sc.npending += len(pts)
 		}
-		b.flagged += len(pts)
 	}
 	sc.start, sc.buf = -1, sc.buf[:0]
+}
+
+// draw adds the points of one run of alarms to the drawing while the
+// budget for signals' points lasts.
+func (sc *alarmScan) draw(pts []alarmPt) {
+	b := sc.b
+	if b.flagged >= maxChartPoints {
+		return
+	}
+	for _, p := range pts {
+		sc.out(p)
+		b.extra = append(b.extra, int32(b.posOf(p.j)))
+	}
+	b.flagged += len(pts)
+}
+
+// replay draws the deferred runs of alarms in order.
+func (sc *alarmScan) replay() {
+	for _, pts := range sc.pending {
+		sc.draw(pts)
+	}
+	sc.pending = nil
 }
 
 // sortedPts orders points by position, one per position.

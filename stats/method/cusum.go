@@ -161,3 +161,59 @@ func ctlCUSUMOneSided(k, h, shift float64) (float64, error) {
 	}
 	return ctlSolveARL(a, 0)
 }
+
+// EWMACUSUMScanAt runs EWMAScanAt (λ = lambda, L = l) and CUSUMScanAt (k,
+// h) over the same points in one pass, their two recursions side by side
+// (each waits on its own previous value, so together they take little
+// more time than one). visitE and visitC are called exactly as the two
+// scans would call them, in order of the points (at a point both visit,
+// visitE first). A scan whose settings are refused returns its error and
+// makes no visit; the other still runs.
+func EWMACUSUMScanAt(x []float64, centre, sigma, lambda, l, k, h float64, at []int,
+	visitE func(i int, z float64, beyond bool), visitC func(i int, up, lo float64, nu, nl int32, beyond bool)) (errE, errC error) {
+	if !(sigma >= 0) || math.IsInf(sigma, 0) || math.IsNaN(centre) || math.IsInf(centre, 0) {
+		err := fmt.Errorf("centre %g and sigma %g: they must be finite, sigma >= 0", centre, sigma)
+		return err, err
+	}
+	errE, errC = ctlCheckLambdaL(lambda, l), ctlCheckKH(k, h)
+	doE, doC := errE == nil, errC == nil
+	// EWMA
+	z := centre
+	a := 1.0 // (1−λ)^(2(i+1))
+	q := (1 - lambda) * (1 - lambda)
+	kk := lambda / (2 - lambda)
+	hw := 0.0
+	// CUSUM
+	up, lo := 0.0, 0.0
+	var nu, nl int32
+	slack, decision := k*sigma, h*sigma
+	hi, low := centre+slack, centre-slack
+	next, ai := ctlNextAt(at, 0, false)
+	wasE, wasC := false, false
+	for i, v := range x {
+		z = lambda*v + (1-lambda)*z
+		if 1-a != 1 {
+			a *= q
+			hw = l * sigma * math.Sqrt(kk*(1-a))
+		}
+		d := z - centre
+		beyondE := d > hw || d < -hw
+		up = max(0, v-hi+up)
+		lo = max(0, low-v+lo)
+		nu = (nu + 1) * int32(ctlU(up > 0))
+		nl = (nl + 1) * int32(ctlU(lo > 0))
+		beyondC := up > decision || lo > decision
+		here := i == next
+		if doE && (beyondE || wasE || here) {
+			visitE(i, z, beyondE)
+		}
+		if doC && (beyondC || wasC || here) {
+			visitC(i, up, lo, nu, nl, beyondC)
+		}
+		if here {
+			next, ai = ctlNextAt(at, ai+1, false)
+		}
+		wasE, wasC = beyondE, beyondC
+	}
+	return errE, errC
+}

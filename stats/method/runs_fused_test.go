@@ -397,3 +397,45 @@ func ctlLongRuns(seed uint64) []float64 {
 	}
 	return x
 }
+
+// TestEWMACUSUMScanAt: the fused pass visits the points EWMAScanAt and
+// CUSUMScanAt visit, with the same values, and a refused setting stops
+// only its own scan.
+func TestEWMACUSUMScanAt(t *testing.T) {
+	type ev struct {
+		i          int
+		a, b       float64
+		nu, nl     int32
+		out, cusum bool
+	}
+	x := ctlRandomSeries(5, 7000)
+	at := []int{0, 1, 64, 65, 3000, 6999}
+	var want []ev
+	if err := EWMAScanAt(x, 0.1, 0.9, 0.2, 3, at, func(i int, z float64, out bool) { want = append(want, ev{i: i, a: z, out: out}) }); err != nil {
+		t.Fatal(err)
+	}
+	if err := CUSUMScanAt(x, 0.1, 0.9, 0.5, 4, at, func(i int, up, lo float64, nu, nl int32, out bool) {
+		want = append(want, ev{i, up, lo, nu, nl, out, true})
+	}); err != nil {
+		t.Fatal(err)
+	}
+	var gotE, gotC []ev
+	errE, errC := EWMACUSUMScanAt(x, 0.1, 0.9, 0.2, 3, 0.5, 4, at,
+		func(i int, z float64, out bool) { gotE = append(gotE, ev{i: i, a: z, out: out}) },
+		func(i int, up, lo float64, nu, nl int32, out bool) {
+			gotC = append(gotC, ev{i, up, lo, nu, nl, out, true})
+		})
+	if errE != nil || errC != nil {
+		t.Fatal(errE, errC)
+	}
+	if got := append(gotE, gotC...); !reflect.DeepEqual(want, got) || len(gotE) < len(at) || len(gotC) < len(at) {
+		t.Fatalf("fused: %d + %d visits, want %d", len(gotE), len(gotC), len(want))
+	}
+	gotE, gotC = nil, nil
+	errE, errC = EWMACUSUMScanAt(x, 0.1, 0.9, 1.5, 3, 0.5, 4, at,
+		func(i int, z float64, out bool) { gotE = append(gotE, ev{}) },
+		func(i int, up, lo float64, nu, nl int32, out bool) { gotC = append(gotC, ev{}) })
+	if errE == nil || errC != nil || len(gotE) != 0 || len(gotC) == 0 {
+		t.Errorf("λ = 1.5: errors %v, %v; %d and %d visits", errE, errC, len(gotE), len(gotC))
+	}
+}
