@@ -177,43 +177,70 @@ func EWMACUSUMScanAt(x []float64, centre, sigma, lambda, l, k, h float64, at []i
 	}
 	errE, errC = ctlCheckLambdaL(lambda, l), ctlCheckKH(k, h)
 	doE, doC := errE == nil, errC == nil
-	// EWMA
-	z := centre
-	a := 1.0 // (1−λ)^(2(i+1))
-	q := (1 - lambda) * (1 - lambda)
-	kk := lambda / (2 - lambda)
-	hw := 0.0
-	// CUSUM
-	up, lo := 0.0, 0.0
-	var nu, nl int32
-	slack, decision := k*sigma, h*sigma
-	hi, low := centre+slack, centre-slack
+	slack := k * sigma
+	st := ctlEC{z: centre, a: 1, lambda: lambda, q: (1 - lambda) * (1 - lambda), kk: lambda / (2 - lambda),
+		lsig: l * sigma, hi: centre + slack, low: centre - slack, decision: h * sigma, centre: centre}
 	next, ai := ctlNextAt(at, 0, false)
-	wasE, wasC := false, false
-	for i, v := range x {
-		z = lambda*v + (1-lambda)*z
-		if 1-a != 1 {
-			a *= q
-			hw = l * sigma * math.Sqrt(kk*(1-a))
+	for i := 0; i < len(x); i++ {
+		// the points that need no visit pass in a loop without calls
+		if i = st.run(x, i, next); i == len(x) {
+			break
 		}
-		d := z - centre
-		beyondE := d > hw || d < -hw
-		up = max(0, v-hi+up)
-		lo = max(0, low-v+lo)
-		nu = (nu + 1) * int32(ctlU(up > 0))
-		nl = (nl + 1) * int32(ctlU(lo > 0))
-		beyondC := up > decision || lo > decision
 		here := i == next
-		if doE && (beyondE || wasE || here) {
-			visitE(i, z, beyondE)
+		if doE && (st.beyondE || st.wasE || here) {
+			visitE(i, st.z, st.beyondE)
 		}
-		if doC && (beyondC || wasC || here) {
-			visitC(i, up, lo, nu, nl, beyondC)
+		if doC && (st.beyondC || st.wasC || here) {
+			visitC(i, st.up, st.lo, st.nu, st.nl, st.beyondC)
 		}
 		if here {
 			next, ai = ctlNextAt(at, ai+1, false)
 		}
-		wasE, wasC = beyondE, beyondC
+		st.wasE, st.wasC = st.beyondE, st.beyondC
 	}
 	return errE, errC
+}
+
+// ctlEC is the state of EWMACUSUMScanAt after a point: the EWMA z with
+// its limit's half-width hw ((1−λ)^(2(i+1)) in a), the CUSUM sums and
+// counts, whether each is beyond, and whether it was at the point before.
+type ctlEC struct {
+	z, a, hw, up, lo             float64
+	nu, nl                       int32
+	beyondE, beyondC, wasE, wasC bool
+	lambda, q, kk, lsig          float64
+	hi, low, decision, centre    float64
+}
+
+// run advances the state from point from and stops at the first point to
+// visit (at next, beyond, or just after a point beyond), returning it
+// (len(x) when none is left).
+func (s *ctlEC) run(x []float64, from, next int) int {
+	z, a, hw, up, lo, nu, nl := s.z, s.a, s.hw, s.up, s.lo, s.nu, s.nl
+	wasE, wasC := s.wasE, s.wasC
+	lambda, q, kk, lsig, hi, low, decision, centre := s.lambda, s.q, s.kk, s.lsig, s.hi, s.low, s.decision, s.centre
+	i := from
+	beyondE, beyondC := false, false
+	for ; i < len(x); i++ {
+		v := x[i]
+		z = lambda*v + (1-lambda)*z
+		if 1-a != 1 { // once (1−λ)^(2(i+1)) is below the rounding of 1, hw stays
+			a *= q
+			hw = lsig * math.Sqrt(kk*(1-a))
+		}
+		d := z - centre
+		beyondE = d > hw || d < -hw
+		up = max(0, v-hi+up) // the built-in max: no branch to mispredict
+		lo = max(0, low-v+lo)
+		nu = (nu + 1) * int32(ctlU(up > 0))
+		nl = (nl + 1) * int32(ctlU(lo > 0))
+		beyondC = up > decision || lo > decision
+		if beyondE || wasE || beyondC || wasC || i == next {
+			break
+		}
+		wasE, wasC = beyondE, beyondC
+	}
+	s.z, s.a, s.hw, s.up, s.lo, s.nu, s.nl = z, a, hw, up, lo, nu, nl
+	s.beyondE, s.beyondC, s.wasE, s.wasC = beyondE, beyondC, wasE, wasC
+	return i
 }
