@@ -299,8 +299,8 @@ func (sc *ctlScan) masks(base int) ctlMasks {
 
 // quiet tells whether nothing can fire or end in the word of masks m
 // (p: the word before), the state st being the one before the word. It
-// may answer false where nothing happens (the word is then run through
-// exactly), never true where something does.
+// may answer false where nothing happens (events then finds nothing),
+// never true where something does.
 func (sc *ctlScan) quiet(st *ctlState, m, p *ctlMasks) bool {
 	if m.oL != 0 {
 		return false
