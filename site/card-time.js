@@ -52,7 +52,9 @@ function timeCard(rep) {
   // every signal with its rows
   if (s.signals && s.signals.length) {
     kids.push(el("details", { open: s.signals.length <= 5 ? "" : null, class: "signals" },
-      el("summary", { text: s.signals.length + (s.signals.length === 1 ? " signal" : " signals") + (s.signalsCut ? " (first ones listed)" : "") }),
+      el("summary", { text: s.signalsCut
+        ? s.signals.length + " of " + (s.checks || []).reduce((t, c) => t + c.count, 0) + " signals listed, check by check (the checks below give every count; the verdict names the earliest)"
+        : s.signals.length + (s.signals.length === 1 ? " signal" : " signals") }),
       table(["Check", "Chart", "Where", "Rows or subgroups"], s.signals.map((g) => [
         g.text.split(": ")[0], g.chart, g.text.split(": ").slice(1).join(": ") || g.text,
         el("span", { "data-code": g.code, text: (g.rows || g.subgroups || []).join(", ") + (g.points > (g.rows || g.subgroups || []).length ? " \u2026" : "") })]), "figs signals-t")));

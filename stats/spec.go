@@ -281,6 +281,9 @@ func buildSpec(w words, in specInput, opts Options) (*Spec, []Note) {
 	if ws := in.within; ws != nil && ws.err == nil {
 		sp.Sigma.Within = &SpecSigmaFigure{Value: ws.est.Sigma, Method: ws.method, DF: ws.est.DF, Count: ws.est.Count}
 		sigW, dfW = ws.est.Sigma, ws.est.DF
+		if ws.singles {
+			notes = append(notes, Note{Field: "spec.sigma.within", Text: w.withinSingles()})
+		}
 	} else if ws != nil {
 		notes = append(notes, Note{Field: "spec.sigma.within", Text: w.noWithin(ws.err)})
 	}

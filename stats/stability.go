@@ -64,12 +64,15 @@ type Stability struct {
 	// chart, marked, and set no limits.
 	LeftOut []Reading `json:"leftOut,omitempty"`
 
-	Chart   *ControlChart `json:"chart,omitempty"`
-	Checks  []CheckInfo   `json:"checks"`
-	Signals []SignalInfo  `json:"signals"`
-	// SignalsListed is false when more signals were found than listed
-	// (maxSignalsListed); Checks hold the full counts.
-	SignalsCut bool `json:"signalsCut,omitempty"`
+	Chart  *ControlChart `json:"chart,omitempty"`
+	Checks []CheckInfo   `json:"checks"`
+	// Signals lists at most maxSignalsListed (200) signals, check by
+	// check in the order of Checks, each check's in time order;
+	// SignalsCut is true when more were found: Checks hold the full
+	// counts, and the verdict and Reasons name the earliest signal of
+	// all, listed or not.
+	Signals    []SignalInfo `json:"signals"`
+	SignalsCut bool         `json:"signalsCut,omitempty"`
 
 	EWMA   *EWMAInfo   `json:"ewma,omitempty"`
 	CUSUM  *CUSUMInfo  `json:"cusum,omitempty"`
@@ -478,9 +481,10 @@ func buildStability(w words, cv *colView, ws *withinSigma, smp *sample, opts Opt
 	var notes []Note
 	st.Order = orderInfo(w, cv)
 	sub := cv.subgroup
-	if sub != nil && len(ws.groups) > 0 && allSingles(ws.groups) {
+	if sub != nil && ws.singles {
+		// every subgroup holds one reading: ws is already the individuals'
+		// estimate (within.go), shared with the spec section
 		notes = append(notes, Note{Field: "stability.chart", Text: w.stabAllSingles()})
-		ws = estimateWithin(cv, nil, "")
 		sub = nil
 	}
 	ranges, _ := rowRanges(opts.Baseline)
@@ -522,13 +526,13 @@ func buildStability(w words, cv *colView, ws *withinSigma, smp *sample, opts Opt
 		err = b.subgroups(settings)
 	}
 	if err != nil {
+		// no drift tests either (their notes are the only ones so far)
 		st.Judged = false
-		st.Chart = nil
+		st.Chart, st.Drift, st.Change = nil, nil, nil
 		st.Verdict = w.stabNoSpread(err.Error())
 		st.Reasons = append(st.Reasons, Reason{Code: "no-spread", Text: st.Verdict})
-		return st, append(notes, b.notes...)
+		return st, notes
 	}
-	b.drift()
 	b.finishChart()
 	b.verdict()
 	return st, append(notes, b.notes...)
@@ -563,38 +567,131 @@ type stabBuild struct {
 	// subgroups: the spread (range or SD) of each, and its marks
 	gSpread     []float64
 	gLeft, gOut []bool
-	signals     []stabSig
-	keep        []int32 // plotted positions drawn (ascending); nil: all
-	extra       []int32 // positions of EWMA and CUSUM alarms drawn too
-	flagged     int     // points of signals chosen for drawing
+	// sigs holds the signals by code (sigCodes), each list in the order
+	// found; pts the points of the windowed checks' signals
+	sigs      [len(sigCodes)]sigList
+	pts       []int32
+	keep      []int32 // plotted positions drawn (ascending); nil: all
+	extra     []int32 // positions of EWMA and CUSUM alarms drawn too
+	blockKeep []int32 // the lowest and highest of thin's blocks, when found early
+	flagged   int     // points of signals chosen for drawing
+	firsts    map[string]firstSig
 }
 
-// stabSig is one signal while the section is built: the judged points
-// First..Last, or the listed Points.
+// stabSig is one signal while the section is built, kept small (a long
+// in-control series gives tens of thousands by chance): the judged points
+// first..last, or for a windowed check the np points b.pts[off:off+np].
 type stabSig struct {
-	code, chart string
-	side        int
-	first, last int
-	points      []int
+	first, last int32
+	off, np     int32
+	side        int8
+	code        uint8 // index in sigCodes
 }
 
-func (g stabSig) count() int {
-	if g.points != nil {
-		return len(g.points)
+// sigList holds signals in chunks of fixed size: no copy, and little
+// unused room, as the list grows.
+type sigList struct {
+	chunks [][]stabSig
+	n      int
+}
+
+const sigChunk = 1024
+
+func (l *sigList) add(g stabSig) {
+	if k := len(l.chunks); k == 0 || len(l.chunks[k-1]) == sigChunk {
+		l.chunks = append(l.chunks, make([]stabSig, 0, sigChunk))
 	}
-	return g.last - g.first + 1
+	k := len(l.chunks) - 1
+	l.chunks[k] = append(l.chunks[k], g)
+	l.n++
+}
+
+// sigCodes are the signal codes in the order signals are listed, drawn
+// and counted: the checks of the values chart in the method's order, the
+// spread chart's, then the EWMA's and the CUSUM's.
+var sigCodes = [...]string{method.SignalBeyondLimits, method.SignalTwoOfThree, method.SignalFourOfFive,
+	method.SignalRunSameSide, method.SignalTrend, method.SignalAlternating, method.SignalHuggingCentre,
+	method.SignalAvoidCentre, SignalSpreadBeyond, SignalEWMA, SignalCUSUM}
+
+const (
+	sigSpread = 8
+	sigEWMA   = 9
+	sigCUSUM  = 10
+)
+
+func sigCode(code string) uint8 {
+	for k, c := range sigCodes {
+		if c == code {
+			return uint8(k)
+		}
+	}
+	return 0
+}
+
+// chart names the chart a signal belongs to.
+func (g stabSig) chart() string {
+	switch g.code {
+	case sigSpread:
+		return "spread"
+	case sigEWMA:
+		return "ewma"
+	case sigCUSUM:
+		return "cusum"
+	}
+	return "values"
+}
+
+func (b *stabBuild) count(g stabSig) int {
+	if g.np > 0 {
+		return int(g.np)
+	}
+	return int(g.last - g.first + 1)
 }
 
 // each calls f for the first up to limit points of the signal.
-func (g stabSig) each(limit int, f func(j int)) {
-	if g.points != nil {
-		for _, j := range g.points[:min(limit, len(g.points))] {
-			f(j)
+func (b *stabBuild) each(g stabSig, limit int, f func(j int)) {
+	if g.np > 0 {
+		for _, j := range b.pts[g.off : g.off+min(g.np, int32(limit))] {
+			f(int(j))
 		}
 		return
 	}
-	for j := g.first; j <= g.last && j-g.first < limit; j++ {
+	for j := int(g.first); j <= int(g.last) && j-int(g.first) < limit; j++ {
 		f(j)
+	}
+}
+
+// addSignal keeps one signal of a check (the method's Points are copied).
+func (b *stabBuild) addSignal(code uint8, side, first, last int, points []int) {
+	g := stabSig{first: int32(first), last: int32(last), side: int8(side), code: code}
+	if len(points) > 1 || (len(points) == 1 && (first != last || points[0] != first)) {
+		g.off, g.np = int32(len(b.pts)), int32(len(points))
+		for _, j := range points {
+			b.pts = append(b.pts, int32(j))
+		}
+	}
+	b.sigs[code].add(g)
+}
+
+// scanSignals runs the switched-on checks of the values chart in one pass
+// (method.ScanSignals) and keeps their signals.
+func (b *stabBuild) scanSignals(x []float64, centre float64, sigma []float64, settings method.SignalSettings) error {
+	return method.ScanSignals(x, centre, sigma, settings, func(s method.Signal) {
+		b.addSignal(sigCode(s.Rule), s.Side, s.First, s.Last, s.Points)
+	})
+}
+
+// eachSignal calls f for every signal in listing order until f returns
+// false.
+func (b *stabBuild) eachSignal(f func(g stabSig) bool) {
+	for _, l := range b.sigs {
+		for _, c := range l.chunks {
+			for _, g := range c {
+				if !f(g) {
+					return
+				}
+			}
+		}
 	}
 }
 
@@ -748,30 +845,23 @@ func (b *stabBuild) individuals(settings method.SignalSettings) error {
 	lim := CtlLimits{From: 1, To: b.nPlot, Lower: centre - 3*sigma, Upper: centre + 3*sigma,
 		SpreadCentre: c2.SmallD2 * sigma, SpreadLower: math.Max(0, c2.SmallD2-3*c2.SmallD3) * sigma, SpreadUpper: (c2.SmallD2 + 3*c2.SmallD3) * sigma}
 	st.Chart.Limits = []CtlLimits{lim}
-	sigs, err := method.Signals(ws.series, centre, []float64{sigma}, settings)
-	if err != nil {
+	// the drift tests before the checks: their working memory (block
+	// sums, ranks) is freed before the signals are kept
+	b.drift()
+	if err := b.scanSignals(ws.series, centre, []float64{sigma}, settings); err != nil {
 		return err
 	}
-	b.addMethodSignals(sigs)
 	// moving ranges between consecutive used readings, judged by their
 	// upper limit (a moving range is made by two readings)
-	if b.on[method.SignalBeyondLimits] {
-		for j := 1; j < n; j++ {
-			if math.Abs(ws.series[j]-ws.series[j-1]) > lim.SpreadUpper*(1-1e-12) && b.diff(j, j-1) > lim.SpreadUpper {
-				b.signals = append(b.signals, stabSig{code: SignalSpreadBeyond, chart: "spread", first: j - 1, last: j})
-			}
-		}
+	// (in the same pass, on a long series without readings left out, the
+	// lowest and highest of each block thin keeps)
+	spreadOn := b.on[method.SignalBeyondLimits]
+	if spreadOn || (b.nPlot > maxChartPoints && len(b.leftPos) == 0) {
+		b.spreadAndBlocks(ws.series, lim.SpreadUpper, spreadOn)
 	}
 	b.baselineInfo(base, n)
 	b.ewmaCusum(ws.series, centre, sigma, "data")
 	return nil
-}
-
-// addMethodSignals keeps the method's signals of the values chart.
-func (b *stabBuild) addMethodSignals(sigs []method.Signal) {
-	for _, s := range sigs {
-		b.signals = append(b.signals, stabSig{code: s.Rule, chart: "values", side: s.Side, first: s.First, last: s.Last, points: s.Points})
-	}
 }
 
 // subgroups builds the mean chart with its range or SD chart.
@@ -894,13 +984,12 @@ func (b *stabBuild) subgroups(settings method.SignalSettings) error {
 		}
 	}
 	b.judged = means
-	sigs, err := method.Signals(means, centre, sig, settings)
-	if err != nil {
+	b.drift()
+	if err := b.scanSignals(means, centre, sig, settings); err != nil {
 		return err
 	}
-	b.addMethodSignals(sigs)
 	for _, g := range spreadOut {
-		b.signals = append(b.signals, stabSig{code: SignalSpreadBeyond, chart: "spread", first: g, last: g})
+		b.addSignal(sigSpread, 0, g, g, nil)
 	}
 	b.baselineInfo(base, k)
 	if equal {
@@ -988,13 +1077,19 @@ func (b *stabBuild) ewmaCusum(x []float64, centre, sigma float64, scale string) 
 			}
 		}
 	}
-	var ewma []EWMAPt
+	// room for the points drawn and some alarms' points
+	ewma := make([]EWMAPt, 0, len(keepJ)+64)
 	lims := method.EWMAChart{Lambda: lam, L: L, Centre: centre, Sigma: sigma}
 	sc := newAlarmScan(b, b.on[SignalEWMA], SignalEWMA, "ewma", keepJ, len(x), func(v alarmPt) {
 		lo, hi := lims.Limits(v.j)
 		ewma = append(ewma, EWMAPt{I: b.posOf(v.j) + 1, Z: v.a, Lo: lo, Hi: hi})
 	})
-	err := method.EWMAScan(x, centre, sigma, lam, L, func(j int, z float64, out bool) {
+	cusum := make([]CUSUMPt, 0, len(keepJ)+64)
+	decision := h * sigma
+	scC := newAlarmScan(b, b.on[SignalCUSUM], SignalCUSUM, "cusum", keepJ, len(x), func(v alarmPt) {
+		cusum = append(cusum, CUSUMPt{I: b.posOf(v.j) + 1, Up: v.a, Down: v.b})
+	})
+	visitE := func(j int, z float64, out bool) {
 		if out {
 			sc.beyond++
 		}
@@ -1005,31 +1100,38 @@ func (b *stabBuild) ewmaCusum(x []float64, centre, sigma float64, scale string) 
 			}
 			sc.step(alarmPt{j: j, a: z}, out, side, j)
 		}
-	})
-	if err == nil {
-		b.st.EWMA = &EWMAInfo{Lambda: lam, L: L, Scale: scale, Centre: centre, Sigma: sigma, Beyond: sc.beyond, Points: sortedPts(ewma, func(p EWMAPt) int { return p.I }),
-			ARL0: cachedARL("ewma", lam, L, 0), ARL1: cachedARL("ewma", lam, L, 1)}
 	}
-	var cusum []CUSUMPt
-	decision := h * sigma
-	sc = newAlarmScan(b, b.on[SignalCUSUM], SignalCUSUM, "cusum", keepJ, len(x), func(v alarmPt) {
-		cusum = append(cusum, CUSUMPt{I: b.posOf(v.j) + 1, Up: v.a, Down: v.b})
-	})
-	err = method.CUSUMScan(x, centre, sigma, k, h, func(j int, up, lo float64, nu, nl int32, out bool) {
+	visitC := func(j int, up, lo float64, nu, nl int32, out bool) {
 		if out {
-			sc.beyond++
+			scC.beyond++
 		}
-		if out || j == sc.nextJ || sc.start >= 0 {
+		if out || j == scC.nextJ || scC.start >= 0 {
 			// the shift began about the point after the sum was last zero
 			side, start := 1, j-int(nu)+1
 			if up <= decision {
 				side, start = -1, j-int(nl)+1
 			}
-			sc.step(alarmPt{j: j, a: up, b: lo}, out, side, max(0, start))
+			scC.step(alarmPt{j: j, a: up, b: lo}, out, side, max(0, start))
 		}
-	})
-	if err == nil {
-		b.st.CUSUM = &CUSUMInfo{K: k, H: h, Scale: scale, Centre: centre, Sigma: sigma, Decision: decision, Beyond: sc.beyond, Points: sortedPts(cusum, func(p CUSUMPt) int { return p.I }),
+	}
+	var errE, errC error
+	if b.keep != nil {
+		// thinned: one pass for both, visiting only the points drawn, the
+		// alarms and the points ending them; the CUSUM's alarms join the
+		// drawing after the EWMA's, as when each had its own pass
+		scC.deferred = true
+		errE, errC = method.EWMACUSUMScanAt(x, centre, sigma, lam, L, k, h, keepJ, visitE, visitC)
+		scC.replay()
+	} else {
+		errE = method.EWMAScan(x, centre, sigma, lam, L, visitE)
+		errC = method.CUSUMScan(x, centre, sigma, k, h, visitC)
+	}
+	if errE == nil {
+		b.st.EWMA = &EWMAInfo{Lambda: lam, L: L, Scale: scale, Centre: centre, Sigma: sigma, Beyond: sc.beyond, Points: sortedPts(ewma, func(p EWMAPt) int { return p.I }),
+			ARL0: cachedARL("ewma", lam, L, 0), ARL1: cachedARL("ewma", lam, L, 1)}
+	}
+	if errC == nil {
+		b.st.CUSUM = &CUSUMInfo{K: k, H: h, Scale: scale, Centre: centre, Sigma: sigma, Decision: decision, Beyond: scC.beyond, Points: sortedPts(cusum, func(p CUSUMPt) int { return p.I }),
 			ARL0: cachedARL("cusum", k, h, 0), ARL1: cachedARL("cusum", k, h, 1)}
 	}
 }
@@ -1057,6 +1159,11 @@ type alarmScan struct {
 	last        alarmPt
 	beyond      int
 	out         func(v alarmPt)
+	// deferred: the alarms' points wait in pending (at most
+	// maxChartPoints of them) and join the drawing at replay
+	deferred bool
+	pending  [][]alarmPt
+	npending int
 }
 
 func newAlarmScan(b *stabBuild, on bool, code, chart string, keepJ []int, n int, out func(v alarmPt)) *alarmScan {
@@ -1100,20 +1207,45 @@ func (sc *alarmScan) step(v alarmPt, beyond bool, side, start int) {
 		lastJ = j
 	}
 	if sc.on {
-		b.signals = append(b.signals, stabSig{code: sc.code, chart: sc.chart, side: sc.side, first: sc.start, last: lastJ})
+		b.addSignal(sigCode(sc.code), sc.side, sc.start, lastJ, nil)
 	}
-	if b.keep != nil && b.flagged < maxChartPoints {
+	if b.keep != nil {
 		pts := sc.buf
 		if lastJ-sc.start+1 > maxSignalRows {
 			pts = []alarmPt{sc.buf[0], sc.last}
 		}
-		for _, p := range pts {
-			sc.out(p)
-			b.extra = append(b.extra, int32(b.posOf(p.j)))
+		if !sc.deferred {
+			sc.draw(pts)
+		} else if sc.npending < maxChartPoints {
+			// beyond that many points none could join (the budget is
+			// spent by then)
+			sc.pending = append(sc.pending, slices.Clone(pts))
+			sc.npending += len(pts)
 		}
-		b.flagged += len(pts)
 	}
 	sc.start, sc.buf = -1, sc.buf[:0]
+}
+
+// draw adds the points of one run of alarms to the drawing while the
+// budget for signals' points lasts.
+func (sc *alarmScan) draw(pts []alarmPt) {
+	b := sc.b
+	if b.flagged >= maxChartPoints {
+		return
+	}
+	for _, p := range pts {
+		sc.out(p)
+		b.extra = append(b.extra, int32(b.posOf(p.j)))
+	}
+	b.flagged += len(pts)
+}
+
+// replay draws the deferred runs of alarms in order.
+func (sc *alarmScan) replay() {
+	for _, pts := range sc.pending {
+		sc.draw(pts)
+	}
+	sc.pending = nil
 }
 
 // sortedPts orders points by position, one per position.
@@ -1336,29 +1468,18 @@ func (b *stabBuild) finishChart() {
 	st := b.st
 	counts := map[string]int{}
 	total := 0
-	for _, g := range b.signals {
-		counts[g.code]++
-		total++
+	for code, l := range b.sigs {
+		counts[sigCodes[code]] = l.n
+		total += l.n
+	}
+	b.eachSignal(func(g stabSig) bool {
 		if len(st.Signals) >= maxSignalsListed {
 			st.SignalsCut = true
-			continue
+			return false
 		}
-		si := SignalInfo{Code: g.code, Chart: g.chart, Side: g.side, Points: g.count()}
-		first, last := g.first, g.last
-		if g.points != nil {
-			first, last = g.points[0], g.points[len(g.points)-1]
-		}
-		si.First, si.Last = b.posOf(first)+1, b.posOf(last)+1
-		g.each(maxSignalRows, func(j int) {
-			if b.subgroup {
-				si.Subgroups = append(si.Subgroups, b.ws.labels[j])
-			} else {
-				si.Rows = append(si.Rows, int(b.cv.rows[b.ws.cell(j)]))
-			}
-		})
-		si.Text = b.w.stabSignal(si, b.subgroup)
-		st.Signals = append(st.Signals, si)
-	}
+		st.Signals = append(st.Signals, b.signalInfo(g))
+		return true
+	})
 	for _, c := range checkOrder {
 		cnt := counts[c]
 		if c == method.SignalBeyondLimits {
@@ -1382,6 +1503,25 @@ func (b *stabBuild) finishChart() {
 	b.drawPoints()
 }
 
+// signalInfo lists one signal with its rows or subgroups.
+func (b *stabBuild) signalInfo(g stabSig) SignalInfo {
+	si := SignalInfo{Code: sigCodes[g.code], Chart: g.chart(), Side: int(g.side), Points: b.count(g)}
+	first, last := int(g.first), int(g.last)
+	if g.np > 0 {
+		first, last = int(b.pts[g.off]), int(b.pts[g.off+g.np-1])
+	}
+	si.First, si.Last = b.posOf(first)+1, b.posOf(last)+1
+	b.each(g, maxSignalRows, func(j int) {
+		if b.subgroup {
+			si.Subgroups = append(si.Subgroups, b.ws.labels[j])
+		} else {
+			si.Rows = append(si.Rows, int(b.cv.rows[b.ws.cell(j)]))
+		}
+	})
+	si.Text = b.w.stabSignal(si, b.subgroup)
+	return si
+}
+
 // y is the plotted value at position p.
 func (b *stabBuild) y(p int) float64 {
 	j, left := b.atPos(p)
@@ -1402,33 +1542,45 @@ func (b *stabBuild) thin(limit int) {
 	}
 	keep := make([]int32, 0, 3*limit)
 	blocks := limit / 2
+	if b.blockKeep != nil && limit == maxChartPoints {
+		keep = append(keep, b.blockKeep...)
+		blocks = 0
+	}
 	for k := range blocks {
 		a, e := k*n/blocks, (k+1)*n/blocks
-		lo, hi := a, a
-		ylo, yhi := b.y(a), b.y(a)
-		for p := a + 1; p < e; p++ {
-			v := b.y(p)
-			if v < ylo {
-				lo, ylo = p, v
-			}
-			if v > yhi {
-				hi, yhi = p, v
+		var lo, hi int
+		if b.subgroup || len(b.leftPos) == 0 {
+			// every plotted point is judged: the values directly
+			lo, hi = blockMinMax(b.judged[a:e])
+			lo, hi = lo+a, hi+a
+		} else {
+			lo, hi = a, a
+			ylo, yhi := b.y(a), b.y(a)
+			for p := a + 1; p < e; p++ {
+				v := b.y(p)
+				if v < ylo {
+					lo, ylo = p, v
+				}
+				if v > yhi {
+					hi, yhi = p, v
+				}
 			}
 		}
 		keep = append(keep, int32(lo), int32(hi))
 	}
-	for _, g := range b.signals {
+	b.eachSignal(func(g stabSig) bool {
 		if b.flagged >= limit {
-			break
+			return false
 		}
-		if g.count() <= maxSignalRows {
-			g.each(maxSignalRows, func(j int) { keep = append(keep, int32(b.posOf(j))) })
-			b.flagged += g.count()
+		if c := b.count(g); c <= maxSignalRows {
+			b.each(g, maxSignalRows, func(j int) { keep = append(keep, int32(b.posOf(j))) })
+			b.flagged += c
 		} else {
-			keep = append(keep, int32(b.posOf(g.first)), int32(b.posOf(g.last)))
+			keep = append(keep, int32(b.posOf(int(g.first))), int32(b.posOf(int(g.last))))
 			b.flagged += 2
 		}
-	}
+		return true
+	})
 	keep = append(keep, b.leftPos[:min(limit, len(b.leftPos))]...)
 	if b.subgroup && b.gLeft != nil {
 		left := 0
@@ -1443,6 +1595,55 @@ func (b *stabBuild) thin(limit int) {
 	b.keep = slices.Compact(keep)
 }
 
+// spreadAndBlocks judges the moving ranges of x (individuals, judged by
+// their upper limit up when on) and, when the chart will be thinned and
+// every plotted point is judged, keeps the positions of the lowest and
+// highest of each of thin's blocks (b.blockKeep), in one pass.
+func (b *stabBuild) spreadAndBlocks(x []float64, up float64, on bool) {
+	n := len(x)
+	blocks := 0
+	if n > maxChartPoints && len(b.leftPos) == 0 {
+		blocks = maxChartPoints / 2
+		b.blockKeep = make([]int32, 0, 2*blocks)
+	}
+	cut := up * (1 - 1e-12) // a cheap test before the exact one
+	judge := func(lo, hi int) {
+		if !on {
+			return
+		}
+		for j := max(lo, 1); j < hi; j++ {
+			if math.Abs(x[j]-x[j-1]) > cut && b.diff(j, j-1) > up {
+				b.addSignal(sigSpread, 0, j-1, j, nil)
+			}
+		}
+	}
+	if blocks == 0 {
+		judge(0, n)
+		return
+	}
+	for k := range blocks {
+		a, e := k*n/blocks, (k+1)*n/blocks
+		judge(a, e)
+		lo, hi := blockMinMax(x[a:e])
+		b.blockKeep = append(b.blockKeep, int32(lo+a), int32(hi+a))
+	}
+}
+
+// blockMinMax gives the positions of the first lowest and the first
+// highest of ys (not empty).
+func blockMinMax(ys []float64) (lo, hi int) {
+	ylo, yhi := ys[0], ys[0]
+	for p, v := range ys {
+		if v < ylo {
+			lo, ylo = p, v
+		}
+		if v > yhi {
+			hi, yhi = p, v
+		}
+	}
+	return lo, hi
+}
+
 // drawPoints fills the chart's points (and the EWMA and CUSUM values) at
 // the positions drawn, with the codes of the signals each is part of.
 func (b *stabBuild) drawPoints() {
@@ -1455,46 +1656,55 @@ func (b *stabBuild) drawPoints() {
 		_, ok := slices.BinarySearch(b.keep, int32(p))
 		return ok
 	}
-	// flags by drawn position
-	flags := map[int][]string{}
-	mark := func(p int, code string) {
-		if !slices.Contains(flags[p], code) {
-			flags[p] = append(flags[p], code)
-		}
-	}
-	for _, g := range b.signals {
-		if g.points != nil {
-			for _, j := range g.points {
-				if p := b.posOf(j); kept(p) {
-					mark(p, g.code)
-				}
-			}
-			continue
-		}
-		lo, hi := b.posOf(g.first), b.posOf(g.last)
-		if b.keep == nil {
-			for p := lo; p <= hi; p++ {
-				if j, _ := b.atPos(p); j >= 0 {
-					mark(p, g.code)
-				}
-			}
-			continue
-		}
-		i, _ := slices.BinarySearch(b.keep, int32(lo))
-		for ; i < len(b.keep) && int(b.keep[i]) <= hi; i++ {
-			if j, _ := b.atPos(int(b.keep[i])); j >= 0 {
-				mark(int(b.keep[i]), g.code)
-			}
-		}
-	}
+	// flags by drawn position: index p, or p's index in b.keep
 	count := b.nPlot
 	if b.keep != nil {
 		count = len(b.keep)
 	}
+	flags := make([][]string, count)
+	slot := func(p int) int {
+		if b.keep == nil {
+			return p
+		}
+		k, _ := slices.BinarySearch(b.keep, int32(p))
+		return k
+	}
+	mark := func(p int, code string) {
+		if k := slot(p); !slices.Contains(flags[k], code) {
+			flags[k] = append(flags[k], code)
+		}
+	}
+	b.eachSignal(func(g stabSig) bool {
+		code := sigCodes[g.code]
+		if g.np > 0 {
+			for _, j := range b.pts[g.off : g.off+g.np] {
+				if p := b.posOf(int(j)); kept(p) {
+					mark(p, code)
+				}
+			}
+			return true
+		}
+		lo, hi := b.posOf(int(g.first)), b.posOf(int(g.last))
+		if b.keep == nil {
+			for p := lo; p <= hi; p++ {
+				if j, _ := b.atPos(p); j >= 0 {
+					mark(p, code)
+				}
+			}
+			return true
+		}
+		i, _ := slices.BinarySearch(b.keep, int32(lo))
+		for ; i < len(b.keep) && int(b.keep[i]) <= hi; i++ {
+			if j, _ := b.atPos(int(b.keep[i])); j >= 0 {
+				mark(int(b.keep[i]), code)
+			}
+		}
+		return true
+	})
 	ch.Points = make([]CtlPoint, 0, count)
 	point := func(p int) {
 		j, left := b.atPos(p)
-		cp := CtlPoint{I: p + 1, Flags: flags[p]}
+		cp := CtlPoint{I: p + 1, Flags: flags[slot(p)]}
 		var cell int32
 		switch {
 		case left >= 0:
@@ -1561,14 +1771,14 @@ func (b *stabBuild) verdict() {
 	st.Stable = chartN == 0 && ewmaN == 0 && cusumN == 0 && !trend && !change
 	w, dec, unit := b.w, b.dataDecimals(), b.cv.unit
 	if chartN > 0 {
-		first := firstSignal(st.Signals, "values", "spread")
+		first := b.firstSignal("values", "spread")
 		st.Reasons = append(st.Reasons, Reason{Code: "signals", Text: w.stabReasonSignals(chartN, first), Vals: map[string]float64{"count": float64(chartN)}})
 	}
 	if ewmaN > 0 {
-		st.Reasons = append(st.Reasons, Reason{Code: "ewma", Text: w.stabReasonEWMA(ewmaN, firstSignal(st.Signals, "ewma")), Vals: map[string]float64{"count": float64(ewmaN)}})
+		st.Reasons = append(st.Reasons, Reason{Code: "ewma", Text: w.stabReasonEWMA(ewmaN, b.firstSignal("ewma")), Vals: map[string]float64{"count": float64(ewmaN)}})
 	}
 	if cusumN > 0 {
-		st.Reasons = append(st.Reasons, Reason{Code: "cusum", Text: w.stabReasonCUSUM(cusumN, firstSignal(st.Signals, "cusum")), Vals: map[string]float64{"count": float64(cusumN)}})
+		st.Reasons = append(st.Reasons, Reason{Code: "cusum", Text: w.stabReasonCUSUM(cusumN, b.firstSignal("cusum")), Vals: map[string]float64{"count": float64(cusumN)}})
 	}
 	if trend {
 		t := st.Drift.Trend
@@ -1599,7 +1809,7 @@ func (b *stabBuild) verdict() {
 	case trend && st.Drift.Slope != nil:
 		lead = w.stabLeadDrift(st.Drift.Slope.Slope, dec, unit)
 	default:
-		lead = w.stabLeadSignals(nSig, firstSignal(st.Signals, "values", "spread", "ewma", "cusum"))
+		lead = w.stabLeadSignals(nSig, b.firstSignal("values", "spread", "ewma", "cusum"))
 	}
 	if st.Baseline != nil {
 		lead = w.stabLeadBaseline(lead, st.Baseline.Text)
@@ -1616,14 +1826,46 @@ func (b *stabBuild) dataDecimals() int {
 	return 3
 }
 
-func firstSignal(list []SignalInfo, charts ...string) *SignalInfo {
-	var best *SignalInfo
-	for i := range list {
-		if slices.Contains(charts, list[i].Chart) && (best == nil || list[i].First < best.First) {
-			best = &list[i]
+// firstSignal is the earliest signal on the charts named (the first in
+// listing order among those starting at the same point), from every
+// signal found, listed or not; nil when there is none.
+func (b *stabBuild) firstSignal(charts ...string) *SignalInfo {
+	if b.firsts == nil {
+		// once: the earliest signal of each chart, with its place in the
+		// listing order for ties
+		b.firsts = map[string]firstSig{}
+		seq := 0
+		b.eachSignal(func(g stabSig) bool {
+			start := g.first
+			if g.np > 0 {
+				start = b.pts[g.off]
+			}
+			if f, ok := b.firsts[g.chart()]; !ok || start < f.start {
+				b.firsts[g.chart()] = firstSig{g: g, start: start, seq: seq}
+			}
+			seq++
+			return true
+		})
+	}
+	var best firstSig
+	found := false
+	for _, c := range charts {
+		if f, ok := b.firsts[c]; ok && (!found || f.start < best.start || f.start == best.start && f.seq < best.seq) {
+			best, found = f, true
 		}
 	}
-	return best
+	if !found {
+		return nil
+	}
+	si := b.signalInfo(best.g)
+	return &si
+}
+
+// firstSig is the earliest signal of a chart (firstSignal).
+type firstSig struct {
+	g     stabSig
+	start int32
+	seq   int
 }
 
 // roundedConstants are the chart constants rounded to 12 significant

@@ -488,3 +488,89 @@ func cusumIs(p []CUSUMPt) []int {
 	}
 	return out
 }
+
+// TestWithinAllSingles: with a subgroup column whose every subgroup holds
+// one reading, the spec and stability sections use the same within sigma
+// (within.go): the moving-range estimate of the readings as individuals,
+// the one an analysis without the subgroup column gives (that estimate is
+// checked against R in TestStabilityIndividualsAgainstR). Data
+// constructed: 40 readings typed to 0.01, one per lot label.
+func TestWithinAllSingles(t *testing.T) {
+	var withSub, plain strings.Builder
+	withSub.WriteString("Lot\tV\n")
+	plain.WriteString("V\n")
+	for i := 0; i < 40; i++ {
+		x := 5.1 + 0.01*float64((i*7)%11) - 0.02*float64(i%3)
+		fmt.Fprintf(&withSub, "L%02d\t%.2f\n", i, x)
+		fmt.Fprintf(&plain, "%.2f\n", x)
+	}
+	lsl, usl := 4.8, 5.4
+	for _, within := range []string{"", WithinPooledSD, WithinMeanRange, WithinMeanSD} {
+		rep, err := Analyze(Request{Text: withSub.String(), Value: "V", Subgroup: "Lot", Options: Options{LSL: &lsl, USL: &usl, WithinSigma: within}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		ref, err := Analyze(Request{Text: plain.String(), Value: "V", Options: Options{LSL: &lsl, USL: &usl}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		st, sp := rep.Stability, rep.Spec
+		if st == nil || st.Chart == nil || sp == nil || sp.Sigma.Within == nil {
+			t.Fatalf("%q: stability %+v, spec %+v", within, st, sp)
+		}
+		if st.Chart.Kind != "individuals" || st.Chart.SigmaMethod != WithinMovingRange || sp.Sigma.Within.Method != WithinMovingRange {
+			t.Errorf("%q: chart %s by %s, spec by %s", within, st.Chart.Kind, st.Chart.SigmaMethod, sp.Sigma.Within.Method)
+		}
+		want := ref.Spec.Sigma.Within.Value
+		if st.Chart.Sigma != want || sp.Sigma.Within.Value != want || ref.Stability.Chart.Sigma != want {
+			t.Errorf("%q: stability sigma %g, spec %g, individuals %g", within, st.Chart.Sigma, sp.Sigma.Within.Value, want)
+		}
+		noted := false
+		for _, n := range rep.Notes {
+			noted = noted || n.Field == "spec.sigma.within" && strings.Contains(n.Text, "one reading")
+		}
+		if !noted {
+			t.Errorf("%q: no note on the spec's within sigma", within)
+		}
+	}
+}
+
+// TestStabilityVerdictCut: with more signals than are listed, the list
+// runs check by check (every "beyond a limit" first) but the verdict and
+// the reasons name the earliest signal of all, here a steady climb over
+// the first six readings that the list leaves out. Data constructed: a
+// steady pattern typed to 0.01 about 10, rising over readings 1-6, with
+// 250 readings 0.5 high from reading 1000 on.
+func TestStabilityVerdictCut(t *testing.T) {
+	pattern := []int{0, 2, -1, 1, -2, 0, 1, -1}
+	var b strings.Builder
+	for i := 1; i <= 20000; i++ {
+		x := 10 + 0.01*float64(pattern[i%8])
+		if i <= 6 {
+			x = 9.96 + 0.01*float64(i)
+		}
+		if i >= 1000 && i%50 == 0 && i < 1000+250*50 {
+			x += 0.5
+		}
+		fmt.Fprintf(&b, "%.2f\n", x)
+	}
+	s := stab(t, Request{Text: b.String()})
+	if !s.SignalsCut || len(s.Signals) != maxSignalsListed {
+		t.Fatalf("cut %v, %d listed", s.SignalsCut, len(s.Signals))
+	}
+	for _, g := range s.Signals {
+		if g.Code == method.SignalTrend {
+			t.Fatalf("the climb is listed (%+v): the test needs it left out", g)
+		}
+	}
+	if !strings.Contains(s.Verdict, "readings 1-6") || !strings.Contains(s.Reasons[0].Text, "readings 1-6") {
+		t.Errorf("verdict %q, reason %q: want the climb over readings 1-6", s.Verdict, s.Reasons[0].Text)
+	}
+	total := 0
+	for _, c := range s.Checks {
+		total += c.Count
+	}
+	if !strings.HasPrefix(s.Verdict, fmt.Sprintf("Not stable: %d signals", total)) {
+		t.Errorf("verdict %q: want the full count %d", s.Verdict, total)
+	}
+}

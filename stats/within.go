@@ -18,7 +18,11 @@ import (
 //   - a subgroup column: the pooled SD / c4 ("pooled-sd", the estimator
 //     with the most degrees of freedom), or on request the average range
 //     / d2(n) ("mean-range") or the average SD / c4(n) ("mean-sd"), the
-//     weighted forms of ASTM E2587 for unequal sizes.
+//     weighted forms of ASTM E2587 for unequal sizes;
+//   - a subgroup column whose every subgroup holds one reading: no spread
+//     within subgroups exists, so the readings are individuals and the
+//     moving-range estimate is used whatever was asked (singles is set);
+//     the spec and stability sections then agree on it.
 //
 // Moving ranges are taken between consecutive used readings: a reading the
 // user left out, or a row without a value, is skipped (the part before and
@@ -49,6 +53,9 @@ type withinSigma struct {
 	labels []string
 	gcells [][]int32
 	err    error // why no estimate could be made (too few readings, constant data)
+	// singles: a subgroup column was given but every subgroup holds one
+	// reading, so the estimate is the individuals' (moving ranges)
+	singles bool
 }
 
 // checkWithin validates Options.WithinSigma against the request's columns.
@@ -146,6 +153,11 @@ func withinOf(series []float64, cells []int32, sub *ingest.Column, choice string
 		}
 		w.groups[g] = append(w.groups[g], w.series[k])
 		w.gcells[g] = append(w.gcells[g], c)
+	}
+	if len(w.groups) > 0 && allSingles(w.groups) {
+		iw := withinOf(series, cells, nil, "")
+		iw.singles = true
+		return iw
 	}
 	w.method = choice
 	if w.method == "" {

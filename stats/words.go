@@ -864,6 +864,12 @@ func (w words) specFailed(err error) string {
 	return "the spec section could not be computed: " + err.Error()
 }
 
+// withinSingles: a subgroup column was chosen but every subgroup holds one
+// reading (within.go).
+func (w words) withinSingles() string {
+	return "every subgroup holds one reading: the within-process sigma is estimated from the moving ranges of consecutive readings, as on the control chart"
+}
+
 func (w words) noWithin(err error) string {
 	return "no within-process sigma: " + err.Error() + "; the within-process indices (Cp, Cpk) are left out"
 }
@@ -1070,7 +1076,7 @@ func (w words) stabSenThinned(n, every, used int) string {
 }
 
 func (w words) stabSignalsCut(total, listed int) string {
-	return fmt.Sprintf("%d signals were found; the first %d are listed (the checks give the full counts)", total, listed)
+	return fmt.Sprintf("%d signals were found; %d are listed, check by check in the order of the checks (the checks give the full counts, and the verdict names the earliest signal of all)", total, listed)
 }
 
 // stabTestFailed: a drift test (named) could not be computed.

@@ -49,6 +49,17 @@ func CUSUM(x []float64, centre, sigma, k, h float64) (CUSUMChart, error) {
 // each has been above 0 in a row, and whether a sum exceeds H·σ, in order.
 // Memory O(1), for long series.
 func CUSUMScan(x []float64, centre, sigma, k, h float64, visit func(i int, up, lo float64, nu, nl int32, beyond bool)) error {
+	return cusumScan(x, centre, sigma, k, h, nil, true, visit)
+}
+
+// CUSUMScanAt is CUSUMScan visiting only some points, in order: those
+// listed in at (ascending), every point where a sum exceeds H·σ and the
+// point after each of them (where a run beyond ends).
+func CUSUMScanAt(x []float64, centre, sigma, k, h float64, at []int, visit func(i int, up, lo float64, nu, nl int32, beyond bool)) error {
+	return cusumScan(x, centre, sigma, k, h, at, false, visit)
+}
+
+func cusumScan(x []float64, centre, sigma, k, h float64, at []int, all bool, visit func(i int, up, lo float64, nu, nl int32, beyond bool)) error {
 	if err := ctlCheckKH(k, h); err != nil {
 		return err
 	}
@@ -59,20 +70,25 @@ func CUSUMScan(x []float64, centre, sigma, k, h float64, visit func(i int, up, l
 	var nu, nl int32
 	slack, decision := k*sigma, h*sigma
 	hi, low := centre+slack, centre-slack
+	next, ai := ctlNextAt(at, 0, all)
+	was := false
 	for i, v := range x {
 		up = max(0, v-hi+up) // the built-in max: no branch to mispredict
 		lo = max(0, low-v+lo)
-		if up > 0 {
-			nu++
-		} else {
-			nu = 0
+		// counts of points above 0 in a row, without branches
+		nu = (nu + 1) * int32(ctlU(up > 0))
+		nl = (nl + 1) * int32(ctlU(lo > 0))
+		beyond := up > decision || lo > decision
+		if beyond || was || i == next {
+			visit(i, up, lo, nu, nl, beyond)
+			if i == next {
+				next, ai = ctlNextAt(at, ai+1, all)
+				if all {
+					next = i + 1
+				}
+			}
 		}
-		if lo > 0 {
-			nl++
-		} else {
-			nl = 0
-		}
-		visit(i, up, lo, nu, nl, up > decision || lo > decision)
+		was = beyond
 	}
 	return nil
 }
@@ -144,4 +160,87 @@ func ctlCUSUMOneSided(k, h, shift float64) (float64, error) {
 		}
 	}
 	return ctlSolveARL(a, 0)
+}
+
+// EWMACUSUMScanAt runs EWMAScanAt (λ = lambda, L = l) and CUSUMScanAt (k,
+// h) over the same points in one pass, their two recursions side by side
+// (each waits on its own previous value, so together they take little
+// more time than one). visitE and visitC are called exactly as the two
+// scans would call them, in order of the points (at a point both visit,
+// visitE first). A scan whose settings are refused returns its error and
+// makes no visit; the other still runs.
+func EWMACUSUMScanAt(x []float64, centre, sigma, lambda, l, k, h float64, at []int,
+	visitE func(i int, z float64, beyond bool), visitC func(i int, up, lo float64, nu, nl int32, beyond bool)) (errE, errC error) {
+	if !(sigma >= 0) || math.IsInf(sigma, 0) || math.IsNaN(centre) || math.IsInf(centre, 0) {
+		err := fmt.Errorf("centre %g and sigma %g: they must be finite, sigma >= 0", centre, sigma)
+		return err, err
+	}
+	errE, errC = ctlCheckLambdaL(lambda, l), ctlCheckKH(k, h)
+	doE, doC := errE == nil, errC == nil
+	slack := k * sigma
+	st := ctlEC{z: centre, a: 1, lambda: lambda, q: (1 - lambda) * (1 - lambda), kk: lambda / (2 - lambda),
+		lsig: l * sigma, hi: centre + slack, low: centre - slack, decision: h * sigma, centre: centre}
+	next, ai := ctlNextAt(at, 0, false)
+	for i := 0; i < len(x); i++ {
+		// the points that need no visit pass in a loop without calls
+		if i = st.run(x, i, next); i == len(x) {
+			break
+		}
+		here := i == next
+		if doE && (st.beyondE || st.wasE || here) {
+			visitE(i, st.z, st.beyondE)
+		}
+		if doC && (st.beyondC || st.wasC || here) {
+			visitC(i, st.up, st.lo, st.nu, st.nl, st.beyondC)
+		}
+		if here {
+			next, ai = ctlNextAt(at, ai+1, false)
+		}
+		st.wasE, st.wasC = st.beyondE, st.beyondC
+	}
+	return errE, errC
+}
+
+// ctlEC is the state of EWMACUSUMScanAt after a point: the EWMA z with
+// its limit's half-width hw ((1−λ)^(2(i+1)) in a), the CUSUM sums and
+// counts, whether each is beyond, and whether it was at the point before.
+type ctlEC struct {
+	z, a, hw, up, lo             float64
+	nu, nl                       int32
+	beyondE, beyondC, wasE, wasC bool
+	lambda, q, kk, lsig          float64
+	hi, low, decision, centre    float64
+}
+
+// run advances the state from point from and stops at the first point to
+// visit (at next, beyond, or just after a point beyond), returning it
+// (len(x) when none is left).
+func (s *ctlEC) run(x []float64, from, next int) int {
+	z, a, hw, up, lo, nu, nl := s.z, s.a, s.hw, s.up, s.lo, s.nu, s.nl
+	wasE, wasC := s.wasE, s.wasC
+	lambda, q, kk, lsig, hi, low, decision, centre := s.lambda, s.q, s.kk, s.lsig, s.hi, s.low, s.decision, s.centre
+	i := from
+	beyondE, beyondC := false, false
+	for ; i < len(x); i++ {
+		v := x[i]
+		z = lambda*v + (1-lambda)*z
+		if 1-a != 1 { // once (1−λ)^(2(i+1)) is below the rounding of 1, hw stays
+			a *= q
+			hw = lsig * math.Sqrt(kk*(1-a))
+		}
+		d := z - centre
+		beyondE = d > hw || d < -hw
+		up = max(0, v-hi+up) // the built-in max: no branch to mispredict
+		lo = max(0, low-v+lo)
+		nu = (nu + 1) * int32(ctlU(up > 0))
+		nl = (nl + 1) * int32(ctlU(lo > 0))
+		beyondC = up > decision || lo > decision
+		if beyondE || wasE || beyondC || wasC || i == next {
+			break
+		}
+		wasE, wasC = beyondE, beyondC
+	}
+	s.z, s.a, s.hw, s.up, s.lo, s.nu, s.nl = z, a, hw, up, lo, nu, nl
+	s.beyondE, s.beyondC, s.wasE, s.wasC = beyondE, beyondC, wasE, wasC
+	return i
 }

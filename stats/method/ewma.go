@@ -66,6 +66,18 @@ func EWMA(x []float64, centre, sigma, lambda, l float64) (EWMAChart, error) {
 // gets each point's index, its average z and whether z lies beyond the
 // limits (EWMAChart.Limits), in order. Memory O(1), for long series.
 func EWMAScan(x []float64, centre, sigma, lambda, l float64, visit func(i int, z float64, beyond bool)) error {
+	return ewmaScan(x, centre, sigma, lambda, l, nil, true, visit)
+}
+
+// EWMAScanAt is EWMAScan visiting only some points, in order: those listed
+// in at (ascending), every point beyond the limits and the point after
+// each of them (where a run beyond ends). A long series costs one tight
+// pass and a call per point visited.
+func EWMAScanAt(x []float64, centre, sigma, lambda, l float64, at []int, visit func(i int, z float64, beyond bool)) error {
+	return ewmaScan(x, centre, sigma, lambda, l, at, false, visit)
+}
+
+func ewmaScan(x []float64, centre, sigma, lambda, l float64, at []int, all bool, visit func(i int, z float64, beyond bool)) error {
 	if err := ctlCheckLambdaL(lambda, l); err != nil {
 		return err
 	}
@@ -77,6 +89,8 @@ func EWMAScan(x []float64, centre, sigma, lambda, l float64, visit func(i int, z
 	q := (1 - lambda) * (1 - lambda)
 	k := lambda / (2 - lambda)
 	h := 0.0
+	next, ai := ctlNextAt(at, 0, all)
+	was := false // the point before was beyond
 	for i, v := range x {
 		z = lambda*v + (1-lambda)*z
 		if 1-a != 1 { // once (1−λ)^(2(i+1)) is below the rounding of 1, h stays
@@ -84,9 +98,31 @@ func EWMAScan(x []float64, centre, sigma, lambda, l float64, visit func(i int, z
 			h = l * sigma * math.Sqrt(k*(1-a))
 		}
 		d := z - centre
-		visit(i, z, d > h || d < -h)
+		beyond := d > h || d < -h
+		if beyond || was || i == next {
+			visit(i, z, beyond)
+			if i == next {
+				next, ai = ctlNextAt(at, ai+1, all)
+				if all {
+					next = i + 1
+				}
+			}
+		}
+		was = beyond
 	}
 	return nil
+}
+
+// ctlNextAt is the next point to visit from at[k:] (every point when all;
+// -1 when none is left) and its index in at.
+func ctlNextAt(at []int, k int, all bool) (int, int) {
+	if all {
+		return 0, 0
+	}
+	if k < len(at) {
+		return at[k], k
+	}
+	return -1, k
 }
 
 // ctlARLStates is the number of Markov chain states used for the average

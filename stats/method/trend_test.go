@@ -219,3 +219,20 @@ func cmpSign(d int64) int {
 	}
 	return 0
 }
+
+// TestSelectStat: the order statistics by selection equal those read from
+// a sorted copy (ties, few distinct values, fractional and clamped ranks).
+func TestSelectStat(t *testing.T) {
+	for seed := uint64(1); seed <= 30; seed++ {
+		x := ctlRandomSeries(seed, 1+int(seed*seed*7)%3000)
+		sorted := slices.Clone(x)
+		slices.Sort(sorted)
+		n := float64(len(x))
+		for _, k := range []float64{0, 1, 1.5, 2, n / 3, (n + 1) / 2, n/2 + 0.25, n - 1, n - 0.5, n, n + 2} {
+			s := slices.Clone(x)
+			if got, want := ctlSelectStat(s, k), ctlOrderStat(sorted, k); got != want {
+				t.Fatalf("n=%d k=%g: %g, want %g", len(x), k, got, want)
+			}
+		}
+	}
+}
