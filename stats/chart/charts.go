@@ -94,34 +94,54 @@ func pad(lo, hi, frac float64) (float64, float64) {
 	return lo - d, hi + d
 }
 
+// histFrame is what the histogram and the spec chart share: the report's
+// bins, the reference lines (limits, target), the x range covering both
+// (padded by 3 %), the number of values, the tallest bin and the bin width.
+type histFrame struct {
+	h       stats.Histogram
+	refs    []refLine
+	lo, hi  float64
+	n, maxc int
+	width   float64
+}
+
+// newHistFrame sets up the frame; false when the report has no usable bins.
+func newHistFrame(r *stats.Report, f Format) (histFrame, bool) {
+	h := r.Charts.Histogram
+	if len(h.Counts) == 0 || len(h.Edges) != len(h.Counts)+1 || !finite(h.Edges...) {
+		return histFrame{}, false
+	}
+	fr := histFrame{h: h, refs: refLines(r, f)}
+	vals := []float64{h.Edges[0], h.Edges[len(h.Edges)-1]}
+	for _, rl := range fr.refs {
+		vals = append(vals, rl.v)
+	}
+	lo, hi := span(vals...)
+	fr.lo, fr.hi = pad(lo, hi, 0.03)
+	for _, k := range h.Counts {
+		fr.n += k
+		fr.maxc = max(fr.maxc, k)
+	}
+	fr.width = (h.Edges[len(h.Edges)-1] - h.Edges[0]) / float64(len(h.Counts))
+	return fr, true
+}
+
 // Histogram draws the bins with the fitted normal curve (mean and SD of the
 // report) and the target and specification limits as labelled lines.
 func Histogram(r *stats.Report) string {
 	if r == nil || r.Charts == nil {
 		return ""
 	}
-	h := r.Charts.Histogram
-	if len(h.Counts) == 0 || len(h.Edges) != len(h.Counts)+1 || !finite(h.Edges...) {
+	f := FormatOf(r)
+	hf, ok := newHistFrame(r, f)
+	if !ok {
 		return ""
 	}
-	f := FormatOf(r)
-	refs := refLines(r, f)
-	vals := append([]float64{}, h.Edges[0], h.Edges[len(h.Edges)-1])
-	for _, rl := range refs {
-		vals = append(vals, rl.v)
-	}
-	lo, hi := span(vals...)
-	lo, hi = pad(lo, hi, 0.03)
-	n, maxc := 0, 0
-	for _, k := range h.Counts {
-		n += k
-		maxc = max(maxc, k)
-	}
+	h, refs, lo, hi, n, width := hf.h, hf.refs, hf.lo, hf.hi, hf.n, hf.width
 	// fitted normal curve, scaled to counts per bin
 	var mean, sd float64
 	fit := r.Centre != nil && r.Spread != nil && r.Spread.SD > 0 && finite(r.Centre.Mean, r.Spread.SD)
-	width := (h.Edges[len(h.Edges)-1] - h.Edges[0]) / float64(len(h.Counts))
-	peak := float64(maxc)
+	peak := float64(hf.maxc)
 	if fit {
 		mean, sd = r.Centre.Mean, r.Spread.SD
 		peak = math.Max(peak, float64(n)*width/(sd*math.Sqrt(2*math.Pi)))
