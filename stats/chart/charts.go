@@ -86,6 +86,17 @@ func span(vs ...float64) (lo, hi float64) {
 	return
 }
 
+// padded is span widened by frac of its width on each side (pad); false
+// when no value is finite.
+func padded(frac float64, vs ...float64) (lo, hi float64, ok bool) {
+	lo, hi = span(vs...)
+	if !finite(lo, hi) {
+		return 0, 0, false
+	}
+	lo, hi = pad(lo, hi, frac)
+	return lo, hi, true
+}
+
 func pad(lo, hi, frac float64) (float64, float64) {
 	d := (hi - lo) * frac
 	if d == 0 {
@@ -317,13 +328,11 @@ func ProbPlot(r *stats.Report) string {
 		zs = append(zs, bp.Z)
 		ys = append(ys, bp.Lo, bp.Hi)
 	}
-	zlo, zhi := span(zs...)
-	ylo, yhi := span(ys...)
-	if !finite(zlo, zhi, ylo, yhi) {
+	zlo, zhi, zok := padded(0.05, zs...)
+	ylo, yhi, yok := padded(0.05, ys...)
+	if !zok || !yok {
 		return ""
 	}
-	zlo, zhi = pad(zlo, zhi, 0.05)
-	ylo, yhi = pad(ylo, yhi, 0.05)
 	xs := scale{zlo, zhi, marginL, Width - marginR}
 	ysc := scale{ylo, yhi, Height - marginB, marginT + 12}
 	xt, xdec := Ticks(zlo, zhi, 7)
@@ -432,11 +441,10 @@ func Run(r *stats.Report) string {
 	for _, rl := range refs {
 		vals = append(vals, rl.v)
 	}
-	ylo, yhi := span(vals...)
-	if !finite(ylo, yhi) {
+	ylo, yhi, ok := padded(0.06, vals...)
+	if !ok {
 		return ""
 	}
-	ylo, yhi = pad(ylo, yhi, 0.06)
 	ilo, ihi = pad(ilo, ihi, 0.02)
 	xs := scale{ilo, ihi, marginL, Width - marginR}
 	ys := scale{ylo, yhi, Height - marginB, marginT + 12}

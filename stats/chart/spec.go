@@ -206,11 +206,10 @@ func SpecSpread(r *stats.Report) string {
 	if s.Target != nil {
 		vals = append(vals, *s.Target)
 	}
-	lo, hi := span(vals...)
-	if !finite(lo, hi) {
+	lo, hi, ok := padded(0.05, vals...)
+	if !ok {
 		return ""
 	}
-	lo, hi = pad(lo, hi, 0.05)
 	// the tolerance band: open ends reach the edge of the plot
 	tlo, thi := lsl, usl
 	if math.IsNaN(tlo) {
