@@ -86,6 +86,17 @@ func span(vs ...float64) (lo, hi float64) {
 	return
 }
 
+// padded is span widened by frac of its width on each side (pad); false
+// when no value is finite.
+func padded(frac float64, vs ...float64) (lo, hi float64, ok bool) {
+	lo, hi = span(vs...)
+	if !finite(lo, hi) {
+		return 0, 0, false
+	}
+	lo, hi = pad(lo, hi, frac)
+	return lo, hi, true
+}
+
 func pad(lo, hi, frac float64) (float64, float64) {
 	d := (hi - lo) * frac
 	if d == 0 {
@@ -94,34 +105,54 @@ func pad(lo, hi, frac float64) (float64, float64) {
 	return lo - d, hi + d
 }
 
+// histFrame is what the histogram and the spec chart share: the report's
+// bins, the reference lines (limits, target), the x range covering both
+// (padded by 3 %), the number of values, the tallest bin and the bin width.
+type histFrame struct {
+	h       stats.Histogram
+	refs    []refLine
+	lo, hi  float64
+	n, maxc int
+	width   float64
+}
+
+// newHistFrame sets up the frame; false when the report has no usable bins.
+func newHistFrame(r *stats.Report, f Format) (histFrame, bool) {
+	h := r.Charts.Histogram
+	if len(h.Counts) == 0 || len(h.Edges) != len(h.Counts)+1 || !finite(h.Edges...) {
+		return histFrame{}, false
+	}
+	fr := histFrame{h: h, refs: refLines(r, f)}
+	vals := []float64{h.Edges[0], h.Edges[len(h.Edges)-1]}
+	for _, rl := range fr.refs {
+		vals = append(vals, rl.v)
+	}
+	lo, hi := span(vals...)
+	fr.lo, fr.hi = pad(lo, hi, 0.03)
+	for _, k := range h.Counts {
+		fr.n += k
+		fr.maxc = max(fr.maxc, k)
+	}
+	fr.width = (h.Edges[len(h.Edges)-1] - h.Edges[0]) / float64(len(h.Counts))
+	return fr, true
+}
+
 // Histogram draws the bins with the fitted normal curve (mean and SD of the
 // report) and the target and specification limits as labelled lines.
 func Histogram(r *stats.Report) string {
 	if r == nil || r.Charts == nil {
 		return ""
 	}
-	h := r.Charts.Histogram
-	if len(h.Counts) == 0 || len(h.Edges) != len(h.Counts)+1 || !finite(h.Edges...) {
+	f := FormatOf(r)
+	hf, ok := newHistFrame(r, f)
+	if !ok {
 		return ""
 	}
-	f := FormatOf(r)
-	refs := refLines(r, f)
-	vals := append([]float64{}, h.Edges[0], h.Edges[len(h.Edges)-1])
-	for _, rl := range refs {
-		vals = append(vals, rl.v)
-	}
-	lo, hi := span(vals...)
-	lo, hi = pad(lo, hi, 0.03)
-	n, maxc := 0, 0
-	for _, k := range h.Counts {
-		n += k
-		maxc = max(maxc, k)
-	}
+	h, refs, lo, hi, n, width := hf.h, hf.refs, hf.lo, hf.hi, hf.n, hf.width
 	// fitted normal curve, scaled to counts per bin
 	var mean, sd float64
 	fit := r.Centre != nil && r.Spread != nil && r.Spread.SD > 0 && finite(r.Centre.Mean, r.Spread.SD)
-	width := (h.Edges[len(h.Edges)-1] - h.Edges[0]) / float64(len(h.Counts))
-	peak := float64(maxc)
+	peak := float64(hf.maxc)
 	if fit {
 		mean, sd = r.Centre.Mean, r.Spread.SD
 		peak = math.Max(peak, float64(n)*width/(sd*math.Sqrt(2*math.Pi)))
@@ -297,13 +328,11 @@ func ProbPlot(r *stats.Report) string {
 		zs = append(zs, bp.Z)
 		ys = append(ys, bp.Lo, bp.Hi)
 	}
-	zlo, zhi := span(zs...)
-	ylo, yhi := span(ys...)
-	if !finite(zlo, zhi, ylo, yhi) {
+	zlo, zhi, zok := padded(0.05, zs...)
+	ylo, yhi, yok := padded(0.05, ys...)
+	if !zok || !yok {
 		return ""
 	}
-	zlo, zhi = pad(zlo, zhi, 0.05)
-	ylo, yhi = pad(ylo, yhi, 0.05)
 	xs := scale{zlo, zhi, marginL, Width - marginR}
 	ysc := scale{ylo, yhi, Height - marginB, marginT + 12}
 	xt, xdec := Ticks(zlo, zhi, 7)
@@ -412,11 +441,10 @@ func Run(r *stats.Report) string {
 	for _, rl := range refs {
 		vals = append(vals, rl.v)
 	}
-	ylo, yhi := span(vals...)
-	if !finite(ylo, yhi) {
+	ylo, yhi, ok := padded(0.06, vals...)
+	if !ok {
 		return ""
 	}
-	ylo, yhi = pad(ylo, yhi, 0.06)
 	ilo, ihi = pad(ilo, ihi, 0.02)
 	xs := scale{ilo, ihi, marginL, Width - marginR}
 	ys := scale{ylo, yhi, Height - marginB, marginT + 12}

@@ -40,12 +40,11 @@ func Control(r *stats.Report) string {
 		ys = append(ys, l.Lower, l.Upper)
 		ss = append(ss, l.SpreadUpper, l.SpreadLower)
 	}
-	ylo, yhi := span(ys...)
-	slo, shi := span(ss...)
-	if !finite(ylo, yhi) {
+	ylo, yhi, ok := padded(0.05, ys...)
+	if !ok {
 		return ""
 	}
-	ylo, yhi = pad(ylo, yhi, 0.05)
+	slo, shi := span(ss...)
 	hasSpread := finite(slo, shi) && len(ss) > 0
 	if hasSpread {
 		slo, shi = 0, shi*1.08

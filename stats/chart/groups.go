@@ -41,11 +41,10 @@ func Groups(r *stats.Report) string {
 	for _, rl := range refs {
 		vals = append(vals, rl.v)
 	}
-	lo, hi := span(vals...)
-	if !finite(lo, hi) {
+	lo, hi, ok := padded(0.04, vals...)
+	if !ok {
 		return ""
 	}
-	lo, hi = pad(lo, hi, 0.04)
 	const rowH, left = 80.0, 128.0
 	h := marginT + 24 + rowH*float64(len(g.Levels)) + marginB
 	xs := scale{lo, hi, left, Width - marginR}

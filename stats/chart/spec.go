@@ -52,26 +52,14 @@ func SpecFit(r *stats.Report) string {
 	if r == nil || r.Charts == nil || r.Spec == nil {
 		return ""
 	}
-	h := r.Charts.Histogram
-	if len(h.Counts) == 0 || len(h.Edges) != len(h.Counts)+1 || !finite(h.Edges...) {
-		return ""
-	}
 	const height = 330.0
 	const top = 48.0 // two legend lines above the plot
 	f := FormatOf(r)
-	refs := refLines(r, f)
-	vals := []float64{h.Edges[0], h.Edges[len(h.Edges)-1]}
-	for _, rl := range refs {
-		vals = append(vals, rl.v)
+	hf, ok := newHistFrame(r, f)
+	if !ok {
+		return ""
 	}
-	lo, hi := span(vals...)
-	lo, hi = pad(lo, hi, 0.03)
-	n, maxc := 0, 0
-	for _, k := range h.Counts {
-		n += k
-		maxc = max(maxc, k)
-	}
-	width := (h.Edges[len(h.Edges)-1] - h.Edges[0]) / float64(len(h.Counts))
+	h, refs, lo, hi, n, maxc, width := hf.h, hf.refs, hf.lo, hf.hi, hf.n, hf.maxc, hf.width
 	var curves []stats.SpecCurve
 	for _, cv := range r.Spec.Curves {
 		if len(cv.X) >= 2 && len(cv.X) == len(cv.Density) && finite(cv.X...) && finite(cv.Density...) {
@@ -218,11 +206,10 @@ func SpecSpread(r *stats.Report) string {
 	if s.Target != nil {
 		vals = append(vals, *s.Target)
 	}
-	lo, hi := span(vals...)
-	if !finite(lo, hi) {
+	lo, hi, ok := padded(0.05, vals...)
+	if !ok {
 		return ""
 	}
-	lo, hi = pad(lo, hi, 0.05)
 	// the tolerance band: open ends reach the edge of the plot
 	tlo, thi := lsl, usl
 	if math.IsNaN(tlo) {
