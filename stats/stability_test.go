@@ -408,17 +408,19 @@ func TestSpecCautionFromStability(t *testing.T) {
 // block means (said in a Note and in drift.blocks), the chart is thinned
 // with the signals' points kept, and the EWMA and CUSUM are given at the
 // drawn points. Data constructed: a repeating pattern typed to 0.01, 0.05
-// higher from reading 150,001. The trend statistic is checked against
+// higher from the first reading of a block after reading 150,000. The trend statistic is checked against
 // method.MannKendallTest on the block sums computed here (Mann 1945, the
 // definition on the blocks).
 func TestStabilityLongSeries(t *testing.T) {
-	const n, size = 250_007, 3 // 83,335 blocks of 3; the last 2 readings in none
+	const n = 250_007
+	size := (n + driftMax - 1) / driftMax // 13 (19,231 blocks; the last 4 readings in none)
+	shift := (150_000/size + 1) * size    // the shift starts a block
 	pattern := []int64{0, 3, -2, 1, -4, 2, 0, -1, 4, -3, 1}
 	var b strings.Builder
 	mant := make([]int64, n)
 	for i := range n {
 		m := 1000 + pattern[i%len(pattern)]
-		if i >= 150_000 {
+		if i >= shift {
 			m += 5
 		}
 		mant[i] = m
@@ -438,14 +440,16 @@ func TestStabilityLongSeries(t *testing.T) {
 	}
 	sums := make([]int64, n/size)
 	for k := range sums {
-		sums[k] = mant[k*size] + mant[k*size+1] + mant[k*size+2]
+		for _, m := range mant[k*size : (k+1)*size] {
+			sums[k] += m
+		}
 	}
 	mk, err := method.MannKendallTest(sums)
 	if err != nil || d.Trend == nil || d.Trend.S != mk.S {
 		t.Errorf("trend S %+v, want %d (%v)", d.Trend, mk.S, err)
 	}
-	if c := s.Change; c == nil || !c.Found || c.Position != 150_001 || c.Row != 150_001 {
-		t.Errorf("change point %+v, want reading 150001", s.Change)
+	if c := s.Change; c == nil || !c.Found || c.Position != shift+1 || c.Row != shift+1 {
+		t.Errorf("change point %+v, want reading %d", s.Change, shift+1)
 	}
 	ch := s.Chart
 	if ch == nil || !ch.Thinned || ch.Count != n || len(ch.Points) > 3*maxChartPoints+2*maxSignalRows {

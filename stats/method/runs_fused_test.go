@@ -439,3 +439,29 @@ func TestEWMACUSUMScanAt(t *testing.T) {
 		t.Errorf("λ = 1.5: errors %v, %v; %d and %d visits", errE, errC, len(gotE), len(gotC))
 	}
 }
+
+// TestFirstNonFinite: the one-pass test for NaN and infinities finds the
+// first one wherever it stands (by construction).
+func TestFirstNonFinite(t *testing.T) {
+	for _, n := range []int{0, 1, 3, 4, 5, 8, 9, 64, 67} {
+		x := make([]float64, n)
+		for i := range x {
+			x[i] = float64(i%7) - 3.5
+		}
+		if got := ctlFirstNonFinite(x); got != -1 {
+			t.Errorf("n %d, all finite: got %d", n, got)
+		}
+		for at := range n {
+			for _, bad := range []float64{math.NaN(), math.Inf(1), math.Inf(-1)} {
+				y := append([]float64(nil), x...)
+				y[at] = bad
+				if at+1 < n {
+					y[n-1] = math.NaN() // a later one must not hide the first
+				}
+				if got := ctlFirstNonFinite(y); got != at {
+					t.Errorf("n %d, %g at %d: got %d", n, bad, at, got)
+				}
+			}
+		}
+	}
+}
