@@ -73,6 +73,7 @@ func BenchmarkColdLoad(b *testing.B) {
 		if err != nil {
 			b.Fatal(err)
 		}
+		s.close()
 		total += ready
 		dom += domReady
 		start += ph["workerStart"]
@@ -208,6 +209,7 @@ func BenchmarkPaste10kFirst(b *testing.B) {
 				if err != nil {
 					b.Fatal(err)
 				}
+				s.close()
 				t0 := time.Now()
 				if rep, err := stats.Analyze(stats.Request{Text: text}); err == nil {
 					chart.All(rep)

@@ -69,6 +69,14 @@ func browser(t testing.TB, extra ...chromedp.ExecAllocatorOption) *session {
 	return &session{ctx: ctx, base: srv.URL, srv: srv}
 }
 
+// close ends the browser now (it would otherwise run until the test ends):
+// a benchmark that starts a browser per iteration must not leave the last
+// one's page working (its engine's warm-up) beside the next.
+func (s *session) close() {
+	chromedp.Cancel(s.ctx)
+	s.srv.Close()
+}
+
 // open loads the page and waits for the engine.
 func (s *session) open(t testing.TB) {
 	t.Helper()
