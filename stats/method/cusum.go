@@ -3,8 +3,6 @@ package method
 import (
 	"fmt"
 	"math"
-
-	"gonum.org/v1/gonum/mat"
 )
 
 // CUSUMChart is a two-sided tabular CUSUM in the units of the data.
@@ -140,7 +138,7 @@ func CUSUMARL(k, h, shift float64) (CUSUMRunLength, error) {
 func ctlCUSUMOneSided(k, h, shift float64) (float64, error) {
 	m := ctlARLStates
 	w := h / (float64(m) - 0.5)
-	a := mat.NewDense(m, m, nil)
+	a := make([]float64, m*m)
 	for i := 0; i < m; i++ {
 		ci := float64(i) * w
 		for j := 0; j < m; j++ {
@@ -156,10 +154,10 @@ func ctlCUSUMOneSided(k, h, shift float64) (float64, error) {
 			if i == j {
 				v += 1
 			}
-			a.Set(i, j, v)
+			a[i*m+j] = v
 		}
 	}
-	return ctlSolveARL(a, 0)
+	return ctlSolveARL(a, m, 0)
 }
 
 // EWMACUSUMScanAt runs EWMAScanAt (λ = lambda, L = l) and CUSUMScanAt (k,

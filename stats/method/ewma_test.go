@@ -81,3 +81,51 @@ func TestEWMAARL(t *testing.T) {
 		t.Error("NaN λ: no error")
 	}
 }
+
+// TestSolveARL: the elimination solves (I − R)·x = 1 for chains built like
+// the run-length ones and for a matrix that needs row exchanges; checked by
+// the residual of the solution (by construction), to 1e-10 relative.
+func TestSolveARL(t *testing.T) {
+	for _, m := range []int{1, 2, 5, 40} {
+		for _, swap := range []bool{false, true} {
+			a := make([]float64, m*m)
+			for i := range m {
+				for j := range m {
+					// a sub-stochastic chain: each row sums to 0.9
+					a[i*m+j] = -0.9 / float64(m) * (1 + 0.5*math.Sin(float64(3*i+7*j)))
+				}
+				a[i*m+i] += 1
+			}
+			if swap && m > 1 {
+				// a zero on the diagonal: pivoting must exchange rows
+				// (the solution is unchanged: both rows keep b = 1)
+				for j := range m {
+					a[j], a[m+j] = a[m+j], a[j]
+				}
+				a[0] = 0
+			}
+			orig := append([]float64(nil), a...)
+			x := make([]float64, m)
+			for start := range m {
+				a := append([]float64(nil), orig...)
+				v, err := ctlSolveARL(a, m, start)
+				if err != nil {
+					t.Fatalf("m %d swap %v: %v", m, swap, err)
+				}
+				x[start] = v
+			}
+			for i := range m {
+				r := -1.0
+				for j := range m {
+					r += orig[i*m+j] * x[j]
+				}
+				if math.Abs(r) > 1e-10 {
+					t.Errorf("m %d swap %v: residual %g in row %d", m, swap, r, i)
+				}
+			}
+		}
+	}
+	if _, err := ctlSolveARL([]float64{0, 0, 0, 0}, 2, 0); err == nil {
+		t.Error("a singular chain was solved")
+	}
+}
