@@ -116,7 +116,7 @@ func imSelectHint(m *imMatrix, k int64, next bool, hint *imHint) (vk, vk1 float6
 			return math.NaN(), math.NaN()
 		}
 		kk := int(min(max(k-below, 0), int64(len(buf)-1)))
-		a := mcFloatSelect(buf, kk)
+		a := floatSelect(buf, kk)
 		b := a
 		if next {
 			if kk+1 < len(buf) {
@@ -379,10 +379,10 @@ func mcStair(x []float64, m float64, q, r0, r1, c int, t float64, strict bool, o
 	return c, cnt
 }
 
-// mcFloatSelect returns the k-th smallest (0-based) of a, reordering a so
+// floatSelect returns the k-th smallest (0-based) of a (no NaN), reordering a so
 // that a[:k] <= a[k] <= a[k+1:] (quickselect, Hoare 1961, with
 // median-of-three pivots and a sort as the worst-case fallback).
-func mcFloatSelect(a []float64, k int) float64 {
+func floatSelect(a []float64, k int) float64 {
 	lo, hi := 0, len(a)-1
 	budget := 2 * bits.Len64(uint64(len(a)))
 	for hi > lo {

@@ -136,7 +136,7 @@ func TestFloatSelect(t *testing.T) {
 			s := slices.Clone(a)
 			slices.Sort(s)
 			k := rng.IntN(n)
-			if got := mcFloatSelect(a, k); got != s[k] {
+			if got := floatSelect(a, k); got != s[k] {
 				t.Fatalf("floatSelect k=%d: %v want %v", k, got, s[k])
 			}
 		}

@@ -8,6 +8,46 @@ import (
 	"testing"
 )
 
+// The bits of a point's zone byte in the check-by-check reference
+// (ctlSignalsOld, the code Signals had before ScanSignals): beyond 1σ, 2σ and the limit
+// (strictly), strictly within 1σ, and the side of the centre.
+const (
+	zoneBeyond1 uint8 = 1 << iota
+	zoneBeyond2
+	zoneBeyondLimit
+	zoneWithin1
+	zoneBelow
+	zoneAbove
+	classSide // not a bit of the byte: ctlClass gives the side of the centre
+)
+
+// ctlBit is 1 for true (the compiler makes it a flag set, not a branch).
+func ctlBit(b bool) uint8 {
+	var u uint8
+	if b {
+		u = 1
+	}
+	return u
+}
+
+// ctlClass is the class of a point with zone byte c that a check reads:
+// for an edge (zoneBeyond1, zoneBeyond2, zoneBeyondLimit) +1 beyond it
+// above the centre, −1 below, 0 otherwise; for classSide the side of the
+// centre (0 on it); for zoneWithin1 2 when strictly within 1σ (a class of
+// its own, without a side), else 0.
+func ctlClass(c, what uint8) int {
+	side := int(c&zoneAbove)>>5 - int(c&zoneBelow)>>4
+	switch {
+	case what == classSide:
+		return side
+	case what == zoneWithin1:
+		return int(c&zoneWithin1) >> 2
+	case c&what == 0:
+		return 0
+	}
+	return side
+}
+
 // The checks as they were written before ScanSignals fused them into one
 // pass, check by check over a byte of zones per point: kept as the
 // oracle the fused pass must agree with, signal for signal.

@@ -443,64 +443,16 @@ func SenSlopeEstimate[T int64 | float64](x []T, confidence float64) (SenSlope, e
 // smallest of what lies above the first.
 func ctlSelectStat(s []float64, k float64) float64 {
 	if k <= 1 {
-		return ctlKth(s, 0)
+		return floatSelect(s, 0)
 	}
 	if k >= float64(len(s)) {
-		return ctlKth(s, len(s)-1)
+		return floatSelect(s, len(s)-1)
 	}
 	f := math.Floor(k)
 	i := int(f) - 1
-	lo := ctlKth(s, i)
+	lo := floatSelect(s, i)
 	hi := slices.Min(s[i+1:])
 	return lo + (k-f)*(hi-lo)
-}
-
-// ctlKth moves the value of 0-based rank k of s (no NaN) to s[k], the
-// smaller ones before it and the others after, and returns it.
-func ctlKth(s []float64, k int) float64 {
-	lo, hi := 0, len(s)-1
-	for hi > lo {
-		if hi-lo < 16 {
-			slices.Sort(s[lo : hi+1])
-			break
-		}
-		// median of three as pivot
-		m := lo + (hi-lo)/2
-		if s[m] < s[lo] {
-			s[m], s[lo] = s[lo], s[m]
-		}
-		if s[hi] < s[lo] {
-			s[hi], s[lo] = s[lo], s[hi]
-		}
-		if s[hi] < s[m] {
-			s[hi], s[m] = s[m], s[hi]
-		}
-		p := s[m]
-		i, j := lo, hi
-		for i <= j {
-			for s[i] < p {
-				i++
-			}
-			for s[j] > p {
-				j--
-			}
-			if i <= j {
-				s[i], s[j] = s[j], s[i]
-				i++
-				j--
-			}
-		}
-		// s[lo..j] <= p <= s[i..hi], and s[j+1..i-1] == p
-		switch {
-		case k <= j:
-			hi = j
-		case k >= i:
-			lo = i
-		default:
-			return s[k]
-		}
-	}
-	return s[k]
 }
 
 // ctlOrderStat returns the order statistic of 1-based rank k of sorted s,
