@@ -195,8 +195,12 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	guardFinite(rep)
 }
 
-// maxChartPoints bounds the points of each chart series in a report.
-const maxChartPoints = 2000
+// maxChartPoints bounds the points of each chart series in a report. A
+// chart's plot is about 560 units wide (stats/chart), so 600 blocks, each
+// drawn by its lowest and highest point, keep every peak and dip at the
+// chart's own resolution; more points only made the report and the page
+// slower (2,000 before: the 10,000-reading report was 40 % larger).
+const maxChartPoints = 1200
 
 // modes fills the repeated values with their counts.
 func modes(c *Centre, w words, sorted []float64, maxRun int, cv *colView) {
