@@ -52,6 +52,17 @@ func Control(r *stats.Report) string {
 			shi = 1
 		}
 	}
+	// the names and values of the limits and the centre go right of the
+	// plot (never over a point, as on the run chart): room for the longest
+	l0 := ch.Limits[len(ch.Limits)-1]
+	lineTags := []struct {
+		v           float64
+		name, class string
+	}{{l0.Upper, "UCL", "limit"}, {ch.Centre, "centre", "centre"}, {l0.Lower, "LCL", "limit"}}
+	marginR := runMarginR
+	for _, lt := range lineTags {
+		marginR = math.Max(marginR, 9*float64(len(f.Num(lt.v, f.Decimals+1)))+10)
+	}
 	x0, x1 := 0.5, float64(ch.Count)+0.5
 	xs := scale{x0, x1, marginL, Width - marginR}
 	yv := scale{ylo, yhi, top1, top0}
@@ -90,10 +101,17 @@ func Control(r *stats.Report) string {
 		c.line(xa, yv.at(l.Lower), xb, yv.at(l.Lower), Vermilion, 2, "8 4", "limit lower")
 	}
 	c.line(xs.p0, yv.at(ch.Centre), xs.p1, yv.at(ch.Centre), Green, 2, "", "centre")
-	l0 := ch.Limits[len(ch.Limits)-1]
-	c.text(Width-marginR-4, yv.at(l0.Upper)-4, "end", "marker-label limit", "UCL "+f.Num(l0.Upper, f.Decimals+1))
-	c.text(Width-marginR-4, yv.at(l0.Lower)+14, "end", "marker-label limit", "LCL "+f.Num(l0.Lower, f.Decimals+1))
-	c.text(marginL+4, yv.at(ch.Centre)-5, "start", "marker-label centre", "centre "+f.Num(ch.Centre, f.Decimals+1))
+	// each tag is two lines, the name over the value, kept 30 apart
+	var tags []tag
+	values := map[string]string{}
+	for _, lt := range lineTags {
+		tags = append(tags, tag{y: yv.at(lt.v), text: lt.name, class: lt.class})
+		values[lt.name] = f.Num(lt.v, f.Decimals+1)
+	}
+	for _, t := range spreadTags(tags, top0, top1, 30) {
+		c.text(Width-marginR+6, t.y-2, "start", "marker-label "+t.class, t.text)
+		c.text(Width-marginR+6, t.y+13, "start", "marker-label "+t.class, values[t.text])
+	}
 	// baseline: a dashed line where the readings that set the limits end
 	if b := r.Stability.Baseline; b != nil {
 		for _, x := range []float64{float64(b.First) - 0.5, float64(b.Last) + 0.5} {

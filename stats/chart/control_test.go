@@ -2,6 +2,7 @@ package chart
 
 import (
 	"fmt"
+	"math"
 	"strings"
 	"testing"
 
@@ -110,5 +111,37 @@ func TestControlFromEngine(t *testing.T) {
 	}
 	if n := len(root.all(byClass("pt"))); n > 2*MaxMarkers+100 {
 		t.Errorf("%d point symbols for 5000 readings", n)
+	}
+}
+
+// TestControlLineNames: the names and values of the limits and the centre
+// lie right of the plot (where the x axis ends), never over a point, apart
+// from each other, and carry the limits' values (from controlSample).
+func TestControlLineNames(t *testing.T) {
+	root := parse(t, Control(controlSample()))
+	var right float64
+	for _, a := range root.all(func(n node) bool { return n.XMLName.Local == "line" && n.hasClass("axis") && n.hasClass("x") }) {
+		right = max(right, a.num(t, "x2"))
+	}
+	for _, p := range root.all(byClass("pt")) {
+		if p.XMLName.Local == "circle" && p.num(t, "cx") > right {
+			t.Fatalf("a point lies right of the axis end %g", right)
+		}
+	}
+	labels := root.all(byClass("marker-label"))
+	var texts []string
+	for i, l := range labels {
+		texts = append(texts, l.Text)
+		if l.num(t, "x") < right || l.attr("text-anchor") != "start" {
+			t.Errorf("line name %q at x=%g is inside the plot, which ends at %g", l.Text, l.num(t, "x"), right)
+		}
+		for _, m := range labels[:i] {
+			if math.Abs(l.num(t, "y")-m.num(t, "y")) < 12 {
+				t.Errorf("line names %q and %q overlap", l.Text, m.Text)
+			}
+		}
+	}
+	if got := strings.Join(texts, "|"); got != "UCL|5.300|centre|5.000|LCL|4.700" {
+		t.Errorf("line names %q, want UCL|5.300|centre|5.000|LCL|4.700 (controlSample's values, one decimal more than the data)", got)
 	}
 }
