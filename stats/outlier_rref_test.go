@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"testing"
 
+	"lotlens/stats/internal/rref"
 	"lotlens/stats/method"
 )
 
@@ -12,10 +13,10 @@ import (
 // plot with the medcouple by definition, modified z-scores and the
 // generalized ESD written out in R from Rosner 1983).
 func TestOutlierR(t *testing.T) {
-	ref := methodsRef(t)
+	ref := rref.Load(t, "methods.tsv", 24)
 	checked := 0
 	for set, r := range ref {
-		x, _, _ := methodsSet(t, set)
+		x, _, _ := rref.Set(t, set)
 		smp := binarySample(x)
 		med := smp.median.f
 		rules, flags, _, _ := outlierRules(words{}, smp, 0.05, len(x))
@@ -88,7 +89,7 @@ func checkGESDSteps(t *testing.T, set string, x []float64, r map[string]float64)
 			found := false
 			for _, fs := range flags {
 				for _, f := range fs {
-					if f.Rule == "gesd" && mClose(f.Score, wantR, 1e-9, 0) {
+					if f.Rule == "gesd" && rref.Close(f.Score, wantR, 1e-9, 0) {
 						found = true
 					}
 				}

@@ -11,24 +11,6 @@ import (
 // testdata/rref/methods.R with R 4.2.2 (r-cran-nortest 1.0-4,
 // r-cran-robustbase 0.95-0) from the invented sets in testdata/sets.
 
-func methodsRef(t *testing.T) map[string]map[string]float64 {
-	t.Helper()
-	ref := rref.Load(t, "methods.tsv", 20)
-	if len(ref) < 24 {
-		t.Fatalf("methods.tsv holds %d sets, want 24", len(ref))
-	}
-	return ref
-}
-
-// methodsSet reads one invented set (rref.Set).
-func methodsSet(t *testing.T, name string) (sorted []float64, mean, sd float64) {
-	t.Helper()
-	return rref.Set(t, name)
-}
-
-// mClose is rref.Close.
-var mClose = rref.Close
-
 type mCheck struct {
 	stat     string
 	got      *float64
@@ -50,7 +32,7 @@ func runChecks(t *testing.T, set string, ref map[string]float64, cs []mCheck) in
 			t.Errorf("%s %s: missing, R 4.2.2 gives %.17g", set, c.stat, want)
 			continue
 		}
-		if !mClose(*c.got, want, c.rel, c.abs) {
+		if !rref.Close(*c.got, want, c.rel, c.abs) {
 			t.Errorf("%s %s = %.17g, R 4.2.2 gives %.17g", set, c.stat, *c.got, want)
 		}
 		n++
@@ -64,10 +46,10 @@ func fp(x float64) *float64 { return &x }
 // D'Agostino tests by their published formulas in R, shapiro.test and
 // nortest::ad.test.
 func TestShapeR(t *testing.T) {
-	ref := methodsRef(t)
+	ref := rref.Load(t, "methods.tsv", 24)
 	checked := 0
 	for set, r := range ref {
-		x, mean, sd := methodsSet(t, set)
+		x, mean, sd := rref.Set(t, set)
 		sh, _ := shapeSection(words{}, x, mean, sd, powerSumsFor(x))
 		var cs []mCheck
 		// R's moments on the offset set carry about 9 significant digits

@@ -8,6 +8,7 @@ import (
 	"testing"
 
 	"lotlens/stats/decimal"
+	"lotlens/stats/internal/rref"
 )
 
 // Below the validity limits the tests are left out with a Note; constant
@@ -95,12 +96,12 @@ func TestDAgostinoSciPy(t *testing.T) {
 		{"04-seal-rightskew-n120.txt", 6.7638204922326155, 5.271654640685278, 73.53961030180449, 1.0741786650028262e-16},
 		{"18-n1000-normal.txt", 0.8069148114125325, -1.1190643734419752, 1.9034165847840034, 0.38608092069125255},
 	} {
-		x, m, sd := methodsSet(t, c.set)
+		x, m, sd := rref.Set(t, c.set)
 		sh, _ := shapeSection(words{}, x, m, sd, nil)
 		got := []float64{sh.Skewness.Test.Statistic, sh.Kurtosis.Test.Statistic, sh.Omnibus.Statistic, sh.Omnibus.P}
 		want := []float64{c.zs, c.zk, c.k2, c.p2}
 		for i := range got {
-			if !mClose(got[i], want[i], 1e-9, 1e-15) {
+			if !rref.Close(got[i], want[i], 1e-9, 1e-15) {
 				t.Errorf("%s: %d: %.15g, SciPy 1.10.1 gives %.15g", c.set, i, got[i], want[i])
 			}
 		}

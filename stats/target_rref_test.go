@@ -5,6 +5,7 @@ import (
 	"testing"
 
 	"lotlens/stats/decimal"
+	"lotlens/stats/internal/rref"
 )
 
 // Tests against a target on the 24 invented sets against R 4.2.2:
@@ -12,10 +13,10 @@ import (
 // testdata/rref/methods.R, and the Hodges-Lehmann pseudo-median by its
 // definition (median of the Walsh averages).
 func TestTargetR(t *testing.T) {
-	ref := methodsRef(t)
+	ref := rref.Load(t, "methods.tsv", 24)
 	checked := 0
 	for set, r := range ref {
-		x, mean, sd := methodsSet(t, set)
+		x, mean, sd := rref.Set(t, set)
 		mu := r["target"]
 		tg := targetSection(words{}, x, mean, sd, mu, 0.95, decimal.Grid{}) // binary, as R computes
 		if tg.T == nil {

@@ -18,7 +18,7 @@ func TestMedianIntervalInterpolatedR(t *testing.T) {
 	for key, r := range ref {
 		set, lv, _ := strings.Cut(key, "@")
 		conf, _ := strconv.ParseFloat(lv, 64)
-		x, _, _ := methodsSet(t, set)
+		x, _, _ := rref.Set(t, set)
 		n := len(x)
 		k, level, reached := MedianInterval(n, conf)
 		if !reached || k != int(r["k"]) || math.Abs(level-r["level"]) > 1e-12 {

@@ -1,6 +1,7 @@
 package method
 
 import (
+	"lotlens/stats/internal/rref"
 	"math"
 	"math/rand/v2"
 	"slices"
@@ -177,21 +178,22 @@ func BenchmarkSortBaseline1M(b *testing.B) {
 // The medcouple of the 24 invented sets against R 4.2.2: the definition
 // written out in R (mcNaive, the mean of the two middle kernel values when
 // their number is even) and robustbase 0.95-0's mc(x, doReflect = FALSE),
-// which returns the lower middle value (mcLow).
+// which returns the lower middle value (mcLow); testdata/rref/methods.tsv,
+// written by testdata/rref/methods.R.
 func TestMedcoupleR(t *testing.T) {
-	ref := methodsRef(t)
+	ref := rref.Load(t, "methods.tsv", 24)
 	for set, r := range ref {
-		x, _, _ := methodsSet(t, set)
+		x, _, _ := rref.Set(t, set)
 		mc, ok := Medcouple(x)
 		lo, _, _ := medcoupleMiddle(x)
 		if !ok {
 			t.Errorf("%s: no medcouple", set)
 			continue
 		}
-		if !mClose(mc, r["mcNaive"], 1e-12, 1e-13) {
+		if !rref.Close(mc, r["mcNaive"], 1e-12, 1e-13) {
 			t.Errorf("%s: medcouple %.17g, R 4.2.2 definition %.17g", set, mc, r["mcNaive"])
 		}
-		if !mClose(lo, r["mcLow"], 1e-12, 1e-13) {
+		if !rref.Close(lo, r["mcLow"], 1e-12, 1e-13) {
 			t.Errorf("%s: lower middle kernel %.17g, R 4.2.2 robustbase::mc %.17g", set, lo, r["mcLow"])
 		}
 	}
