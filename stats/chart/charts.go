@@ -296,16 +296,11 @@ func Box(r *stats.Report) string {
 		_, _, class := suspectKind(s.Value, b)
 		kinds[class] = true
 	}
-	if kinds["near"] {
-		items = append(items, legendItem{"open-circle", Orange, "", "beyond inner"})
-	}
-	if kinds["far"] {
-		items = append(items, legendItem{"triangle", Vermilion, "", "beyond outer"})
-	}
-	if kinds["other"] {
-		items = append(items, legendItem{"diamond", Purple, "", "other rules"})
-	}
-	c.legend(items)
+	c.legend(markKey(items, kinds, []markEntry{
+		{"near", legendItem{"open-circle", Orange, "", "beyond inner"}},
+		{"far", legendItem{"triangle", Vermilion, "", "beyond outer"}},
+		{"other", legendItem{"diamond", Purple, "", "other rules"}},
+	}))
 	return c.done()
 }
 

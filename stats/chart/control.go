@@ -238,19 +238,12 @@ func Control(r *stats.Report) string {
 		_, _, class := controlMark(p)
 		kinds[class] = true
 	}
-	if kinds["signal beyond"] {
-		items = append(items, legendItem{"triangle", Vermilion, "", "beyond a limit"})
-	}
-	if kinds["signal pattern"] {
-		items = append(items, legendItem{"diamond", Orange, "", "run or pattern"})
-	}
-	if kinds["signal drift"] {
-		items = append(items, legendItem{"square", Purple, "", "EWMA/CUSUM"})
-	}
-	if kinds["left-out"] {
-		items = append(items, legendItem{"open-circle", Black, "", "left out"})
-	}
-	c.legend(items)
+	c.legend(markKey(items, kinds, []markEntry{
+		{"signal beyond", legendItem{"triangle", Vermilion, "", "beyond a limit"}},
+		{"signal pattern", legendItem{"diamond", Orange, "", "run or pattern"}},
+		{"signal drift", legendItem{"square", Purple, "", "EWMA/CUSUM"}},
+		{"left-out", legendItem{"open-circle", Black, "", "left out"}},
+	}))
 	return c.done()
 }
 

@@ -136,6 +136,24 @@ func pctLabel(level float64) string {
 	return strconv.FormatFloat(math.Round(level*1000)/10, 'f', -1, 64) + " %"
 }
 
+// markEntry is the key entry of one class of marks.
+type markEntry struct {
+	class string
+	item  legendItem
+}
+
+// markKey appends to items the entry of each class of marks that was drawn
+// (drawn[class]), in the order of marks: a key lists only what the chart
+// shows.
+func markKey(items []legendItem, drawn map[string]bool, marks []markEntry) []legendItem {
+	for _, m := range marks {
+		if drawn[m.class] {
+			items = append(items, m.item)
+		}
+	}
+	return items
+}
+
 // runMarginR is the run chart's right margin: room for the names of its
 // reference lines beside the plot.
 const runMarginR = 62.0
