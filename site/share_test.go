@@ -3,10 +3,8 @@ package site
 import (
 	"context"
 	"encoding/base64"
-	"encoding/binary"
 	"encoding/json"
 	"fmt"
-	"hash/crc32"
 	"net/http"
 	"net/http/httptest"
 	"net/http/httputil"
@@ -22,6 +20,7 @@ import (
 
 	"lotlens/stats"
 	"lotlens/stats/share"
+	"lotlens/stats/share/sharetest"
 )
 
 // shareText is invented data: fill weights in two columns with a label.
@@ -207,18 +206,6 @@ func TestShareLinkSameReportOffline(t *testing.T) {
 	b.state(t)
 }
 
-// reframe sets a payload's version byte and fixes both checksums (a link
-// made by a newer format).
-func reframe(raw []byte, version byte) []byte {
-	c := append([]byte(nil), raw...)
-	tab := crc32.MakeTable(crc32.Castagnoli)
-	c[3] = version
-	binary.BigEndian.PutUint32(c[12:16], crc32.Checksum(c[:12], tab))
-	n := len(c) - 4
-	binary.BigEndian.PutUint32(c[n:], crc32.Checksum(c[:n], tab))
-	return c
-}
-
 // TestDamagedLinks: each damaged link shows its message, which stays (the
 // start-up "Ready" does not overwrite it), says what to ask for and nothing
 // technical, and the link leaves the address bar.
@@ -243,7 +230,7 @@ func TestDamagedLinks(t *testing.T) {
 		{"not base64", "#s=" + link[:20] + "%25%25" + link[22:], stats.CodeShareCorrupt, "changed or damaged"},
 		{"random text", "#s=hello%20there", stats.CodeShareForeign, "not a Lotlens link"},
 		{"JSON null", "#s=null", stats.CodeShareForeign, "not a Lotlens link"},
-		{"unknown version", "#s=" + base64.RawURLEncoding.EncodeToString(reframe(raw, 2)), stats.CodeShareVersion, "newer version"},
+		{"unknown version", "#s=" + base64.RawURLEncoding.EncodeToString(sharetest.Reframe(raw, 2, 0)), stats.CodeShareVersion, "newer version"},
 		{"the page's old format", "#d=eJwrSS0u0c1LzE0FAA", stats.CodeShareForeign, "not a Lotlens link"},
 	} {
 		err := chromedp.Run(s.ctx,

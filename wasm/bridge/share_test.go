@@ -4,15 +4,14 @@ import (
 	"bytes"
 	"crypto/sha256"
 	"encoding/base64"
-	"encoding/binary"
 	"encoding/hex"
 	"encoding/json"
-	"hash/crc32"
 	"strings"
 	"testing"
 
 	"lotlens/stats"
 	"lotlens/stats/share"
+	"lotlens/stats/share/sharetest"
 )
 
 // shareReq builds the page's share request.
@@ -206,21 +205,6 @@ func TestShareRefused(t *testing.T) {
 
 func first(a, _ []byte) []byte { return a }
 
-// reframe rewrites a payload's header fields and both checksums, as a
-// newer or a hostile sender's engine would (the frame in stats/share).
-func reframe(b []byte, version byte, inflated uint32) []byte {
-	c := append([]byte(nil), b...)
-	tab := crc32.MakeTable(crc32.Castagnoli)
-	c[3] = version
-	if inflated > 0 {
-		binary.BigEndian.PutUint32(c[8:12], inflated)
-	}
-	binary.BigEndian.PutUint32(c[12:16], crc32.Checksum(c[:12], tab))
-	n := len(c) - 4
-	binary.BigEndian.PutUint32(c[n:], crc32.Checksum(c[:n], tab))
-	return c
-}
-
 // TestOpenErrors: every share error code comes back as the bridge's
 // "share-" code, with a message saying what to ask the sender for, and
 // nothing of an earlier analysis is shown instead.
@@ -257,8 +241,8 @@ func TestOpenErrors(t *testing.T) {
 		{"random text", FormLink, []byte("hello, this is not a link"), stats.CodeShareForeign, "ask the sender"},
 		{"JSON null", FormLink, []byte("null"), stats.CodeShareForeign, "ask the sender"},
 		{"old page format", FormLink, []byte("d=eJwrSS0u0c1LzE0FAA"), stats.CodeShareForeign, "ask the sender"},
-		{"newer version", FormLink, []byte(b64(reframe(raw, 2, 0))), stats.CodeShareVersion, "reload the page"},
-		{"too large", FormLink, []byte(b64(reframe(raw, 1, share.MaxDecoded+1))), stats.CodeShareTooLarge, "ask the sender"},
+		{"newer version", FormLink, []byte(b64(sharetest.Reframe(raw, 2, 0))), stats.CodeShareVersion, "reload the page"},
+		{"too large", FormLink, []byte(b64(sharetest.Reframe(raw, 1, share.MaxDecoded+1))), stats.CodeShareTooLarge, "ask the sender"},
 		{"file cut short", FormFile, file[:len(file)-3], stats.CodeShareTruncated, "ask the sender"},
 		{"not a file of ours", FormFile, []byte("Line\tValue\n1\t2\n"), stats.CodeShareForeign, "ask the sender"},
 		{"stored copy damaged", FormBytes, raw[:len(raw)-1], stats.CodeShareTruncated, "stored copy"},
