@@ -30,7 +30,7 @@ func CUSUM(x []float64, centre, sigma, k, h float64) (CUSUMChart, error) {
 	c := CUSUMChart{K: k, H: h, Centre: centre, Sigma: sigma, Slack: k * sigma, Decision: h * sigma,
 		Upper: make([]float64, n), Lower: make([]float64, n),
 		UpperCount: make([]int32, n), LowerCount: make([]int32, n)}
-	err := CUSUMScan(x, centre, sigma, k, h, func(i int, up, lo float64, nu, nl int32, beyond bool) {
+	_, err := ctlScanEC(x, centre, sigma, 0, 0, k, h, nil, true, nil, func(i int, up, lo float64, nu, nl int32, beyond bool) {
 		c.Upper[i], c.Lower[i], c.UpperCount[i], c.LowerCount[i] = up, lo, nu, nl
 		if beyond {
 			c.Beyond = append(c.Beyond, i)
@@ -40,55 +40,6 @@ func CUSUM(x []float64, centre, sigma, k, h float64) (CUSUMChart, error) {
 		return CUSUMChart{}, err
 	}
 	return c, nil
-}
-
-// CUSUMScan computes the same sums as CUSUM without keeping them: visit
-// gets each point's index, the upper and lower sums, the number of points
-// each has been above 0 in a row, and whether a sum exceeds H·σ, in order.
-// Memory O(1), for long series.
-func CUSUMScan(x []float64, centre, sigma, k, h float64, visit func(i int, up, lo float64, nu, nl int32, beyond bool)) error {
-	return cusumScan(x, centre, sigma, k, h, nil, true, visit)
-}
-
-// CUSUMScanAt is CUSUMScan visiting only some points, in order: those
-// listed in at (ascending), every point where a sum exceeds H·σ and the
-// point after each of them (where a run beyond ends).
-func CUSUMScanAt(x []float64, centre, sigma, k, h float64, at []int, visit func(i int, up, lo float64, nu, nl int32, beyond bool)) error {
-	return cusumScan(x, centre, sigma, k, h, at, false, visit)
-}
-
-func cusumScan(x []float64, centre, sigma, k, h float64, at []int, all bool, visit func(i int, up, lo float64, nu, nl int32, beyond bool)) error {
-	if err := ctlCheckKH(k, h); err != nil {
-		return err
-	}
-	if !(sigma >= 0) || math.IsInf(sigma, 0) || math.IsNaN(centre) || math.IsInf(centre, 0) {
-		return fmt.Errorf("centre %g and sigma %g: they must be finite, sigma >= 0", centre, sigma)
-	}
-	up, lo := 0.0, 0.0
-	var nu, nl int32
-	slack, decision := k*sigma, h*sigma
-	hi, low := centre+slack, centre-slack
-	next, ai := ctlNextAt(at, 0, all)
-	was := false
-	for i, v := range x {
-		up = max(0, v-hi+up) // the built-in max: no branch to mispredict
-		lo = max(0, low-v+lo)
-		// counts of points above 0 in a row, without branches
-		nu = (nu + 1) * int32(ctlU(up > 0))
-		nl = (nl + 1) * int32(ctlU(lo > 0))
-		beyond := up > decision || lo > decision
-		if beyond || was || i == next {
-			visit(i, up, lo, nu, nl, beyond)
-			if i == next {
-				next, ai = ctlNextAt(at, ai+1, all)
-				if all {
-					next = i + 1
-				}
-			}
-		}
-		was = beyond
-	}
-	return nil
 }
 
 func ctlCheckKH(k, h float64) error {
@@ -160,25 +111,41 @@ func ctlCUSUMOneSided(k, h, shift float64) (float64, error) {
 	return ctlSolveARL(a, m, 0)
 }
 
-// EWMACUSUMScanAt runs EWMAScanAt (λ = lambda, L = l) and CUSUMScanAt (k,
-// h) over the same points in one pass, their two recursions side by side
-// (each waits on its own previous value, so together they take little
-// more time than one). visitE and visitC are called exactly as the two
-// scans would call them, in order of the points (at a point both visit,
-// visitE first). A scan whose settings are refused returns its error and
-// makes no visit; the other still runs.
+// EWMACUSUMScanAt computes the averages of EWMA (λ = lambda, L = l) and
+// the sums of CUSUM (k, h) without keeping them, in one pass with the two
+// recursions side by side (each waits on its own previous value, so
+// together they take little more time than one). It visits only some
+// points, in order: those listed in at (ascending), every point beyond
+// the limits (visitE) or beyond H·σ (visitC), and the point after each
+// (where a run beyond ends); at a point both visit, visitE first. visitE
+// gets the average z; visitC the upper and lower sums and the number of
+// points each has been above 0 in a row. A long series costs one tight
+// pass and a call per point visited. A scan whose settings are refused
+// returns its error and makes no visit; the other still runs.
 func EWMACUSUMScanAt(x []float64, centre, sigma, lambda, l, k, h float64, at []int,
+	visitE func(i int, z float64, beyond bool), visitC func(i int, up, lo float64, nu, nl int32, beyond bool)) (errE, errC error) {
+	return ctlScanEC(x, centre, sigma, lambda, l, k, h, at, false, visitE, visitC)
+}
+
+// ctlScanEC is EWMACUSUMScanAt, visiting every point when all (EWMA and
+// CUSUM keep them all); a nil visit function leaves its scan out.
+func ctlScanEC(x []float64, centre, sigma, lambda, l, k, h float64, at []int, all bool,
 	visitE func(i int, z float64, beyond bool), visitC func(i int, up, lo float64, nu, nl int32, beyond bool)) (errE, errC error) {
 	if !(sigma >= 0) || math.IsInf(sigma, 0) || math.IsNaN(centre) || math.IsInf(centre, 0) {
 		err := fmt.Errorf("centre %g and sigma %g: they must be finite, sigma >= 0", centre, sigma)
 		return err, err
 	}
-	errE, errC = ctlCheckLambdaL(lambda, l), ctlCheckKH(k, h)
-	doE, doC := errE == nil, errC == nil
+	if visitE != nil {
+		errE = ctlCheckLambdaL(lambda, l)
+	}
+	if visitC != nil {
+		errC = ctlCheckKH(k, h)
+	}
+	doE, doC := errE == nil && visitE != nil, errC == nil && visitC != nil
 	slack := k * sigma
 	st := ctlEC{z: centre, a: 1, lambda: lambda, q: (1 - lambda) * (1 - lambda), kk: lambda / (2 - lambda),
 		lsig: l * sigma, hi: centre + slack, low: centre - slack, decision: h * sigma, centre: centre}
-	next, ai := ctlNextAt(at, 0, false)
+	next, ai := ctlNextAt(at, 0, all)
 	for i := 0; i < len(x); i++ {
 		// the points that need no visit pass in a loop without calls
 		if i = st.run(x, i, next); i == len(x) {
@@ -192,7 +159,10 @@ func EWMACUSUMScanAt(x []float64, centre, sigma, lambda, l, k, h float64, at []i
 			visitC(i, st.up, st.lo, st.nu, st.nl, st.beyondC)
 		}
 		if here {
-			next, ai = ctlNextAt(at, ai+1, false)
+			next, ai = ctlNextAt(at, ai+1, all)
+			if all {
+				next = i + 1
+			}
 		}
 		st.wasE, st.wasC = st.beyondE, st.beyondC
 	}

@@ -48,67 +48,16 @@ func ctlCheckLambdaL(lambda, l float64) error {
 // EWMAARL for a wanted in-control run length.
 func EWMA(x []float64, centre, sigma, lambda, l float64) (EWMAChart, error) {
 	c := EWMAChart{Lambda: lambda, L: l, Centre: centre, Sigma: sigma, Z: make([]float64, len(x))}
-	err := EWMAScan(x, centre, sigma, lambda, l, func(i int, z float64, beyond bool) {
+	err, _ := ctlScanEC(x, centre, sigma, lambda, l, 0, 0, nil, true, func(i int, z float64, beyond bool) {
 		c.Z[i] = z
 		if beyond {
 			c.Beyond = append(c.Beyond, i)
 		}
-	})
+	}, nil)
 	if err != nil {
 		return EWMAChart{}, err
 	}
 	return c, nil
-}
-
-// EWMAScan computes the same averages as EWMA without keeping them: visit
-// gets each point's index, its average z and whether z lies beyond the
-// limits (EWMAChart.Limits), in order. Memory O(1), for long series.
-func EWMAScan(x []float64, centre, sigma, lambda, l float64, visit func(i int, z float64, beyond bool)) error {
-	return ewmaScan(x, centre, sigma, lambda, l, nil, true, visit)
-}
-
-// EWMAScanAt is EWMAScan visiting only some points, in order: those listed
-// in at (ascending), every point beyond the limits and the point after
-// each of them (where a run beyond ends). A long series costs one tight
-// pass and a call per point visited.
-func EWMAScanAt(x []float64, centre, sigma, lambda, l float64, at []int, visit func(i int, z float64, beyond bool)) error {
-	return ewmaScan(x, centre, sigma, lambda, l, at, false, visit)
-}
-
-func ewmaScan(x []float64, centre, sigma, lambda, l float64, at []int, all bool, visit func(i int, z float64, beyond bool)) error {
-	if err := ctlCheckLambdaL(lambda, l); err != nil {
-		return err
-	}
-	if !(sigma >= 0) || math.IsInf(sigma, 0) || math.IsNaN(centre) || math.IsInf(centre, 0) {
-		return fmt.Errorf("centre %g and sigma %g: they must be finite, sigma >= 0", centre, sigma)
-	}
-	z := centre
-	a := 1.0 // (1−λ)^(2(i+1))
-	q := (1 - lambda) * (1 - lambda)
-	k := lambda / (2 - lambda)
-	h := 0.0
-	next, ai := ctlNextAt(at, 0, all)
-	was := false // the point before was beyond
-	for i, v := range x {
-		z = lambda*v + (1-lambda)*z
-		if 1-a != 1 { // once (1−λ)^(2(i+1)) is below the rounding of 1, h stays
-			a *= q
-			h = l * sigma * math.Sqrt(k*(1-a))
-		}
-		d := z - centre
-		beyond := d > h || d < -h
-		if beyond || was || i == next {
-			visit(i, z, beyond)
-			if i == next {
-				next, ai = ctlNextAt(at, ai+1, all)
-				if all {
-					next = i + 1
-				}
-			}
-		}
-		was = beyond
-	}
-	return nil
 }
 
 // ctlNextAt is the next point to visit from at[k:] (every point when all;

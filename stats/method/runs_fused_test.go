@@ -345,9 +345,10 @@ func ctlRandomSeries(seed uint64, n int) []float64 {
 	return x
 }
 
-// TestScanAtVisits: EWMAScanAt and CUSUMScanAt give the values of the full
-// scans at the points asked for, at every point beyond and at the point
-// after each, and at no other point.
+// TestScanAtVisits: the fused pass, each scan on its own (the other's
+// visit nil), gives the values of the full reference scans at the points
+// asked for, at every point beyond and at the point after each, and at no
+// other point.
 func TestScanAtVisits(t *testing.T) {
 	x := ctlRandomSeries(3, 5000)
 	at := []int{0, 7, 8, 500, 2001, 4999}
@@ -363,7 +364,7 @@ func TestScanAtVisits(t *testing.T) {
 	}
 	var full, got []ev
 	was := false
-	if err := EWMAScan(x, 0, 1, 0.2, 3, func(i int, z float64, out bool) {
+	if err := ewmaScanOld(x, 0, 1, 0.2, 3, nil, true, func(i int, z float64, out bool) {
 		if want(i, out, was) {
 			full = append(full, ev{i: i, a: z, out: out})
 		}
@@ -371,14 +372,14 @@ func TestScanAtVisits(t *testing.T) {
 	}); err != nil {
 		t.Fatal(err)
 	}
-	if err := EWMAScanAt(x, 0, 1, 0.2, 3, at, func(i int, z float64, out bool) { got = append(got, ev{i: i, a: z, out: out}) }); err != nil {
+	if err, _ := EWMACUSUMScanAt(x, 0, 1, 0.2, 3, 0, 0, at, func(i int, z float64, out bool) { got = append(got, ev{i: i, a: z, out: out}) }, nil); err != nil {
 		t.Fatal(err)
 	}
 	if !reflect.DeepEqual(full, got) || len(got) < len(at)+2 {
 		t.Fatalf("EWMA: %d visits, want %d", len(got), len(full))
 	}
 	full, got, was = nil, nil, false
-	if err := CUSUMScan(x, 0, 1, 0.5, 4, func(i int, up, lo float64, nu, nl int32, out bool) {
+	if err := cusumScanOld(x, 0, 1, 0.5, 4, nil, true, func(i int, up, lo float64, nu, nl int32, out bool) {
 		if want(i, out, was) {
 			full = append(full, ev{i, up, lo, nu - nl, out})
 		}
@@ -386,7 +387,7 @@ func TestScanAtVisits(t *testing.T) {
 	}); err != nil {
 		t.Fatal(err)
 	}
-	if err := CUSUMScanAt(x, 0, 1, 0.5, 4, at, func(i int, up, lo float64, nu, nl int32, out bool) {
+	if _, err := EWMACUSUMScanAt(x, 0, 1, 0, 0, 0.5, 4, at, nil, func(i int, up, lo float64, nu, nl int32, out bool) {
 		got = append(got, ev{i, up, lo, nu - nl, out})
 	}); err != nil {
 		t.Fatal(err)
@@ -438,9 +439,9 @@ func ctlLongRuns(seed uint64) []float64 {
 	return x
 }
 
-// TestEWMACUSUMScanAt: the fused pass visits the points EWMAScanAt and
-// CUSUMScanAt visit, with the same values, and a refused setting stops
-// only its own scan.
+// TestEWMACUSUMScanAt: the fused pass visits the points the single scans
+// (ewmaScanOld, cusumScanOld) visit, with the same values, and a refused
+// setting stops only its own scan.
 func TestEWMACUSUMScanAt(t *testing.T) {
 	type ev struct {
 		i          int
@@ -451,10 +452,10 @@ func TestEWMACUSUMScanAt(t *testing.T) {
 	x := ctlRandomSeries(5, 7000)
 	at := []int{0, 1, 64, 65, 3000, 6999}
 	var want []ev
-	if err := EWMAScanAt(x, 0.1, 0.9, 0.2, 3, at, func(i int, z float64, out bool) { want = append(want, ev{i: i, a: z, out: out}) }); err != nil {
+	if err := ewmaScanOld(x, 0.1, 0.9, 0.2, 3, at, false, func(i int, z float64, out bool) { want = append(want, ev{i: i, a: z, out: out}) }); err != nil {
 		t.Fatal(err)
 	}
-	if err := CUSUMScanAt(x, 0.1, 0.9, 0.5, 4, at, func(i int, up, lo float64, nu, nl int32, out bool) {
+	if err := cusumScanOld(x, 0.1, 0.9, 0.5, 4, at, false, func(i int, up, lo float64, nu, nl int32, out bool) {
 		want = append(want, ev{i, up, lo, nu, nl, out, true})
 	}); err != nil {
 		t.Fatal(err)
@@ -504,4 +505,79 @@ func TestFirstNonFinite(t *testing.T) {
 			}
 		}
 	}
+}
+
+// ewmaScanOld and cusumScanOld are the single scans EWMA and CUSUM had
+// before the fused pass (ctlScanEC), kept as the reference it is checked
+// against (TestEWMACUSUMScanAt, TestScanAtVisits): one recursion each, a
+// visit at every point when all, else at the points of at, at every point
+// beyond and at the point after each.
+func ewmaScanOld(x []float64, centre, sigma, lambda, l float64, at []int, all bool, visit func(i int, z float64, beyond bool)) error {
+	if err := ctlCheckLambdaL(lambda, l); err != nil {
+		return err
+	}
+	if !(sigma >= 0) || math.IsInf(sigma, 0) || math.IsNaN(centre) || math.IsInf(centre, 0) {
+		return fmt.Errorf("centre %g and sigma %g: they must be finite, sigma >= 0", centre, sigma)
+	}
+	z := centre
+	a := 1.0 // (1−λ)^(2(i+1))
+	q := (1 - lambda) * (1 - lambda)
+	k := lambda / (2 - lambda)
+	h := 0.0
+	next, ai := ctlNextAt(at, 0, all)
+	was := false // the point before was beyond
+	for i, v := range x {
+		z = lambda*v + (1-lambda)*z
+		if 1-a != 1 { // once (1−λ)^(2(i+1)) is below the rounding of 1, h stays
+			a *= q
+			h = l * sigma * math.Sqrt(k*(1-a))
+		}
+		d := z - centre
+		beyond := d > h || d < -h
+		if beyond || was || i == next {
+			visit(i, z, beyond)
+			if i == next {
+				next, ai = ctlNextAt(at, ai+1, all)
+				if all {
+					next = i + 1
+				}
+			}
+		}
+		was = beyond
+	}
+	return nil
+}
+
+func cusumScanOld(x []float64, centre, sigma, k, h float64, at []int, all bool, visit func(i int, up, lo float64, nu, nl int32, beyond bool)) error {
+	if err := ctlCheckKH(k, h); err != nil {
+		return err
+	}
+	if !(sigma >= 0) || math.IsInf(sigma, 0) || math.IsNaN(centre) || math.IsInf(centre, 0) {
+		return fmt.Errorf("centre %g and sigma %g: they must be finite, sigma >= 0", centre, sigma)
+	}
+	up, lo := 0.0, 0.0
+	var nu, nl int32
+	slack, decision := k*sigma, h*sigma
+	hi, low := centre+slack, centre-slack
+	next, ai := ctlNextAt(at, 0, all)
+	was := false
+	for i, v := range x {
+		up = max(0, v-hi+up) // the built-in max: no branch to mispredict
+		lo = max(0, low-v+lo)
+		// counts of points above 0 in a row, without branches
+		nu = (nu + 1) * int32(ctlU(up > 0))
+		nl = (nl + 1) * int32(ctlU(lo > 0))
+		beyond := up > decision || lo > decision
+		if beyond || was || i == next {
+			visit(i, up, lo, nu, nl, beyond)
+			if i == next {
+				next, ai = ctlNextAt(at, ai+1, all)
+				if all {
+					next = i + 1
+				}
+			}
+		}
+		was = beyond
+	}
+	return nil
 }
