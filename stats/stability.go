@@ -1118,18 +1118,17 @@ func (b *stabBuild) ewmaCusum(x []float64, centre, sigma float64, scale string) 
 			scC.step(alarmPt{j: j, a: up, b: lo}, out, side, max(0, start))
 		}
 	}
+	// one pass for both; thinned, it visits only the points drawn, the
+	// alarms and the points ending them, and the CUSUM's alarms join the
+	// drawing after the EWMA's, as when each had its own pass
+	scC.deferred = true
 	var errE, errC error
 	if b.keep != nil {
-		// thinned: one pass for both, visiting only the points drawn, the
-		// alarms and the points ending them; the CUSUM's alarms join the
-		// drawing after the EWMA's, as when each had its own pass
-		scC.deferred = true
 		errE, errC = method.EWMACUSUMScanAt(x, centre, sigma, lam, L, k, h, keepJ, visitE, visitC)
-		scC.replay()
 	} else {
-		errE = method.EWMAScan(x, centre, sigma, lam, L, visitE)
-		errC = method.CUSUMScan(x, centre, sigma, k, h, visitC)
+		errE, errC = method.EWMACUSUMScan(x, centre, sigma, lam, L, k, h, visitE, visitC)
 	}
+	scC.replay()
 	if errE == nil {
 		b.st.EWMA = &EWMAInfo{Lambda: lam, L: L, Scale: scale, Centre: centre, Sigma: sigma, Beyond: sc.beyond, Points: sortedPts(ewma, func(p EWMAPt) int { return p.I }),
 			ARL0: cachedARL("ewma", lam, L, 0), ARL1: cachedARL("ewma", lam, L, 1)}

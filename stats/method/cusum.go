@@ -30,7 +30,7 @@ func CUSUM(x []float64, centre, sigma, k, h float64) (CUSUMChart, error) {
 	c := CUSUMChart{K: k, H: h, Centre: centre, Sigma: sigma, Slack: k * sigma, Decision: h * sigma,
 		Upper: make([]float64, n), Lower: make([]float64, n),
 		UpperCount: make([]int32, n), LowerCount: make([]int32, n)}
-	_, err := ctlScanEC(x, centre, sigma, 0, 0, k, h, nil, true, nil, func(i int, up, lo float64, nu, nl int32, beyond bool) {
+	_, err := EWMACUSUMScan(x, centre, sigma, 0, 0, k, h, nil, func(i int, up, lo float64, nu, nl int32, beyond bool) {
 		c.Upper[i], c.Lower[i], c.UpperCount[i], c.LowerCount[i] = up, lo, nu, nl
 		if beyond {
 			c.Beyond = append(c.Beyond, i)
@@ -127,8 +127,15 @@ func EWMACUSUMScanAt(x []float64, centre, sigma, lambda, l, k, h float64, at []i
 	return ctlScanEC(x, centre, sigma, lambda, l, k, h, at, false, visitE, visitC)
 }
 
-// ctlScanEC is EWMACUSUMScanAt, visiting every point when all (EWMA and
-// CUSUM keep them all); a nil visit function leaves its scan out.
+// EWMACUSUMScan is EWMACUSUMScanAt visiting every point, in order (EWMA
+// and CUSUM keep them all; a short series draws them all).
+func EWMACUSUMScan(x []float64, centre, sigma, lambda, l, k, h float64,
+	visitE func(i int, z float64, beyond bool), visitC func(i int, up, lo float64, nu, nl int32, beyond bool)) (errE, errC error) {
+	return ctlScanEC(x, centre, sigma, lambda, l, k, h, nil, true, visitE, visitC)
+}
+
+// ctlScanEC is EWMACUSUMScanAt, visiting every point when all; a nil
+// visit function leaves its scan out.
 func ctlScanEC(x []float64, centre, sigma, lambda, l, k, h float64, at []int, all bool,
 	visitE func(i int, z float64, beyond bool), visitC func(i int, up, lo float64, nu, nl int32, beyond bool)) (errE, errC error) {
 	if !(sigma >= 0) || math.IsInf(sigma, 0) || math.IsNaN(centre) || math.IsInf(centre, 0) {

@@ -48,7 +48,7 @@ func ctlCheckLambdaL(lambda, l float64) error {
 // EWMAARL for a wanted in-control run length.
 func EWMA(x []float64, centre, sigma, lambda, l float64) (EWMAChart, error) {
 	c := EWMAChart{Lambda: lambda, L: l, Centre: centre, Sigma: sigma, Z: make([]float64, len(x))}
-	err, _ := ctlScanEC(x, centre, sigma, lambda, l, 0, 0, nil, true, func(i int, z float64, beyond bool) {
+	err, _ := EWMACUSUMScan(x, centre, sigma, lambda, l, 0, 0, func(i int, z float64, beyond bool) {
 		c.Z[i] = z
 		if beyond {
 			c.Beyond = append(c.Beyond, i)

@@ -145,7 +145,6 @@ func PairwiseMannWhitney[T RankNumber](groups [][]T) ([]RankPair, error) {
 	k := len(s)
 	dists := map[[2]int]grpWilcoxDist{}
 	out := make([]RankPair, 0, k*(k-1)/2)
-	ps := make([]float64, 0, k*(k-1)/2)
 	for i := 0; i < k; i++ {
 		for j := i + 1; j < k; j++ {
 			m, n := len(s[i]), len(s[j])
@@ -165,17 +164,9 @@ func PairwiseMannWhitney[T RankNumber](groups [][]T) ([]RankPair, error) {
 				p = 1
 			}
 			out = append(out, RankPair{I: i, J: j, Stat: w, P: p, Exact: exact})
-			ps = append(ps, p)
 		}
 	}
-	adj, err := Holm(ps)
-	if err != nil {
-		return nil, err
-	}
-	for i := range out {
-		out[i].PAdj = adj[i]
-	}
-	return out, nil
+	return holmAdjust(out)
 }
 
 // Dunn is Dunn's (1964) test of all pairs after a Kruskal-Wallis test
@@ -200,7 +191,6 @@ func grpDunn[T RankNumber](groups [][]T, rk grpRanks) ([]RankPair, error) {
 		return nil, grpErr(GroupsNoSpread, -1, 0)
 	}
 	out := make([]RankPair, 0, k*(k-1)/2)
-	ps := make([]float64, 0, k*(k-1)/2)
 	for i := 0; i < k; i++ {
 		for j := i + 1; j < k; j++ {
 			ni, nj := float64(len(groups[i])), float64(len(groups[j]))
@@ -210,17 +200,9 @@ func grpDunn[T RankNumber](groups [][]T, rk grpRanks) ([]RankPair, error) {
 				return nil, grpErr(GroupsNotFinite, -1, 0)
 			}
 			out = append(out, RankPair{I: i, J: j, Stat: z, P: p})
-			ps = append(ps, p)
 		}
 	}
-	adj, err := Holm(ps)
-	if err != nil {
-		return nil, err
-	}
-	for i := range out {
-		out[i].PAdj = adj[i]
-	}
-	return out, nil
+	return holmAdjust(out)
 }
 
 // Holm is Holm's (1979) step-down adjustment of p-values for multiple
@@ -397,4 +379,21 @@ func grpAbsorb(cols []uint64) []uint64 {
 		}
 	}
 	return out
+}
+
+// holmAdjust fills each pair's PAdj: its p-value adjusted over all the
+// pairs by Holm's (1979) method.
+func holmAdjust(out []RankPair) ([]RankPair, error) {
+	ps := make([]float64, len(out))
+	for i, p := range out {
+		ps[i] = p.P
+	}
+	adj, err := Holm(ps)
+	if err != nil {
+		return nil, err
+	}
+	for i := range out {
+		out[i].PAdj = adj[i]
+	}
+	return out, nil
 }
