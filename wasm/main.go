@@ -10,7 +10,8 @@
 //	lotlensRun(requestJSON, useTable) -> {json, svg}   report JSON + charts as SVG text
 //	lotlensBegin(name, size)                           start reading a file
 //	lotlensChunk(uint8Array) -> bytes so far | errorJSON  feed the next chunk
-//	lotlensEnd() -> JSON                               finish: fingerprint, columns
+//	lotlensEnd(digest?) -> JSON                        finish: fingerprint, columns; digest: the
+//	                                                   file's SHA-256 in hex if the page computed it
 //	lotlensCancel() -> errorJSON (code "cancelled")    abandon the read
 //	lotlensForget()                                    drop the kept table and bytes
 //	lotlensShare(shareJSON, form) -> {json, bytes?}    a share payload: form "link" (json has
@@ -81,7 +82,8 @@ func main() {
 		return float64(read)
 	}))
 	g.Set("lotlensEnd", js.FuncOf(func(this js.Value, args []js.Value) any {
-		return string(s.End())
+		digest, _ := str(args, 0)
+		return string(s.End(digest))
 	}))
 	g.Set("lotlensCancel", js.FuncOf(func(this js.Value, args []js.Value) any {
 		return string(s.Cancel())

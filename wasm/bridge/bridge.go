@@ -13,11 +13,8 @@
 package bridge
 
 import (
-	"crypto/sha256"
-	"encoding/hex"
 	"encoding/json"
 	"fmt"
-	"hash"
 	"unsafe"
 
 	"lotlens/stats"
@@ -48,7 +45,6 @@ type Session struct {
 	active    bool
 	cancelled bool
 	name      string
-	h         hash.Hash
 	rd        *chunkReader
 	read      int64
 	// last table read from a file (or opened from a shared payload)
@@ -69,7 +65,7 @@ type Session struct {
 // dropping any earlier read.
 func (s *Session) Begin(name string, size int64) {
 	s.Cancel()
-	s.active, s.cancelled, s.name, s.h, s.rd, s.read = true, false, name, sha256.New(), newChunkReader(size), 0
+	s.active, s.cancelled, s.name, s.rd, s.read = true, false, name, newChunkReader(size, ShareBytesMax), 0
 }
 
 // Write feeds the next chunk of the file. It returns the bytes read so far.
@@ -87,7 +83,6 @@ func (s *Session) Write(p []byte) (n int64, err error) {
 		}
 		return 0, &stats.Error{Code: stats.CodeNoFile, Msg: "no file is being read: call begin first"}
 	}
-	s.h.Write(p)
 	if err := s.rd.Write(p); err != nil {
 		s.Cancel()
 		return 0, err
@@ -98,7 +93,11 @@ func (s *Session) Write(p []byte) (n int64, err error) {
 
 // End finishes reading and keeps the table for Analyze. It returns JSON:
 // {"name","bytes","fingerprint","columns","summary"} or an error object.
-func (s *Session) End() (out []byte) {
+// digest is the file's SHA-256 as 64 lowercase hex digits when the caller
+// has computed it (the page does, with the browser's Web Crypto, on another
+// thread while the engine parses), or "" for the session to compute it
+// (chunkReader.fingerprint says when a given digest is used).
+func (s *Session) End(digest string) (out []byte) {
 	defer func() {
 		if r := recover(); r != nil {
 			s.Cancel()
@@ -113,9 +112,9 @@ func (s *Session) End() (out []byte) {
 		return ErrorJSON(&stats.Error{Code: stats.CodeNoFile, Msg: "no file is being read"})
 	}
 	tab, err := s.rd.Finish()
-	fp := hex.EncodeToString(s.h.Sum(nil))
+	fp := s.rd.fingerprint(digest)
 	name, n, rd := s.name, s.read, s.rd
-	s.active, s.rd, s.h = false, nil, nil
+	s.active, s.rd = false, nil
 	if err != nil {
 		s.Forget()
 		return ErrorJSON(fmt.Errorf("%s: %w", name, err))
@@ -139,7 +138,7 @@ func (s *Session) End() (out []byte) {
 // too only when a new read begins.
 func (s *Session) Cancel() []byte {
 	s.cancelled = s.active
-	s.active, s.rd, s.h, s.read = false, nil, nil, 0
+	s.active, s.rd, s.read = false, nil, 0
 	return ErrorJSON(&stats.Error{Code: stats.CodeCancelled, Msg: "reading cancelled: nothing was analysed"})
 }
 

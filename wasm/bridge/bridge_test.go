@@ -71,7 +71,7 @@ func TestFingerprintWhileStreaming(t *testing.T) {
 		Bytes       int64  `json:"bytes"`
 		Error       string `json:"error"`
 	}
-	if err := json.Unmarshal(s.End(), &end); err != nil || end.Error != "" {
+	if err := json.Unmarshal(s.End(""), &end); err != nil || end.Error != "" {
 		t.Fatalf("end: %v %s", err, end.Error)
 	}
 	// sha256sum (GNU coreutils 9.1) of the same 15 bytes.
@@ -80,6 +80,56 @@ func TestFingerprintWhileStreaming(t *testing.T) {
 	}
 	if end.Bytes != 15 {
 		t.Errorf("bytes %d, want 15", end.Bytes)
+	}
+}
+
+// The fingerprint comes from the caller's digest only when the reader kept
+// the bytes and the digest has the form of a SHA-256; otherwise the reader
+// hashes: a malformed digest, and a file that outgrows the bytes kept (no
+// size given up front, so the switch happens mid-file and the bytes
+// already kept must be hashed first).
+func TestFingerprintDigestGiven(t *testing.T) {
+	data := []byte("5.12\n5.08\n5.10\n")
+	// sha256sum (GNU coreutils 9.1) of the same 15 bytes, as above.
+	const sum = "31f51fd5706103f52a2d313c1446945b0b7d9d39a16d18368e6698640ee0fde3"
+	end := func(s *Session, digest string) string {
+		var e struct {
+			Fingerprint string `json:"fingerprint"`
+			Error       string `json:"error"`
+		}
+		if err := json.Unmarshal(s.End(digest), &e); err != nil || e.Error != "" {
+			t.Fatalf("end: %v %s", err, e.Error)
+		}
+		return e.Fingerprint
+	}
+	// a well-formed digest is taken as given (the page's Web Crypto computed it)
+	given := strings.Repeat("0123456789abcdef", 4)
+	var s Session
+	feed(t, &s, data, 4)
+	if fp := end(&s, given); fp != given {
+		t.Errorf("given digest: fingerprint %s, want %s", fp, given)
+	}
+	if rep := s.run(t, `{"options":{}}`, true); rep.Report.Input.Fingerprint != given {
+		t.Errorf("given digest: report fingerprint %s", rep.Report.Input.Fingerprint)
+	}
+	for _, bad := range []string{"", "xyz", strings.ToUpper(sum), sum[:63], sum + "0"} {
+		feed(t, &s, data, 4)
+		if fp := end(&s, bad); fp != sum {
+			t.Errorf("digest %q: fingerprint %s, want the reader's own %s", bad, fp, sum)
+		}
+	}
+	// bytes not kept: the reader's own hash of every byte, whatever is given
+	for _, max := range []int{0, 5, 9, 14} {
+		s.Begin("grows.txt", 0)
+		s.rd = newChunkReader(0, max)
+		for i := 0; i < len(data); i += 4 {
+			if _, err := s.Write(data[i:min(i+4, len(data))]); err != nil {
+				t.Fatal(err)
+			}
+		}
+		if fp := end(&s, given); fp != sum {
+			t.Errorf("kept at most %d bytes: fingerprint %s, want %s", max, fp, sum)
+		}
 	}
 }
 
@@ -100,7 +150,7 @@ func TestChunkedEqualsPasted(t *testing.T) {
 	for _, chunk := range []int{1, 7, 4096, len(data)} {
 		var s Session
 		feed(t, &s, data, chunk)
-		s.End()
+		s.End("")
 		got := s.run(t, `{"options":{}}`, true)
 		if got.Error != "" {
 			t.Fatalf("chunk %d: %s", chunk, got.Error)
@@ -125,7 +175,7 @@ func TestCancelAndErrors(t *testing.T) {
 	}
 	feed(t, &s, []byte("1\n2\n3\n"), 2)
 	s.Cancel()
-	if r := decode(t, s.End(), nil); r.Error == "" {
+	if r := decode(t, s.End(""), nil); r.Error == "" {
 		t.Error("end after cancel gave no error")
 	}
 	if r := s.run(t, `{}`, true); !strings.Contains(r.Error, "no file") {
@@ -169,7 +219,7 @@ func TestPanicBecomesError(t *testing.T) {
 		t.Errorf("automation entry: code %q", code)
 	}
 	feed(t, &s, []byte("5.1\n5.2\n5.3\n"), 3)
-	s.End()
+	s.End("")
 	if _, code := errorCode(t, func() []byte { b, _ := s.Analyze([]byte(`{}`), true); return b }()); code != stats.CodeInternal {
 		t.Errorf("panic on the kept table: code %q", code)
 	}
@@ -182,7 +232,7 @@ func TestPanicBecomesError(t *testing.T) {
 // Cancel, and the calls after it, answer with code "cancelled".
 func TestCancelCode(t *testing.T) {
 	var s Session
-	if _, code := errorCode(t, s.End()); code != stats.CodeNoFile {
+	if _, code := errorCode(t, s.End("")); code != stats.CodeNoFile {
 		t.Errorf("end without a file: code %q", code)
 	}
 	s.Begin("a.txt", 0)
@@ -193,7 +243,7 @@ func TestCancelCode(t *testing.T) {
 	if _, err := s.Write([]byte("1\n")); !errors.As(err, &e) || e.Code != stats.CodeCancelled {
 		t.Errorf("write after cancel: %v", err)
 	}
-	if _, code := errorCode(t, s.End()); code != stats.CodeCancelled {
+	if _, code := errorCode(t, s.End("")); code != stats.CodeCancelled {
 		t.Errorf("end after cancel: code %q", code)
 	}
 }

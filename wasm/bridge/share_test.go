@@ -62,7 +62,7 @@ func TestShareFileSameReport(t *testing.T) {
 	var s Session
 	feed(t, &s, data, 7)
 	var end struct{ Fingerprint string }
-	json.Unmarshal(s.End(), &end)
+	json.Unmarshal(s.End(""), &end)
 	sum := sha256.Sum256(data)
 	if end.Fingerprint != hex.EncodeToString(sum[:]) {
 		t.Fatalf("fingerprint %s", end.Fingerprint)
@@ -197,7 +197,7 @@ func TestShareRefused(t *testing.T) {
 	// A file over ShareBytesMax keeps no bytes and cannot be shared.
 	s.Begin("big.txt", ShareBytesMax+1)
 	s.Write([]byte("5.1\n5.2\n5.3\n"))
-	s.End()
+	s.End("")
 	if msg, code := errorCode(t, first(s.Share(shareReq(t, `{}`, true), FormFile))); code != stats.CodeTooLarge || !strings.Contains(msg, "64 MB") {
 		t.Errorf("file over the limit: %q %q", code, msg)
 	}
@@ -251,7 +251,7 @@ func TestOpenErrors(t *testing.T) {
 	} {
 		var s Session
 		feed(t, &s, []byte("1\n2\n3\n"), 10)
-		s.End()
+		s.End("")
 		rep, meta, svg := s.Open(c.in, c.form)
 		msg, code := errorCode(t, rep)
 		if code != c.code || !strings.Contains(msg, c.ask) || meta != nil || svg != nil {
@@ -273,7 +273,7 @@ func TestOpenErrors(t *testing.T) {
 func TestForgetLeavesNothing(t *testing.T) {
 	var s Session
 	feed(t, &s, []byte("5.1\n5.2\n5.3\n"), 4)
-	s.End()
+	s.End("")
 	if s.raw != "5.1\n5.2\n5.3\n" {
 		t.Fatalf("kept %q", s.raw)
 	}
