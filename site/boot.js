@@ -1,7 +1,8 @@
 // Boot: starts the engine's Web Worker (engine.js) while the page's modules
 // are still loading, so the engine's download and compilation begin at once
-// rather than after the whole module graph has arrived. A classic script in
-// the head (modules run only once every import has loaded). Messages that
+// rather than after the whole module graph has arrived. A classic script,
+// first in the head after the security policy (modules run only once every
+// import has loaded, and a script placed after a stylesheet waits for it). Messages that
 // arrive before engine-client.js takes the worker over are kept and handed
 // to it (adopt()). Nothing else happens here.
 "use strict";

@@ -18,23 +18,24 @@
 // then {type:"warmed", ms, json, svg} when the warm-up has run every stage
 // (json and svg: the last stage's report, for the page to warm its rendering).
 "use strict";
-importScripts("wasm_exec.js");
-
-const go = new Go();
 // Load phases on the shared clock (performance.timeOrigin + now), sent to
 // the page before the Go side says "ready" (for `make bench-page`).
 const abs = () => performance.timeOrigin + performance.now();
 const phases = { workerStart: abs() };
-async function load() {
-  const url = "lotlens.wasm";
-  try {
-    const resp = fetch(url).then((r) => { phases.response = abs(); return r; });
-    return await WebAssembly.instantiateStreaming(resp, go.importObject);
-  } catch (e) {
+// The engine's download and compilation start first, before wasm_exec.js
+// is fetched: compiling needs no imports, only instantiating does.
+const wasmURL = "lotlens.wasm";
+const compiled = WebAssembly.compileStreaming(fetch(wasmURL).then((r) => { phases.response = abs(); return r; }))
+  .catch(async () => {
     // a server without the application/wasm type: compile from bytes
-    const buf = await (await fetch(url)).arrayBuffer();
-    return WebAssembly.instantiate(buf, go.importObject);
-  }
+    const buf = await (await fetch(wasmURL)).arrayBuffer();
+    return WebAssembly.compile(buf);
+  });
+importScripts("wasm_exec.js");
+
+const go = new Go();
+async function load() {
+  return WebAssembly.instantiate(await compiled, go.importObject);
 }
 // Warm-up: browsers compile WebAssembly functions lazily and optimise the
 // busy ones later, and the Go runtime grows its heap on first use, so the
@@ -96,11 +97,11 @@ function warmUp() {
   setTimeout(warmUp, 10);
 }
 load()
-  .then((r) => {
+  .then((instance) => {
     phases.compiled = abs();
     postMessage({ type: "phases", phases });
     setTimeout(warmUp, 0);
-    return go.run(r.instance);
+    return go.run(instance);
   })
   .catch((e) => postMessage({ type: "error", error: "The engine did not load (" + e + "). Reload the page; if it persists, the browser may block WebAssembly." }));
 
