@@ -187,6 +187,14 @@ type ctlEC struct {
 	hi, low, decision, centre    float64
 }
 
+// ctlPos is max(0, s) for every s that is not NaN (-0 gives +0), without a
+// branch to mispredict and without the call that WebAssembly makes for the
+// built-in max of floats: a negative s (sign bit set) has every bit cleared.
+func ctlPos(s float64) float64 {
+	b := math.Float64bits(s)
+	return math.Float64frombits(b &^ uint64(int64(b)>>63))
+}
+
 // run advances the state from point from and stops at the first point to
 // visit (at next, beyond, or just after a point beyond), returning it
 // (len(x) when none is left).
@@ -205,8 +213,8 @@ func (s *ctlEC) run(x []float64, from, next int) int {
 		}
 		d := z - centre
 		beyondE = d > hw || d < -hw
-		up = max(0, v-hi+up) // the built-in max: no branch to mispredict
-		lo = max(0, low-v+lo)
+		up = ctlPos(v - hi + up)
+		lo = ctlPos(low - v + lo)
 		nu = (nu + 1) * int32(ctlU(up > 0))
 		nl = (nl + 1) * int32(ctlU(lo > 0))
 		beyondC = up > decision || lo > decision

@@ -3,6 +3,7 @@ package method
 import (
 	"fmt"
 	"math"
+	"math/rand/v2"
 	"testing"
 )
 
@@ -65,6 +66,25 @@ func TestCUSUMARL(t *testing.T) {
 	for _, bad := range [][2]float64{{-1, 4}, {0.5, 0}, {math.NaN(), 4}} {
 		if _, err := CUSUMARL(bad[0], bad[1], 0); err == nil {
 			t.Errorf("%v: no error", bad)
+		}
+	}
+}
+
+// ctlPos is the built-in max(0, s) for every s but NaN, bit for bit (so -0
+// gives +0, as max does): checked on the edge cases and on random bits.
+func TestCtlPos(t *testing.T) {
+	same := func(s float64) {
+		if got, want := ctlPos(s), max(0, s); math.Float64bits(got) != math.Float64bits(want) {
+			t.Errorf("ctlPos(%v) = %v (%#x), max(0, s) = %v", s, got, math.Float64bits(got), want)
+		}
+	}
+	for _, s := range []float64{0, math.Copysign(0, -1), 1, -1, 5e-324, -5e-324, math.MaxFloat64, -math.MaxFloat64, math.Inf(1), math.Inf(-1)} {
+		same(s)
+	}
+	r := rand.New(rand.NewPCG(1, 2))
+	for i := 0; i < 100000; i++ {
+		if s := math.Float64frombits(r.Uint64()); !math.IsNaN(s) {
+			same(s)
 		}
 	}
 }
