@@ -204,6 +204,12 @@ func imSelectHint(m *imMatrix, k int64, next bool, hint *imHint) (vk, vk1 float6
 			}
 			imSortSample(samp)
 			s := len(samp)
+			if s == 0 {
+				// Only when walks and val disagree (NaN kernel values
+				// from an infinite value among the data): cannot
+				// compute, never panic.
+				return math.NaN(), math.NaN()
+			}
 			kk := k - below
 			centre := int(float64(kk) / float64(W) * float64(s))
 			var i1, i2 int
@@ -465,6 +471,18 @@ func medcoupleMiddle(sorted []float64) (lo, hi float64, ok bool) {
 	if n%2 == 0 {
 		m = sorted[n/2-1]/2 + sorted[n/2]/2
 	}
+	// Few distinct values (readings to an instrument's resolution): select
+	// over the distinct pairs with their counts (mcTally, same values).
+	if t := newMcTally(sorted, m, mcTallyMaxDistinct(n)); t != nil {
+		return t.middle()
+	}
+	return medcoupleImplicit(sorted, m)
+}
+
+// medcoupleImplicit is medcoupleMiddle by imSelect over the kernel matrix of
+// all the values about the median m.
+func medcoupleImplicit(sorted []float64, m float64) (lo, hi float64, ok bool) {
+	n := len(sorted)
 	mx := mcMatrix(sorted, m)
 	if mx == nil {
 		return 0, 0, false
