@@ -22,7 +22,7 @@ import (
 // Monahan 1984: random pivots, staircase counts, narrowing each row's
 // range of columns), here with each cell counted by its weight: O(D log D)
 // expected for D = D_lo + D_hi distinct values, after an O(D log(n/D))
-// search for the runs of equal values. Both this and imSelect return the
+// search for the runs of equal values, against O(n log n) for imSelect. Both this and imSelect return the
 // exact order statistics of the same kernel values (they rely on the
 // rounded kernel increasing along rows and columns, as the definition's
 // kernel does), so the medcouple is the same to the last bit.
@@ -43,10 +43,14 @@ type mcTally struct {
 }
 
 // mcTallyShare: the tally is used when the distinct values other than the
-// median number at most n/mcTallyShare (measured on 10,000 and 1,000,000
-// readings: with fewer distinct values the tally is faster than imSelect
-// over all the values, see BenchmarkMedcoupleTied).
-const mcTallyShare = 8
+// median number at most n/mcTallyShare. Measured on normal readings rounded
+// to steps giving 576 to 9861 distinct values among 10,000 and 834 to
+// 372,954 among 1,000,000: the tally took from 1/28 (10,000 readings, 576
+// distinct) and 1/230 (1,000,000, 834 distinct) of imSelect's time to
+// about the same at 6,600 of 10,000 and 1.6 times it at 373,000 of
+// 1,000,000 (one third of imSelect's time at 148,000);
+// BenchmarkMedcoupleTallyShare.
+const mcTallyShare = 5
 
 // mcTallyMaxDistinct is the most distinct values for which medcoupleMiddle
 // uses the tally on n values (a variable so that the tests can force
@@ -186,18 +190,32 @@ func (t *mcTally) smallestAbove(th float64) float64 {
 	return v
 }
 
-// mcTallyGather: the candidates are sorted directly once this few distinct
-// pairs remain.
-const mcTallyGather = 256
+// Sizes of the tally's selection rounds: the sample drawn per round (a
+// quarter of the number of distinct values, within these bounds, so that
+// drawing it costs about as much as the round's two staircases), and the
+// number of distinct pairs left below which they are sorted directly (at
+// least the number of distinct values: about the cost of one round).
+const (
+	mcTallySampleMin = 64
+	mcTallySampleMax = 4096
+	mcTallyGatherMin = 256
+)
+
+// mcTallyConst are the kernel values of the pairs with a value equal to the
+// median, ascending.
+var mcTallyConst = [3]float64{-1, 0, 1}
 
 // selectRank returns the kernel value of rank k (0-based, ascending, each
 // distinct pair counted by its weight). As imSelect: every row keeps the
-// range of columns that may still hold rank k; a pivot drawn at random
-// from the remaining pairs is counted by two staircases (below it, up to
-// it); the ranges are narrowed to the side that holds rank k; once few
-// pairs remain they are sorted with their weights. The kernel values
-// -1, 0, +1 of the median's ties take part through count and the final
-// gathering (within the bounds lo < v < hi).
+// range of columns that may still hold rank k; each round draws a sample of
+// the remaining kernel values by weight, takes two sample quantiles
+// bracketing rank k as pivots (Floyd and Rivest 1975), or one when the
+// last round kept more than half (progress through ties), counts below
+// the lower and up to the upper pivot by two staircases, and narrows the
+// ranges to the side or the band that holds rank k; once few pairs remain
+// they are sorted with their weights. The kernel values -1, 0, +1 of the
+// median's ties take part in the counts, the samples and the final sort
+// while within the bounds.
 func (t *mcTally) selectRank(k int64) float64 {
 	rows, cols := len(t.w), len(t.u)
 	rng := rand.New(rand.NewPCG(0x4c6f746c656e73, uint64(k)))
@@ -207,41 +225,119 @@ func (t *mcTally) selectRank(k int64) float64 {
 		end[i] = int32(cols)
 	}
 	bLT, bLE := make([]int32, rows), make([]int32, rows)
-	lo, hi := math.Inf(-1), math.Inf(1) // active values: lo < v < hi
-	below := int64(0)                   // values <= lo
-	active := int64(rows) * int64(cols) // active pairs (unweighted)
-	for active > mcTallyGather {
-		// A pair drawn uniformly from the active ones.
-		r := rng.Int64N(active)
-		i := 0
-		for ; i < rows; i++ {
-			if w := int64(end[i] - first[i]); w > 0 {
-				if r < w {
-					break
-				}
-				r -= w
+	lower := imBound{math.Inf(-1), true} // as in imSelect
+	upper := imBound{math.Inf(1), false}
+	inBounds := func(v float64) bool {
+		return (v > lower.t || (lower.strict && v == lower.t)) &&
+			(v < upper.t || (!upper.strict && v == upper.t))
+	}
+	constW := func(c int) int64 {
+		return [3]int64{t.neg, t.zero, t.pos}[c]
+	}
+	below := int64(0) // values excluded by the lower bound (all smaller)
+	gatherLim := int64(max(mcTallyGatherMin, rows+cols))
+	sN := min(mcTallySampleMax, max(mcTallySampleMin, (rows+cols)/4))
+	samp := make([]float64, 0, sN)
+	pos := make([]int64, sN)
+	cum := make([]float64, sN)
+	single := false
+	oldW := int64(math.MaxInt64)
+	for round := 0; round < 200; round++ {
+		// Active pairs (unweighted) and active values (weighted).
+		var cells, W int64
+		for i := range first {
+			if end[i] > first[i] {
+				cells += int64(end[i] - first[i])
+				W += t.cw[i] * (t.cuBelow[end[i]] - t.cuBelow[first[i]])
 			}
 		}
-		piv := t.h(i, int(first[i])+int(r))
-		cLT := t.count(piv, true, bLT)
-		cLE := t.count(piv, false, bLE)
+		for c, v := range mcTallyConst {
+			if inBounds(v) {
+				W += constW(c)
+			}
+		}
+		if cells <= gatherLim || W <= 0 {
+			break
+		}
+		single = single || W > oldW/2
+		oldW = W
+		// Sample by weight: sorted positions in [0, W), the constants
+		// first, then the rows; within a row the column by its count.
+		// (sorted uniforms from the sums of exponential spacings,
+		// Devroye 1986, ch. 5, no sort needed)
+		sum := 0.0
+		for i := range cum {
+			sum += rng.ExpFloat64()
+			cum[i] = sum
+		}
+		sum += rng.ExpFloat64()
+		for i, c := range cum {
+			pos[i] = min(int64(c/sum*float64(W)), W-1)
+		}
+		samp = samp[:0]
+		pi, acc := 0, int64(0)
+		for c, v := range mcTallyConst {
+			if !inBounds(v) {
+				continue
+			}
+			acc += constW(c)
+			for pi < len(pos) && pos[pi] < acc {
+				samp = append(samp, v)
+				pi++
+			}
+		}
+		for i := range first {
+			if end[i] <= first[i] {
+				continue
+			}
+			base := t.cuBelow[first[i]]
+			rw := t.cw[i] * (t.cuBelow[end[i]] - base)
+			for pi < len(pos) && pos[pi] < acc+rw {
+				// column j with cuBelow[j] <= base+o < cuBelow[j+1]
+				o := base + (pos[pi]-acc)/t.cw[i]
+				j, _ := slices.BinarySearch(t.cuBelow[first[i]:end[i]+1], o+1)
+				samp = append(samp, t.h(i, int(first[i])+j-1))
+				pi++
+			}
+			acc += rw
+		}
+		s := len(samp)
+		centre := int(float64(k-below) / float64(W) * float64(s))
+		var i1, i2 int
+		if single {
+			i1 = min(max(centre, 0), s-1)
+			i2 = i1
+			single = false
+		} else {
+			d := int(1.5*math.Sqrt(float64(s))) + 2
+			i1, i2 = max(centre-d, 0), min(centre+d, s-1)
+		}
+		// the two sample quantiles (floatSelect leaves samp[i1:] the
+		// values from rank i1 on)
+		lo := floatSelect(samp, i1)
+		hi := floatSelect(samp[i1:], i2-i1)
+		cLT := t.count(lo, true, bLT)
+		cLE := t.count(hi, false, bLE)
 		switch {
-		case k < cLT:
-			hi = piv
+		case k < cLT: // rank k is below lo
+			upper = imBound{lo, true}
 			for i := range end {
 				end[i] = min(end[i], bLT[i])
 			}
-		case k >= cLE:
-			lo, below = piv, cLE
+		case k >= cLE: // rank k is above hi
+			lower, below = imBound{hi, false}, cLE
 			for i := range first {
 				first[i] = max(first[i], bLE[i])
 			}
-		default:
-			return piv
-		}
-		active = 0
-		for i := range first {
-			active += int64(max(0, end[i]-first[i]))
+		default: // lo <= rank k <= hi
+			if lo == hi {
+				return lo
+			}
+			lower, upper, below = imBound{lo, true}, imBound{hi, false}, cLT
+			for i := range first {
+				first[i] = max(first[i], bLT[i])
+				end[i] = min(end[i], bLE[i])
+			}
 		}
 	}
 	type wv struct {
@@ -254,9 +350,9 @@ func (t *mcTally) selectRank(k int64) float64 {
 			buf = append(buf, wv{t.h(i, int(j)), t.cw[i] * (t.cuBelow[j+1] - t.cuBelow[j])})
 		}
 	}
-	for _, e := range [...]wv{{-1, t.neg}, {0, t.zero}, {1, t.pos}} {
-		if e.n > 0 && lo < e.v && e.v < hi {
-			buf = append(buf, e)
+	for c, v := range mcTallyConst {
+		if n := constW(c); n > 0 && inBounds(v) {
+			buf = append(buf, wv{v, n})
 		}
 	}
 	slices.SortFunc(buf, func(a, b wv) int { return cmp.Compare(a.v, b.v) })

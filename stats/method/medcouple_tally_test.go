@@ -1,6 +1,7 @@
 package method
 
 import (
+	"fmt"
 	"math"
 	"math/rand/v2"
 	"slices"
@@ -211,5 +212,38 @@ func BenchmarkMedcoupleTied(b *testing.B) {
 				medcoupleImplicit(x, m)
 			}
 		})
+	}
+}
+
+// The switch between the tally and imSelect (mcTallyShare): both on normal
+// readings rounded to steps giving from a few hundred to nearly n distinct
+// values (D in the name), 10,000 and 1,000,000 readings.
+func BenchmarkMedcoupleTallyShare(b *testing.B) {
+	for _, n := range []int{10_000, 1_000_000} {
+		for _, res := range []float64{1e2, 1e3, 3e3, 1e4, 3e4, 1e5} {
+			rng := rand.New(rand.NewPCG(1, 2))
+			x := make([]float64, n)
+			for i := range x {
+				x[i] = math.Round(rng.NormFloat64()*res) / res
+			}
+			slices.Sort(x)
+			m := x[(n-1)/2]/2 + x[n/2]/2
+			d := 0
+			for i := range x {
+				if i == 0 || x[i] != x[i-1] {
+					d++
+				}
+			}
+			b.Run(fmt.Sprintf("n%d/D%d/tally", n, d), func(b *testing.B) {
+				for b.Loop() {
+					newMcTally(x, m, n).middle()
+				}
+			})
+			b.Run(fmt.Sprintf("n%d/D%d/imSelect", n, d), func(b *testing.B) {
+				for b.Loop() {
+					medcoupleImplicit(x, m)
+				}
+			})
+		}
 	}
 }
