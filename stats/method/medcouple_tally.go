@@ -78,22 +78,32 @@ func newMcTally(sorted []float64, m float64, maxD int) *mcTally {
 	if lo, hi := sorted[0]-m, sorted[n-1]-m; !normalFinite(hi - lo) {
 		return nil
 	}
-	t := &mcTally{}
-	d := 0
+	// Count the runs first (stopping past maxD: continuous data cost at
+	// most maxD steps and no allocation), then tally them.
+	dl := 0
+	for i := 0; i < q && dl <= maxD; i = mcRunEnd(sorted[:q], i) {
+		dl++
+	}
+	du := 0
+	for i := p; i < n && dl+du <= maxD; i = mcRunEnd(sorted, i) {
+		du++
+	}
+	if dl+du > maxD {
+		return nil
+	}
+	t := &mcTally{
+		w:       make([]float64, 0, dl),
+		cw:      make([]int64, 0, dl),
+		u:       make([]float64, 0, du),
+		cuBelow: make([]int64, 1, du+1),
+	}
 	for i := 0; i < q; {
-		if d++; d > maxD {
-			return nil
-		}
 		j := mcRunEnd(sorted[:q], i)
 		t.w = append(t.w, sorted[i]-m)
 		t.cw = append(t.cw, int64(j-i))
 		i = j
 	}
-	t.cuBelow = append(t.cuBelow, 0)
 	for i := p; i < n; {
-		if d++; d > maxD {
-			return nil
-		}
 		j := mcRunEnd(sorted, i)
 		t.u = append(t.u, sorted[i]-m)
 		t.cuBelow = append(t.cuBelow, t.cuBelow[len(t.cuBelow)-1]+int64(j-i))

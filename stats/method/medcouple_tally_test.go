@@ -145,6 +145,32 @@ func TestMedcoupleTallySwitch(t *testing.T) {
 	}
 }
 
+// The limit counts the distinct values off the median exactly.
+func TestMedcoupleTallyLimit(t *testing.T) {
+	rng := rand.New(rand.NewPCG(29, 30))
+	for kind := 0; kind < 9; kind++ {
+		for _, n := range []int{3, 4, 9, 50, 51, 2000} {
+			s := tiedSample(rng, kind, n)
+			m := s[(n-1)/2]
+			if n%2 == 0 {
+				m = s[n/2-1]/2 + s[n/2]/2
+			}
+			d := 0
+			for i, v := range s {
+				if v != m && (i == 0 || v != s[i-1]) {
+					d++
+				}
+			}
+			if newMcTally(s, m, d) == nil {
+				t.Fatalf("kind %d n %d: %d distinct off the median, no tally with limit %d", kind, n, d, d)
+			}
+			if d > 0 && newMcTally(s, m, d-1) != nil {
+				t.Fatalf("kind %d n %d: %d distinct off the median, tally with limit %d", kind, n, d, d-1)
+			}
+		}
+	}
+}
+
 func TestMcRunEnd(t *testing.T) {
 	rng := rand.New(rand.NewPCG(27, 28))
 	for rep := 0; rep < 200; rep++ {
