@@ -473,7 +473,7 @@ func medcoupleMiddle(sorted []float64) (lo, hi float64, ok bool) {
 	}
 	// Few distinct values (readings to an instrument's resolution): select
 	// over the distinct pairs with their counts (mcTally, same values).
-	if t := newMcTally(sorted, m, mcTallyMaxDistinct(n)); t != nil {
+	if t := mcNewTally(sorted, m, mcTallyMaxDistinct(n)); t != nil {
 		return t.middle()
 	}
 	return medcoupleImplicit(sorted, m)

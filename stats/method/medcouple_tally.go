@@ -57,13 +57,13 @@ const mcTallyShare = 5
 // either path).
 var mcTallyMaxDistinct = func(n int) int { return n / mcTallyShare }
 
-// newMcTally tallies the sorted values about their median m, or returns nil
+// mcNewTally tallies the sorted values about their median m, or returns nil
 // when more than maxD distinct values lie off the median, when a kernel's
 // denominator can overflow or the data hold an infinity or NaN (left to
 // imSelect, whose staircase cannot compute there and says so), or when one
 // side is empty (no kernel: medcoupleImplicit says
 // so).
-func newMcTally(sorted []float64, m float64, maxD int) *mcTally {
+func mcNewTally(sorted []float64, m float64, maxD int) *mcTally {
 	n := len(sorted)
 	q, _ := slices.BinarySearch(sorted, m) // first x >= m
 	p := q

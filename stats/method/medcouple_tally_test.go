@@ -62,7 +62,7 @@ func sameMiddle(t *testing.T, s []float64, what string) {
 		m = s[n/2-1]/2 + s[n/2]/2
 	}
 	wa, wb, wok := medcoupleImplicit(s, m)
-	tl := newMcTally(s, m, n)
+	tl := mcNewTally(s, m, n)
 	if tl == nil {
 		// Only data whose kernel denominator overflows (or infinite data)
 		// are left to imSelect.
@@ -135,12 +135,12 @@ func TestMedcoupleTallyScales(t *testing.T) {
 func TestMedcoupleTallySwitch(t *testing.T) {
 	rng := rand.New(rand.NewPCG(25, 26))
 	tied := tiedSample(rng, 6, 100_000)
-	if newMcTally(tied, tied[50_000], mcTallyMaxDistinct(len(tied))) == nil {
+	if mcNewTally(tied, tied[50_000], mcTallyMaxDistinct(len(tied))) == nil {
 		t.Error("100,000 readings to 0.001: no tally")
 	}
 	cont := randomSample(rng, 0, 100_000)
 	slices.Sort(cont)
-	if newMcTally(cont, cont[50_000], mcTallyMaxDistinct(len(cont))) != nil {
+	if mcNewTally(cont, cont[50_000], mcTallyMaxDistinct(len(cont))) != nil {
 		t.Error("100,000 continuous readings: tally")
 	}
 }
@@ -161,10 +161,10 @@ func TestMedcoupleTallyLimit(t *testing.T) {
 					d++
 				}
 			}
-			if newMcTally(s, m, d) == nil {
+			if mcNewTally(s, m, d) == nil {
 				t.Fatalf("kind %d n %d: %d distinct off the median, no tally with limit %d", kind, n, d, d)
 			}
-			if d > 0 && newMcTally(s, m, d-1) != nil {
+			if d > 0 && mcNewTally(s, m, d-1) != nil {
 				t.Fatalf("kind %d n %d: %d distinct off the median, tally with limit %d", kind, n, d, d-1)
 			}
 		}
@@ -262,7 +262,7 @@ func BenchmarkMedcoupleTallyShare(b *testing.B) {
 			}
 			b.Run(fmt.Sprintf("n%d/D%d/tally", n, d), func(b *testing.B) {
 				for b.Loop() {
-					newMcTally(x, m, n).middle()
+					mcNewTally(x, m, n).middle()
 				}
 			})
 			b.Run(fmt.Sprintf("n%d/D%d/imSelect", n, d), func(b *testing.B) {
