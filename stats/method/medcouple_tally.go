@@ -61,8 +61,7 @@ var mcTallyMaxDistinct = func(n int) int { return n / mcTallyShare }
 // when more than maxD distinct values lie off the median, when a kernel's
 // denominator can overflow or the data hold an infinity or NaN (left to
 // imSelect, whose staircase cannot compute there and says so), or when one
-// side is empty (no kernel: medcoupleImplicit says
-// so).
+// side is empty (no kernel: medcoupleImplicit says so).
 func mcNewTally(sorted []float64, m float64, maxD int) *mcTally {
 	n := len(sorted)
 	q, _ := slices.BinarySearch(sorted, m) // first x >= m
@@ -152,11 +151,9 @@ func (t *mcTally) h(i, j int) float64 {
 func (t *mcTally) count(th float64, strict bool, bnd []int32) int64 {
 	var cnt int64
 	c := len(t.u)
-	for i, w := range t.w {
+	for i := range t.w {
 		for c > 0 {
-			u := t.u[c-1]
-			v := (u + w) / (u - w)
-			if v < th || (!strict && v == th) {
+			if v := t.h(i, c-1); v < th || (!strict && v == th) {
 				break
 			}
 			c--
@@ -166,12 +163,9 @@ func (t *mcTally) count(th float64, strict bool, bnd []int32) int64 {
 		}
 		cnt += t.cw[i] * t.cuBelow[c]
 	}
-	for _, e := range [...]struct {
-		v float64
-		n int64
-	}{{-1, t.neg}, {0, t.zero}, {1, t.pos}} {
-		if e.v < th || (!strict && e.v == th) {
-			cnt += e.n
+	for c, v := range mcTallyConst {
+		if v < th || (!strict && v == th) {
+			cnt += t.constN(c)
 		}
 	}
 	return cnt
@@ -180,12 +174,9 @@ func (t *mcTally) count(th float64, strict bool, bnd []int32) int64 {
 // smallestAbove returns the smallest kernel value > th (+Inf if none).
 func (t *mcTally) smallestAbove(th float64) float64 {
 	v := math.Inf(1)
-	for _, e := range [...]struct {
-		v float64
-		n int64
-	}{{-1, t.neg}, {0, t.zero}, {1, t.pos}} {
-		if e.n > 0 && e.v > th {
-			v = min(v, e.v)
+	for c, cv := range mcTallyConst {
+		if t.constN(c) > 0 && cv > th {
+			v = min(v, cv)
 		}
 	}
 	c := len(t.u)
@@ -212,8 +203,12 @@ const (
 )
 
 // mcTallyConst are the kernel values of the pairs with a value equal to the
-// median, ascending.
+// median, ascending; constN gives their numbers.
 var mcTallyConst = [3]float64{-1, 0, 1}
+
+func (t *mcTally) constN(c int) int64 {
+	return [3]int64{t.neg, t.zero, t.pos}[c]
+}
 
 // selectRank returns the kernel value of rank k (0-based, ascending, each
 // distinct pair counted by its weight). As imSelect: every row keeps the
@@ -241,9 +236,6 @@ func (t *mcTally) selectRank(k int64) float64 {
 		return (v > lower.t || (lower.strict && v == lower.t)) &&
 			(v < upper.t || (!upper.strict && v == upper.t))
 	}
-	constW := func(c int) int64 {
-		return [3]int64{t.neg, t.zero, t.pos}[c]
-	}
 	below := int64(0) // values excluded by the lower bound (all smaller)
 	gatherLim := int64(max(mcTallyGatherMin, rows+cols))
 	sN := min(mcTallySampleMax, max(mcTallySampleMin, (rows+cols)/4))
@@ -263,7 +255,7 @@ func (t *mcTally) selectRank(k int64) float64 {
 		}
 		for c, v := range mcTallyConst {
 			if inBounds(v) {
-				W += constW(c)
+				W += t.constN(c)
 			}
 		}
 		if cells <= gatherLim || W <= 0 {
@@ -290,7 +282,7 @@ func (t *mcTally) selectRank(k int64) float64 {
 			if !inBounds(v) {
 				continue
 			}
-			acc += constW(c)
+			acc += t.constN(c)
 			for pi < len(pos) && pos[pi] < acc {
 				samp = append(samp, v)
 				pi++
@@ -361,7 +353,7 @@ func (t *mcTally) selectRank(k int64) float64 {
 		}
 	}
 	for c, v := range mcTallyConst {
-		if n := constW(c); n > 0 && inBounds(v) {
+		if n := t.constN(c); n > 0 && inBounds(v) {
 			buf = append(buf, wv{v, n})
 		}
 	}
