@@ -440,7 +440,10 @@ func floatSelect(a []float64, k int) float64 {
 // xi <= m <= xj, m the median, with the kernel's special case for pairs
 // of values both equal to m (-1, 0 or +1 by their position, so that the
 // kernel matrix stays sorted). The median of the kernel is found in
-// O(n log n) expected time by imSelect, without forming the n²/4 pairs;
+// O(n log n) expected time by imSelect, without forming the n²/4 pairs,
+// or, when at most n/5 distinct values lie off the median (readings to a
+// resolution), in O(D log D) by the same selection over the D distinct
+// values with their counts (mcTally, the same value to the last bit);
 // for an even number of pairs it is the mean of the two middle ones.
 // sorted is ascending; ok is false for fewer than 3 values.
 func Medcouple(sorted []float64) (mc float64, ok bool) {
