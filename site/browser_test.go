@@ -254,6 +254,54 @@ func TestPasteShowsEngineNumbers(t *testing.T) {
 	}
 }
 
+// TestDropSupersedes drops a second file while the first (1 MB) is still
+// being read: the report is the second file's alone (its readings, its
+// fingerprint), and the first one's end does not undo it. Before, the first
+// read went on feeding its chunks into the second file's read.
+func TestDropSupersedes(t *testing.T) {
+	s := browser(t)
+	second := "torque\n" // invented values for the page test
+	for i := 0; i < 40; i++ {
+		second += fmt.Sprintf("%.1f\n", 12+0.1*float64(i%7))
+	}
+	want, err := stats.Analyze(stats.Request{Text: second})
+	if err != nil {
+		t.Fatal(err)
+	}
+	sum := sha256.Sum256([]byte(second))
+	js, _ := json.Marshal(second)
+	s.open(t)
+	err = chromedp.Run(s.ctx,
+		chromedp.Evaluate(`(() => { const drop = (f) => { const dt = new DataTransfer(); dt.items.add(f);
+			const t = document.getElementById("input");
+			t.dispatchEvent(new DragEvent("dragover", {bubbles: true, cancelable: true, dataTransfer: dt}));
+			t.dispatchEvent(new DragEvent("drop", {bubbles: true, cancelable: true, dataTransfer: dt})); };
+			drop(new File([`+values(150000)+`], "first.txt", {type: "text/plain"}));
+			drop(new File([`+string(js)+`], "second.csv", {type: "text/csv"}));
+			return true })()`, nil),
+		analysed(1))
+	if err != nil {
+		t.Fatal(err)
+	}
+	time.Sleep(500 * time.Millisecond) // the first file's answer, if any, has come by now
+	s.state(t)
+	got := s.fields(t)
+	checkShown(t, got, "used", float64(want.Counts.Used))
+	var fp, st string
+	if err := chromedp.Run(s.ctx,
+		chromedp.Text(".fp", &fp, chromedp.ByQuery),
+		chromedp.Evaluate(`document.body.dataset.state + " | " + document.getElementById("status").textContent`, &st),
+	); err != nil {
+		t.Fatal(err)
+	}
+	if fp != hex.EncodeToString(sum[:]) {
+		t.Errorf("fingerprint %s, want the second file's %x", fp, sum)
+	}
+	if !strings.HasPrefix(st, "report |") || strings.Contains(st, "cancel") {
+		t.Errorf("page state and status after the second file: %q", st)
+	}
+}
+
 // TestDropFile drops a file (made in the page) and checks the report, the
 // fingerprint of the bytes and the problem rows in the preview.
 func TestDropFile(t *testing.T) {

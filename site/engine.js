@@ -123,8 +123,16 @@ function digestOf(file) {
     .catch(() => "");
 }
 
+// The engine reads one file at a time: lotlensBegin drops a read in
+// progress. So a file dropped while another is still being read supersedes
+// it: the earlier job stops at its next step without calling the engine
+// again (its chunks would land in the new file's read) and answers
+// "cancelled"; the page ignores that answer (input.js, analyseFile).
+const SUPERSEDED = JSON.stringify({ error: "reading stopped: another file was opened", code: "cancelled" });
+
 async function readFile(id, file) {
-  const job = { id, cancelled: false };
+  if (reading) reading.superseded = true;
+  const job = { id, cancelled: false, superseded: false };
   reading = job;
   const digest = digestOf(file);
   self.lotlensBegin(file.name || "file", file.size);
@@ -134,6 +142,11 @@ async function readFile(id, file) {
   try {
     for (;;) {
       const { done, value } = await rd.read();
+      if (job.superseded) {
+        rd.cancel().catch(() => {});
+        postMessage({ type: "file-read", id, json: SUPERSEDED });
+        return;
+      }
       if (job.cancelled) {
         rd.cancel().catch(() => {});
         postMessage({ type: "file-read", id, json: self.lotlensCancel() });
@@ -154,12 +167,20 @@ async function readFile(id, file) {
     }
     postMessage({ type: "progress", id, read, total });
     const fp = await digest;
+    if (job.superseded) {
+      postMessage({ type: "file-read", id, json: SUPERSEDED });
+      return;
+    }
     if (job.cancelled) {
       postMessage({ type: "file-read", id, json: self.lotlensCancel() });
       return;
     }
     postMessage({ type: "file-read", id, json: self.lotlensEnd(fp) });
   } catch (e) {
+    if (job.superseded) {
+      postMessage({ type: "file-read", id, json: SUPERSEDED });
+      return;
+    }
     self.lotlensCancel();
     postMessage({ type: "file-read", id, json: JSON.stringify({ error: "Could not read " + file.name + ": " + e, code: "file-read" }) });
   } finally {

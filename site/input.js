@@ -306,10 +306,14 @@ async function analyseFile(file) {
       bar.setAttribute("aria-valuetext", Math.round(100 * read / Math.max(1, total)) + " %");
     });
   } catch (e) {
+    if (state.file !== file) return;
     box.hidden = true;
     setStatus(String(e.message || e), true);
     return;
   }
+  // a file opened since supersedes this one: its answer ("cancelled") is
+  // not shown, and the newer file's state is left alone
+  if (state.file !== file) return;
   const err = errorOf(JSON.parse(m.json));
   if (err && err.code === "cancelled") {
     box.hidden = true;
