@@ -427,7 +427,11 @@ func ReportJSON(rep *Report, err error) []byte {
 	if err != nil {
 		return ErrorJSON(err)
 	}
-	out, err := json.Marshal(rep)
+	out, err := marshalReport(rep)
+	if err != nil {
+		// a value encoding/json refuses (NaN, Inf): let it name the fault
+		out, err = json.Marshal(rep)
+	}
 	if err != nil {
 		return ErrorJSON(errorf(CodeInternal, "", "internal error encoding the report: %v", err))
 	}

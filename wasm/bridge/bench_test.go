@@ -63,7 +63,7 @@ func BenchmarkSession10k(b *testing.B) {
 	}
 	b.Run("marshal", func(b *testing.B) {
 		for i := 0; i < b.N; i++ {
-			j, _ := json.Marshal(rep)
+			j := stats.ReportJSON(rep, nil)
 			b.SetBytes(int64(len(j)))
 		}
 	})

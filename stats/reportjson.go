@@ -1,0 +1,384 @@
+package stats
+
+import (
+	"bytes"
+	"encoding/json"
+	"errors"
+	"math"
+	"strconv"
+	"unicode/utf8"
+)
+
+// The report's JSON is encoding/json's, byte for byte; only the long point
+// lists (the charts' and the over-time section's, nine tenths of a
+// 10,000-reading report) are written by the appenders below. encoding/json
+// spends most of its time there on reflection per field, and a
+// json.Marshaler would not help: encoding/json checks and compacts whatever
+// a MarshalJSON returns, which costs about as much again in WebAssembly.
+//
+// marshalReport encodes a shallow copy of the report in which each long
+// list is replaced by one marker element whose position (or row) is
+// math.MinInt64 plus the list's number: no real position or row is
+// negative, so the marker's JSON ("[{"i":-9223372036854775808,...}]")
+// occurs nowhere else. The markers are then replaced by the lists as
+// written here. TestReportJSONSame compares the result with json.Marshal.
+// A list type added to a report needs no change here; a field added to
+// one of the point types below needs its appender changed too (the test
+// fails until it is).
+
+// errSplice: a marker was not found or a value is not finite; ReportJSON
+// then lets json.Marshal encode the report (and name a bad value).
+var errSplice = errors.New("report JSON: a long list could not be written directly")
+
+// hole is one long list taken out of the report: the JSON of its marker
+// and the list itself, written.
+type hole struct {
+	marker []byte
+	write  func(b []byte) ([]byte, bool)
+}
+
+// punch replaces *list (when it has elements) by a one-element list
+// holding mark(k), k being the hole's number, and records how to write
+// the list in its place.
+func punch[T any](holes *[]hole, list *[]T, mark func(int) T, write func(b []byte, p *T) ([]byte, bool)) {
+	pts := *list
+	if len(pts) == 0 {
+		return
+	}
+	k := len(*holes)
+	*list = []T{mark(math.MinInt64 + k)}
+	*holes = append(*holes, hole{write: func(b []byte) ([]byte, bool) {
+		b = append(b, '[')
+		ok := true
+		for i := range pts {
+			if i > 0 {
+				b = append(b, ',')
+			}
+			var good bool
+			b, good = write(b, &pts[i])
+			ok = ok && good
+		}
+		return append(b, ']'), ok
+	}})
+	var err error
+	if (*holes)[k].marker, err = json.Marshal(*list); err != nil {
+		panic(err) // a marker holds only zeros and one integer
+	}
+}
+
+// marshalReport encodes rep exactly as json.Marshal(rep) does (see above).
+// It does not change rep.
+func marshalReport(rep *Report) ([]byte, error) {
+	r := *rep
+	var holes []hole
+	// in JSON order: charts, then stability
+	if rep.Charts != nil {
+		c := *rep.Charts
+		punch(&holes, &c.ProbPlot.Points, func(m int) ProbPt { return ProbPt{Row: m} }, appendProbPt)
+		punch(&holes, &c.Series, func(m int) SeriesPt { return SeriesPt{I: m} }, appendSeriesPt)
+		r.Charts = &c
+	}
+	if rep.Stability != nil {
+		s := *rep.Stability
+		if s.Chart != nil {
+			ch := *s.Chart
+			punch(&holes, &ch.Points, func(m int) CtlPoint { return CtlPoint{I: m} }, appendCtlPoint)
+			s.Chart = &ch
+		}
+		punch(&holes, &s.Signals, func(m int) SignalInfo { return SignalInfo{First: m} }, appendSignal)
+		if s.EWMA != nil {
+			e := *s.EWMA
+			punch(&holes, &e.Points, func(m int) EWMAPt { return EWMAPt{I: m} }, ewmaWriter())
+			s.EWMA = &e
+		}
+		if s.CUSUM != nil {
+			cu := *s.CUSUM
+			punch(&holes, &cu.Points, func(m int) CUSUMPt { return CUSUMPt{I: m} }, appendCUSUMPt)
+			s.CUSUM = &cu
+		}
+		r.Stability = &s
+	}
+	rest, err := json.Marshal(&r)
+	if err != nil || len(holes) == 0 {
+		return rest, err
+	}
+	out := make([]byte, 0, len(rest)+outSize(rep))
+	for _, h := range holes {
+		at := bytes.Index(rest, h.marker)
+		if at < 0 {
+			return nil, errSplice
+		}
+		out = append(out, rest[:at]...)
+		var ok bool
+		if out, ok = h.write(out); !ok {
+			return nil, errSplice
+		}
+		rest = rest[at+len(h.marker):]
+	}
+	return append(out, rest...), nil
+}
+
+// outSize guesses the bytes of the long lists, to allocate once.
+func outSize(rep *Report) int {
+	n := 0
+	if c := rep.Charts; c != nil {
+		n += 50*len(c.ProbPlot.Points) + 35*len(c.Series)
+	}
+	if s := rep.Stability; s != nil {
+		if s.Chart != nil {
+			n += 45 * len(s.Chart.Points)
+		}
+		n += 200 * len(s.Signals)
+		if s.EWMA != nil {
+			n += 75 * len(s.EWMA.Points)
+		}
+		if s.CUSUM != nil {
+			n += 60 * len(s.CUSUM.Points)
+		}
+	}
+	return n
+}
+
+// The appenders write one element as encoding/json does: fields in
+// declaration order under their JSON names, omitempty fields left out when
+// zero. Each returns false if a number is not finite (encoding/json
+// refuses those).
+
+func appendProbPt(b []byte, p *ProbPt) ([]byte, bool) {
+	b = append(b, `{"z":`...)
+	b, ok1 := appendJSONFloat(b, p.Z)
+	b = append(b, `,"y":`...)
+	b, ok2 := appendTypedFloat(b, p.Y)
+	b = append(b, `,"row":`...)
+	b = strconv.AppendInt(b, int64(p.Row), 10)
+	return append(b, '}'), ok1 && ok2
+}
+
+func appendSeriesPt(b []byte, p *SeriesPt) ([]byte, bool) {
+	b = append(b, `{"i":`...)
+	b = strconv.AppendInt(b, int64(p.I), 10)
+	b = append(b, `,"row":`...)
+	b = strconv.AppendInt(b, int64(p.Row), 10)
+	b = append(b, `,"y":`...)
+	b, ok := appendTypedFloat(b, p.Y)
+	return append(b, '}'), ok
+}
+
+func appendCtlPoint(b []byte, p *CtlPoint) ([]byte, bool) {
+	b = append(b, `{"i":`...)
+	b = strconv.AppendInt(b, int64(p.I), 10)
+	b = append(b, `,"row":`...)
+	b = strconv.AppendInt(b, int64(p.Row), 10)
+	if p.Label != "" {
+		b = append(b, `,"label":`...)
+		b = appendJSONString(b, p.Label)
+	}
+	if p.N != 0 {
+		b = append(b, `,"n":`...)
+		b = strconv.AppendInt(b, int64(p.N), 10)
+	}
+	b = append(b, `,"y":`...)
+	b, ok := appendTypedFloat(b, p.Y)
+	if p.S != nil {
+		b = append(b, `,"s":`...)
+		var good bool
+		b, good = appendJSONFloat(b, *p.S)
+		ok = ok && good
+	}
+	if p.T != nil {
+		b = append(b, `,"t":`...)
+		var good bool
+		b, good = appendJSONFloat(b, *p.T)
+		ok = ok && good
+	}
+	if p.LeftOut {
+		b = append(b, `,"leftOut":true`...)
+	}
+	if p.Outside {
+		b = append(b, `,"outside":true`...)
+	}
+	if len(p.Flags) > 0 {
+		b = append(b, `,"flags":`...)
+		b = appendJSONStrings(b, p.Flags)
+	}
+	return append(b, '}'), ok
+}
+
+func appendSignal(b []byte, s *SignalInfo) ([]byte, bool) {
+	b = append(b, `{"code":`...)
+	b = appendJSONString(b, s.Code)
+	b = append(b, `,"chart":`...)
+	b = appendJSONString(b, s.Chart)
+	if s.Side != 0 {
+		b = append(b, `,"side":`...)
+		b = strconv.AppendInt(b, int64(s.Side), 10)
+	}
+	b = append(b, `,"first":`...)
+	b = strconv.AppendInt(b, int64(s.First), 10)
+	b = append(b, `,"last":`...)
+	b = strconv.AppendInt(b, int64(s.Last), 10)
+	b = append(b, `,"points":`...)
+	b = strconv.AppendInt(b, int64(s.Points), 10)
+	if len(s.Rows) > 0 {
+		b = append(b, `,"rows":[`...)
+		for i, r := range s.Rows {
+			if i > 0 {
+				b = append(b, ',')
+			}
+			b = strconv.AppendInt(b, int64(r), 10)
+		}
+		b = append(b, ']')
+	}
+	if len(s.Subgroups) > 0 {
+		b = append(b, `,"subgroups":`...)
+		b = appendJSONStrings(b, s.Subgroups)
+	}
+	b = append(b, `,"text":`...)
+	b = appendJSONString(b, s.Text)
+	return append(b, '}'), true
+}
+
+// ewmaWriter writes EWMA points; the limits, constant after the first
+// few dozen points, are copied from the point before when they are the same.
+func ewmaWriter() func(b []byte, p *EWMAPt) ([]byte, bool) {
+	var lo, hi floatMemo
+	return func(b []byte, p *EWMAPt) ([]byte, bool) {
+		b = append(b, `{"i":`...)
+		b = strconv.AppendInt(b, int64(p.I), 10)
+		b = append(b, `,"z":`...)
+		b, ok1 := appendJSONFloat(b, p.Z)
+		b = append(b, `,"lo":`...)
+		b, ok2 := lo.append(b, p.Lo)
+		b = append(b, `,"hi":`...)
+		b, ok3 := hi.append(b, p.Hi)
+		return append(b, '}'), ok1 && ok2 && ok3
+	}
+}
+
+// floatMemo writes a number by copying the text it wrote last when the
+// number is the same (bit for bit).
+type floatMemo struct {
+	bits       uint64
+	start, end int // the text in the output
+	set        bool
+}
+
+func (m *floatMemo) append(b []byte, f float64) ([]byte, bool) {
+	if m.set && math.Float64bits(f) == m.bits {
+		return append(b, b[m.start:m.end]...), true
+	}
+	start := len(b)
+	b, ok := appendJSONFloat(b, f)
+	*m = floatMemo{bits: math.Float64bits(f), start: start, end: len(b), set: ok}
+	return b, ok
+}
+
+func appendCUSUMPt(b []byte, p *CUSUMPt) ([]byte, bool) {
+	b = append(b, `{"i":`...)
+	b = strconv.AppendInt(b, int64(p.I), 10)
+	b = append(b, `,"up":`...)
+	b, ok1 := appendJSONFloat(b, p.Up)
+	b = append(b, `,"down":`...)
+	b, ok2 := appendJSONFloat(b, p.Down)
+	return append(b, '}'), ok1 && ok2
+}
+
+// appendJSONFloat writes f as encoding/json writes a float64 (shortest
+// form; exponent form below 1e-6 and from 1e21, without a leading zero in
+// the exponent); false for NaN and Inf.
+func appendJSONFloat(b []byte, f float64) ([]byte, bool) {
+	if math.IsNaN(f) || math.IsInf(f, 0) {
+		return b, false
+	}
+	if f == 0 && !math.Signbit(f) {
+		return append(b, '0'), true
+	}
+	abs := math.Abs(f)
+	if abs != 0 && (abs < 1e-6 || abs >= 1e21) {
+		b = strconv.AppendFloat(b, f, 'e', -1, 64)
+		if n := len(b); n >= 4 && b[n-4] == 'e' && b[n-3] == '-' && b[n-2] == '0' {
+			b[n-2] = b[n-1]
+			b = b[:n-1]
+		}
+		return b, true
+	}
+	return strconv.AppendFloat(b, f, 'f', -1, 64), true
+}
+
+// appendTypedFloat is appendJSONFloat for a reading as typed (a chart's
+// values): a number within [1e-6, 1e9) that is the double nearest to a
+// decimal of at most 6 places is written from that decimal, without the
+// general shortest-form search. That decimal is the shortest form: with d
+// the fewest places that give f back, a decimal of fewer places would have
+// been found first (f·10^d' lies within 0.2 of it), and decimals of d places
+// are more than 4 units in the last place of f apart, so only one gives f.
+func appendTypedFloat(b []byte, f float64) ([]byte, bool) {
+	abs := math.Abs(f)
+	if !(abs >= 1e-6 && abs < 1e9) {
+		return appendJSONFloat(b, f)
+	}
+	for d, p := range pow10 {
+		n := math.Round(abs * p)
+		if n/p != abs {
+			continue
+		}
+		if f < 0 {
+			b = append(b, '-')
+		}
+		u := uint64(n)
+		unit := uint64(p)
+		b = strconv.AppendUint(b, u/unit, 10)
+		if d > 0 {
+			b = append(b, '.')
+			frac := u % unit
+			for unit /= 10; unit > frac && unit > 1; unit /= 10 {
+				b = append(b, '0') // leading zeros of the places
+			}
+			b = strconv.AppendUint(b, frac, 10)
+		}
+		return b, true
+	}
+	return appendJSONFloat(b, f)
+}
+
+var pow10 = [...]float64{1, 10, 100, 1e3, 1e4, 1e5, 1e6}
+
+// appendJSONString writes s as encoding/json writes a string (with its
+// HTML-safe escapes). Text that needs no escape is copied; anything else
+// (rare in these lists) goes through encoding/json.
+func appendJSONString(b []byte, s string) []byte {
+	for i := 0; i < len(s); {
+		c := s[i]
+		if c < utf8.RuneSelf {
+			if c < 0x20 || c == '"' || c == '\\' || c == '<' || c == '>' || c == '&' {
+				return appendMarshalled(b, s)
+			}
+			i++
+			continue
+		}
+		r, size := utf8.DecodeRuneInString(s[i:])
+		if r == utf8.RuneError && size == 1 || r == '\u2028' || r == '\u2029' {
+			return appendMarshalled(b, s)
+		}
+		i += size
+	}
+	b = append(b, '"')
+	b = append(b, s...)
+	return append(b, '"')
+}
+
+func appendMarshalled(b []byte, s string) []byte {
+	q, _ := json.Marshal(s) // a string always encodes
+	return append(b, q...)
+}
+
+func appendJSONStrings(b []byte, ss []string) []byte {
+	b = append(b, '[')
+	for i, s := range ss {
+		if i > 0 {
+			b = append(b, ',')
+		}
+		b = appendJSONString(b, s)
+	}
+	return append(b, ']')
+}
