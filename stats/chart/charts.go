@@ -79,7 +79,7 @@ func refLines(r *stats.Report, f Format) []refLine {
 func span(vs ...float64) (lo, hi float64) {
 	lo, hi = math.Inf(1), math.Inf(-1)
 	for _, v := range vs {
-		if finite(v) {
+		if !math.IsNaN(v) && !math.IsInf(v, 0) {
 			lo, hi = math.Min(lo, v), math.Max(hi, v)
 		}
 	}
@@ -314,7 +314,8 @@ func ProbPlot(r *stats.Report) string {
 	}
 	p := r.Charts.ProbPlot
 	f := FormatOf(r)
-	var zs, ys []float64
+	zs := make([]float64, 0, len(p.Points)+len(p.Band))
+	ys := make([]float64, 0, len(p.Points)+2*len(p.Band))
 	for _, pt := range p.Points {
 		zs = append(zs, pt.Z)
 		ys = append(ys, pt.Y)
@@ -334,6 +335,7 @@ func ProbPlot(r *stats.Report) string {
 	yt, ydec := Ticks(ylo, yhi, 6)
 	c := newCanvas(Width, Height, "probplot", "Normal probability plot of "+valueLabel(r),
 		probPlotDesc(p))
+	c.grow(4096 + 16*len(p.Points) + 150*min(len(p.Points), MaxMarkers))
 	c.yAxis(ysc, yt, ydec, f, valueLabel(r), marginL, Width-marginR)
 	// the band as one lightly shaded envelope (upper edge out, lower edge
 	// back), no outline: the line and the points stay in front of it
@@ -379,8 +381,15 @@ func ProbPlot(r *stats.Report) string {
 		if keep != nil && !keep[i] {
 			continue
 		}
-		c.marker("circle", xs.at(pt.Z), ysc.at(pt.Y), rad, "", pt.Row,
-			"row "+strconv.Itoa(pt.Row)+": "+f.Value(pt.Y)+" (z = "+f.Num(pt.Z, 2)+")", "")
+		c.markerStart("circle", xs.at(pt.Z), ysc.at(pt.Y), rad, "", pt.Row, "")
+		c.b = append(c.b, "row "...)
+		c.b = strconv.AppendInt(c.b, int64(pt.Row), 10)
+		c.b = append(c.b, ": "...)
+		c.b = f.appendValue(c.b, pt.Y)
+		c.b = append(c.b, " (z = "...)
+		c.b = f.appendNum(c.b, pt.Z, 2)
+		c.b = append(c.b, ')')
+		c.markerEnd("circle")
 	}
 	c.printf(`</g>`)
 	c.xAxis(xs, xt, xdec, f, "normal quantile (z)", Height-marginB)
@@ -486,18 +495,28 @@ func Run(r *stats.Report) string {
 	if len(pts) > 300 {
 		rad = 2
 	}
+	c.grow(2048 + 16*len(pts) + 120*min(len(pts), MaxMarkers+len(flagged)))
 	keep := pickExtremes(pts, MaxMarkers)
 	c.pointGroup(Blue)
 	for i, p := range pts {
 		if keep != nil && !keep[i] && !flagged[p.Row] {
 			continue
 		}
-		title := "row " + strconv.Itoa(p.Row) + ": " + f.Value(p.Y)
+		shape := "circle"
 		if flagged[p.Row] {
-			c.marker("triangle", xs.at(float64(p.I)), ys.at(p.Y), 6, Vermilion, p.Row, title+", flagged", "suspect")
+			shape = "triangle"
+			c.markerStart(shape, xs.at(float64(p.I)), ys.at(p.Y), 6, Vermilion, p.Row, "suspect")
 		} else {
-			c.marker("circle", xs.at(float64(p.I)), ys.at(p.Y), rad, "", p.Row, title, "")
+			c.markerStart(shape, xs.at(float64(p.I)), ys.at(p.Y), rad, "", p.Row, "")
 		}
+		c.b = append(c.b, "row "...)
+		c.b = strconv.AppendInt(c.b, int64(p.Row), 10)
+		c.b = append(c.b, ": "...)
+		c.b = f.appendValue(c.b, p.Y)
+		if flagged[p.Row] {
+			c.b = append(c.b, ", flagged"...)
+		}
+		c.markerEnd(shape)
 	}
 	c.printf(`</g>`)
 	// the x axis is labelled with the rows (as everywhere else on the page)

@@ -29,11 +29,12 @@ func Control(r *stats.Report) string {
 	top0, top1 := marginT+22, 262.0 // values panel (pixels, top to bottom)
 	bot0, bot1 := 292.0, h-marginB  // spread panel
 	// ranges
-	var ys, ss []float64
-	for _, p := range pts {
-		ys = append(ys, p.Y)
-		if p.S != nil {
-			ss = append(ss, *p.S)
+	ys := make([]float64, 0, len(pts)+2*len(ch.Limits))
+	ss := make([]float64, 0, len(pts)+2*len(ch.Limits))
+	for i := range pts {
+		ys = append(ys, pts[i].Y)
+		if s := pts[i].S; s != nil {
+			ss = append(ss, *s)
 		}
 	}
 	for _, l := range ch.Limits {
@@ -75,6 +76,13 @@ func Control(r *stats.Report) string {
 		desc += " (thinned for drawing; every signal kept)"
 	}
 	c := newCanvas(Width, h, "control", what+" of "+valueLabel(r), desc)
+	marks := min(len(pts), MaxMarkers) // symbols: a selection, and every signal
+	for i := range pts {
+		if len(pts[i].Flags) > 0 || pts[i].LeftOut {
+			marks++
+		}
+	}
+	c.grow(4096 + 50*len(pts) + 240*marks)
 	yt, ydec := Ticks(ylo, yhi, 6)
 	c.yAxis(yv, yt, ydec, f, valueLabel(r), marginL, Width-marginR)
 	// zones: lightly shaded bands between 1 and 2 sigma and 2 and 3 sigma
@@ -133,18 +141,23 @@ func Control(r *stats.Report) string {
 	labelled := 0
 	var lastLabelX float64 = -1e9
 	c.pointGroup(Blue)
-	for i, p := range pts {
+	for i := range pts {
+		p := &pts[i]
 		shape, colour, class := controlMark(p)
 		if shape == "circle" && len(pts) > MaxMarkers && i%(len(pts)/MaxMarkers+1) != 0 {
 			continue
 		}
 		x, y := xs.at(float64(p.I)), yv.at(p.Y)
-		title := pointTitle(r, p, f)
 		if shape == "circle" {
-			c.marker("circle", x, y, rad, "", p.Row, title, "")
+			c.markerStart("circle", x, y, rad, "", p.Row, "")
+		} else {
+			c.markerStart(shape, x, y, 5.5, colour, p.Row, class)
+		}
+		c.b = appendPointTitle(c.b, r, p, f)
+		c.markerEnd(shape)
+		if shape == "circle" {
 			continue
 		}
-		c.marker(shape, x, y, 5.5, colour, p.Row, title, class)
 		if class != "left-out" && labelled < 40 && x-lastLabelX > 30 {
 			c.text(x, math.Max(y-10, top0+10), "middle", "row-label", pointName(p))
 			labelled++
@@ -170,10 +183,10 @@ func Control(r *stats.Report) string {
 			}
 			c.line(xa, ysp.at(l.SpreadCentre), xb, ysp.at(l.SpreadCentre), Green, 1.5, "", "centre spread")
 		}
-		var sp []stats.CtlPoint
-		for _, p := range pts {
-			if p.S != nil {
-				sp = append(sp, p)
+		sp := make([]*stats.CtlPoint, 0, len(pts)) // the points with a spread
+		for i := range pts {
+			if pts[i].S != nil {
+				sp = append(sp, &pts[i])
 			}
 		}
 		if len(sp) > 1 {
@@ -234,8 +247,8 @@ func Control(r *stats.Report) string {
 	c.text((xs.p0+xs.p1)/2, h-8, "middle", "axis-label x", label)
 	items := []legendItem{{"circle", Blue, "", "point"}, {"line", Green, "", "centre"}, {"line", Vermilion, "8 4", "limits"}}
 	kinds := map[string]bool{}
-	for _, p := range pts {
-		_, _, class := controlMark(p)
+	for i := range pts {
+		_, _, class := controlMark(&pts[i])
 		kinds[class] = true
 	}
 	c.legend(markKey(items, kinds, []markEntry{
@@ -258,7 +271,7 @@ func limitsAt(ls []stats.CtlLimits, i int) *stats.CtlLimits {
 }
 
 // controlMark chooses a point's symbol: colour is never the only cue.
-func controlMark(p stats.CtlPoint) (shape, colour, class string) {
+func controlMark(p *stats.CtlPoint) (shape, colour, class string) {
 	switch {
 	case p.LeftOut && len(p.Flags) == 0:
 		return "open-circle", Black, "left-out"
@@ -279,7 +292,7 @@ func controlMark(p stats.CtlPoint) (shape, colour, class string) {
 	return "circle", Blue, ""
 }
 
-func hasFlag(p stats.CtlPoint, code string) bool {
+func hasFlag(p *stats.CtlPoint, code string) bool {
 	for _, f := range p.Flags {
 		if f == code {
 			return true
@@ -288,31 +301,43 @@ func hasFlag(p stats.CtlPoint, code string) bool {
 	return false
 }
 
-func pointName(p stats.CtlPoint) string {
+func pointName(p *stats.CtlPoint) string {
 	if p.Label != "" {
 		return p.Label
 	}
 	return "row " + strconv.Itoa(p.Row)
 }
 
-func pointTitle(r *stats.Report, p stats.CtlPoint, f Format) string {
-	s := pointName(p)
+// appendPointTitle appends a point's title, escaped for XML: its name, its
+// value, its position, its time and its signals.
+func appendPointTitle(b []byte, r *stats.Report, p *stats.CtlPoint, f Format) []byte {
 	if p.Label != "" {
-		s += " (" + strconv.Itoa(p.N) + " readings, mean " + f.Num(p.Y, f.Decimals+1) + ")"
+		b = appendEsc(b, p.Label)
+		b = append(b, " ("...)
+		b = strconv.AppendInt(b, int64(p.N), 10)
+		b = append(b, " readings, mean "...)
+		b = f.appendNum(b, p.Y, f.Decimals+1)
+		b = append(b, ')')
 	} else {
-		s += ": " + f.Value(p.Y)
+		b = append(b, "row "...)
+		b = strconv.AppendInt(b, int64(p.Row), 10)
+		b = append(b, ": "...)
+		b = f.appendValue(b, p.Y)
 	}
-	s += ", position " + strconv.Itoa(p.I)
+	b = append(b, ", position "...)
+	b = strconv.AppendInt(b, int64(p.I), 10)
 	if p.T != nil && r.Stability.Chart.TimeAxis {
-		s += ", " + timeLabel(*p.T)
+		b = append(b, ", "...)
+		b = appendEsc(b, timeLabel(*p.T))
 	}
 	if p.LeftOut {
-		s += "; left out by you"
+		b = append(b, "; left out by you"...)
 	}
 	for _, fl := range p.Flags {
-		s += "; signal " + fl
+		b = append(b, "; signal "...)
+		b = appendEsc(b, fl)
 	}
-	return s
+	return b
 }
 
 // timeLabel writes a time of the reader (seconds since 1970-01-01 UTC, or

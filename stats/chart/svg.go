@@ -10,10 +10,13 @@
 package chart
 
 import (
+	"bytes"
 	"fmt"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
+	"unsafe"
 )
 
 // Okabe-Ito colours (Okabe and Ito 2008).
@@ -37,20 +40,72 @@ type Format struct {
 
 // Num writes v with d decimals, honouring the decimal comma.
 func (f Format) Num(v float64, d int) string {
+	var buf [32]byte
+	return string(f.appendNum(buf[:0], v, d))
+}
+
+// appendNum appends Num(v, d).
+func (f Format) appendNum(b []byte, v float64, d int) []byte {
 	if d < 0 {
 		d = 0
 	}
 	if d > 12 {
 		d = 12
 	}
-	s := strconv.FormatFloat(v, 'f', d, 64)
-	if s == "-0" || strings.HasPrefix(s, "-0.") && strings.Trim(s[3:], "0") == "" {
-		s = s[1:]
+	start := len(b)
+	b = appendFixed(b, v, d)
+	if s := b[start:]; len(s) > 1 && s[0] == '-' && s[1] == '0' && (len(s) == 2 || s[2] == '.' && allZeros(s[3:])) {
+		// -0 and -0.00 lose their sign
+		b = append(b[:start], s[1:]...)
 	}
 	if f.DecimalComma {
-		s = strings.Replace(s, ".", ",", 1)
+		if i := bytes.IndexByte(b[start:], '.'); i >= 0 {
+			b[start+i] = ','
+		}
 	}
-	return s
+	return b
+}
+
+// appendFixed appends v with d decimals (0 to 12) as
+// strconv.AppendFloat(b, v, 'f', d, 64) does. A value that is the double
+// nearest to a decimal of at most d <= 6 places (a reading as typed, at
+// the data's decimals) is that decimal rounded to d places: it is written
+// from its digits, without the general conversion.
+func appendFixed(b []byte, v float64, d int) []byte {
+	abs := math.Abs(v)
+	if d > 6 || !(abs < 1e9) {
+		return strconv.AppendFloat(b, v, 'f', d, 64)
+	}
+	p := pow10[d]
+	n := math.Round(abs * p)
+	if n/p != abs {
+		return strconv.AppendFloat(b, v, 'f', d, 64)
+	}
+	if math.Signbit(v) {
+		b = append(b, '-')
+	}
+	u, unit := uint64(n), uint64(p)
+	b = strconv.AppendUint(b, u/unit, 10)
+	if d > 0 {
+		b = append(b, '.')
+		frac := u % unit
+		for unit /= 10; unit > frac && unit > 1; unit /= 10 {
+			b = append(b, '0') // leading zeros of the places
+		}
+		b = strconv.AppendUint(b, frac, 10)
+	}
+	return b
+}
+
+var pow10 = [...]float64{1, 10, 100, 1e3, 1e4, 1e5, 1e6}
+
+func allZeros(s []byte) bool {
+	for _, c := range s {
+		if c != '0' {
+			return false
+		}
+	}
+	return true
 }
 
 // Value writes a data value at the data's resolution with its unit.
@@ -60,6 +115,16 @@ func (f Format) Value(v float64) string {
 		s += " " + f.Unit
 	}
 	return s
+}
+
+// appendValue appends Value(v) escaped for XML.
+func (f Format) appendValue(b []byte, v float64) []byte {
+	b = f.appendNum(b, v, f.Decimals)
+	if f.Unit != "" {
+		b = append(b, ' ')
+		b = appendEsc(b, f.Unit)
+	}
+	return b
 }
 
 var escaper = strings.NewReplacer("&", "&amp;", "<", "&lt;", ">", "&gt;", `"`, "&quot;", "'", "&#39;")
@@ -153,20 +218,62 @@ func newCanvas(w, h float64, id, title, desc string) *canvas {
 func (c *canvas) printf(format string, a ...any) { c.b = fmt.Appendf(c.b, format, a...) }
 
 func (c *canvas) text(x, y float64, anchor, class, s string) {
-	c.printf(`<text x="%.1f" y="%.1f" text-anchor="%s" class="%s">%s</text>`, x, y, anchor, class, esc(s))
+	b := append(c.b, `<text x="`...)
+	b = appendFixed1(b, x)
+	b = append(b, `" y="`...)
+	b = appendFixed1(b, y)
+	b = append(b, `" text-anchor="`...)
+	b = append(b, anchor...)
+	b = append(b, `" class="`...)
+	b = append(b, class...)
+	b = append(b, `">`...)
+	b = appendEsc(b, s)
+	c.b = append(b, `</text>`...)
 }
 
 func (c *canvas) line(x1, y1, x2, y2 float64, stroke string, width float64, dash, class string) {
-	d := ""
+	b := append(c.b, `<line x1="`...)
+	b = appendFixed1(b, x1)
+	b = append(b, `" y1="`...)
+	b = appendFixed1(b, y1)
+	b = append(b, `" x2="`...)
+	b = appendFixed1(b, x2)
+	b = append(b, `" y2="`...)
+	b = appendFixed1(b, y2)
+	b = append(b, `" stroke="`...)
+	b = append(b, stroke...)
+	b = append(b, `" stroke-width="`...)
+	b = strconv.AppendFloat(b, width, 'g', -1, 64) // as %g: the widths are small constants
+	b = append(b, '"')
 	if dash != "" {
-		d = ` stroke-dasharray="` + dash + `"`
+		b = append(b, ` stroke-dasharray="`...)
+		b = append(b, dash...)
+		b = append(b, '"')
 	}
-	c.printf(`<line x1="%.1f" y1="%.1f" x2="%.1f" y2="%.1f" stroke="%s" stroke-width="%g"%s class="%s"/>`, x1, y1, x2, y2, stroke, width, d, class)
+	b = append(b, ` class="`...)
+	b = append(b, class...)
+	c.b = append(b, `"/>`...)
 }
 
+// appendFixed1 appends v as fmt's %.1f writes it.
+func appendFixed1(b []byte, v float64) []byte {
+	if math.IsInf(v, 1) {
+		return append(b, "+Inf"...)
+	}
+	return strconv.AppendFloat(b, v, 'f', 1, 64)
+}
+
+// grow makes room for about n more bytes at once (a long chart would
+// otherwise copy its text a dozen times while it grows).
+func (c *canvas) grow(n int) { c.b = slices.Grow(c.b, n) }
+
+// done closes the SVG and returns its text. The text is the canvas's own
+// buffer, not a copy (a long chart's text is a few hundred kB): the canvas
+// must not be used after done.
 func (c *canvas) done() string {
-	c.b = append(c.b, `</svg>`...)
-	return string(c.b)
+	b := append(c.b, `</svg>`...)
+	c.b = nil
+	return unsafe.String(unsafe.SliceData(b), len(b))
 }
 
 // xAxis draws ticks and labels along the bottom of the plot area.
@@ -201,22 +308,26 @@ func (c *canvas) vMarker(x, y0, y1 float64, stroke, dash, label, class string, l
 
 // marker draws a point symbol. Shapes: "circle", "open-circle", "triangle",
 // "square", "diamond". It is on the hot path (hundreds of points), so it
-// appends rather than formats.
+// appends rather than formats; the long charts write the title themselves
+// between markerStart and markerEnd.
 func (c *canvas) marker(shape string, x, y, r float64, colour string, row int, title string, class string) {
+	c.markerStart(shape, x, y, r, colour, row, class)
+	c.b = appendEsc(c.b, title)
+	c.markerEnd(shape)
+}
+
+// markerStart writes a marker up to its title's text, which the caller
+// appends escaped (appendEsc) before markerEnd.
+func (c *canvas) markerStart(shape string, x, y, r float64, colour string, row int, class string) {
 	b := c.b
-	pt := func(px, py float64) {
-		b = appendF(b, px)
-		b = append(b, ' ')
-		b = appendF(b, py)
-	}
 	switch shape {
 	case "triangle":
 		b = append(b, `<path d="M`...)
-		pt(x, y-r*1.2)
+		b = appendPt(b, x, y-r*1.2)
 		b = append(b, 'L')
-		pt(x+r*1.1, y+r*0.8)
+		b = appendPt(b, x+r*1.1, y+r*0.8)
 		b = append(b, 'L')
-		pt(x-r*1.1, y+r*0.8)
+		b = appendPt(b, x-r*1.1, y+r*0.8)
 		b = append(b, `Z" stroke="#000000" stroke-width="1" fill="`...)
 	case "square":
 		b = append(b, `<rect x="`...)
@@ -230,13 +341,13 @@ func (c *canvas) marker(shape string, x, y, r float64, colour string, row int, t
 		b = append(b, `" stroke="#000000" stroke-width="1" fill="`...)
 	case "diamond":
 		b = append(b, `<path d="M`...)
-		pt(x, y-r*1.3)
+		b = appendPt(b, x, y-r*1.3)
 		b = append(b, 'L')
-		pt(x+r*1.3, y)
+		b = appendPt(b, x+r*1.3, y)
 		b = append(b, 'L')
-		pt(x, y+r*1.3)
+		b = appendPt(b, x, y+r*1.3)
 		b = append(b, 'L')
-		pt(x-r*1.3, y)
+		b = appendPt(b, x-r*1.3, y)
 		b = append(b, `Z" stroke="#000000" stroke-width="1" fill="`...)
 	default: // "circle" and "open-circle"
 		b = append(b, `<circle cx="`...)
@@ -260,18 +371,26 @@ func (c *canvas) marker(shape string, x, y, r float64, colour string, row int, t
 		b = append(b, ' ')
 		b = append(b, class...)
 	}
-	b = append(b, `"><title>`...)
-	b = appendEsc(b, title)
-	b = append(b, `</title></`...)
+	c.b = append(b, `"><title>`...)
+}
+
+// markerEnd closes what markerStart opened.
+func (c *canvas) markerEnd(shape string) {
 	switch shape {
 	case "triangle", "diamond":
-		b = append(b, "path>"...)
+		c.b = append(c.b, "</title></path>"...)
 	case "square":
-		b = append(b, "rect>"...)
+		c.b = append(c.b, "</title></rect>"...)
 	default:
-		b = append(b, "circle>"...)
+		c.b = append(c.b, "</title></circle>"...)
 	}
-	c.b = b
+}
+
+// appendPt appends "x y", each rounded to 0.1 px.
+func appendPt(b []byte, x, y float64) []byte {
+	b = appendF(b, x)
+	b = append(b, ' ')
+	return appendF(b, y)
 }
 
 // pointGroup opens a group whose plain circles (marker with colour "")
@@ -282,18 +401,27 @@ func (c *canvas) pointGroup(colour string) {
 
 // appendF appends v rounded to 0.1 px.
 func appendF(b []byte, v float64) []byte {
-	r := math.Round(v*10) / 10
-	if !(math.Abs(r) < 1e9) || (r == 0 && math.Signbit(r)) {
-		return strconv.AppendFloat(b, r, 'f', -1, 64)
+	t := math.Round(v * 10)
+	if !(math.Abs(t) < 1e10) || (t == 0 && math.Signbit(t)) {
+		return strconv.AppendFloat(b, t/10, 'f', -1, 64)
 	}
-	// the same text without the general shortest-form search: r is a whole
-	// number of tenths well inside the exact range of float64
-	n := int64(math.Round(v * 10))
+	// the same text without the general shortest-form search: t/10 is a
+	// whole number of tenths well inside the exact range of float64
+	n := int64(t)
 	if n < 0 {
 		b = append(b, '-')
 		n = -n
 	}
-	b = strconv.AppendInt(b, n/10, 10)
+	switch w := n / 10; {
+	case w < 10:
+		b = append(b, byte('0'+w))
+	case w < 100:
+		b = append(b, byte('0'+w/10), byte('0'+w%10))
+	case w < 1000:
+		b = append(b, byte('0'+w/100), byte('0'+w/10%10), byte('0'+w%10))
+	default:
+		b = strconv.AppendInt(b, w, 10)
+	}
 	if d := n % 10; d != 0 {
 		b = append(b, '.', byte('0'+d))
 	}
@@ -333,9 +461,7 @@ func (c *canvas) path(n int, at func(i int) (x, y float64), attrs string) {
 		} else {
 			c.b = append(c.b, 'L')
 		}
-		c.b = appendF(c.b, x)
-		c.b = append(c.b, ' ')
-		c.b = appendF(c.b, y)
+		c.b = appendPt(c.b, x, y)
 	}
 	c.b = append(c.b, `"/>`...)
 }
