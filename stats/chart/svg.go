@@ -256,12 +256,7 @@ func (c *canvas) line(x1, y1, x2, y2 float64, stroke string, width float64, dash
 }
 
 // appendFixed1 appends v as fmt's %.1f writes it.
-func appendFixed1(b []byte, v float64) []byte {
-	if math.IsInf(v, 1) {
-		return append(b, "+Inf"...)
-	}
-	return strconv.AppendFloat(b, v, 'f', 1, 64)
-}
+func appendFixed1(b []byte, v float64) []byte { return strconv.AppendFloat(b, v, 'f', 1, 64) }
 
 // grow makes room for about n more bytes at once (a long chart would
 // otherwise copy its text a dozen times while it grows).
