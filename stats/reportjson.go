@@ -118,22 +118,26 @@ func marshalReport(rep *Report) ([]byte, error) {
 	return append(out, rest...), nil
 }
 
-// outSize guesses the bytes of the long lists, to allocate once.
+// outSize guesses the bytes of the long lists (a little over, from
+// reports of 1,000 and 10,000 readings), to allocate once.
 func outSize(rep *Report) int {
 	n := 0
 	if c := rep.Charts; c != nil {
-		n += 50*len(c.ProbPlot.Points) + 35*len(c.Series)
+		n += 48*len(c.ProbPlot.Points) + 34*len(c.Series)
 	}
 	if s := rep.Stability; s != nil {
 		if s.Chart != nil {
-			n += 45 * len(s.Chart.Points)
+			n += 64 * len(s.Chart.Points)
+			for i := range s.Chart.Points {
+				n += 16 * len(s.Chart.Points[i].Flags)
+			}
 		}
-		n += 200 * len(s.Signals)
+		n += 260 * len(s.Signals)
 		if s.EWMA != nil {
-			n += 75 * len(s.EWMA.Points)
+			n += 82 * len(s.EWMA.Points)
 		}
 		if s.CUSUM != nil {
-			n += 60 * len(s.CUSUM.Points)
+			n += 52 * len(s.CUSUM.Points)
 		}
 	}
 	return n
