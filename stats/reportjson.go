@@ -30,90 +30,101 @@ import (
 // then lets json.Marshal encode the report (and name a bad value).
 var errSplice = errors.New("report JSON: a long list could not be written directly")
 
-// hole is one long list taken out of the report: the JSON of its marker
-// and the list itself, written.
-type hole struct {
-	marker []byte
-	write  func(b []byte) ([]byte, bool)
+// holes are the long lists taken out of the report: for each, the JSON of
+// its marker, its length and how to write its element i.
+type holes struct {
+	list []hole
 }
 
-// punch replaces *list (when it has elements) by a one-element list
-// holding mark(k), k being the hole's number, and records how to write
-// the list in its place.
-func punch[T any](holes *[]hole, list *[]T, mark func(int) T, write func(b []byte, p *T) ([]byte, bool)) {
-	pts := *list
-	if len(pts) == 0 {
-		return
-	}
-	k := len(*holes)
-	*list = []T{mark(math.MinInt64 + k)}
-	*holes = append(*holes, hole{write: func(b []byte) ([]byte, bool) {
-		b = append(b, '[')
-		ok := true
-		for i := range pts {
-			if i > 0 {
-				b = append(b, ',')
-			}
-			var good bool
-			b, good = write(b, &pts[i])
-			ok = ok && good
-		}
-		return append(b, ']'), ok
-	}})
-	var err error
-	if (*holes)[k].marker, err = json.Marshal(*list); err != nil {
+type hole struct {
+	marker []byte
+	n      int
+	elem   func(b []byte, i int) ([]byte, bool)
+}
+
+// mark is the position (or row) of the next marker.
+func (h *holes) mark() int { return math.MinInt64 + len(h.list) }
+
+// add records a list of n elements written by elem, whose place in the
+// report now holds marker (a one-element list made with mark).
+func (h *holes) add(marker any, n int, elem func(b []byte, i int) ([]byte, bool)) {
+	m, err := json.Marshal(marker)
+	if err != nil {
 		panic(err) // a marker holds only zeros and one integer
 	}
+	h.list = append(h.list, hole{marker: m, n: n, elem: elem})
 }
 
 // marshalReport encodes rep exactly as json.Marshal(rep) does (see above).
 // It does not change rep.
 func marshalReport(rep *Report) ([]byte, error) {
 	r := *rep
-	var holes []hole
+	var h holes
 	// in JSON order: charts, then stability
 	if rep.Charts != nil {
 		c := *rep.Charts
-		punch(&holes, &c.ProbPlot.Points, func(m int) ProbPt { return ProbPt{Row: m} }, appendProbPt)
-		punch(&holes, &c.Series, func(m int) SeriesPt { return SeriesPt{I: m} }, appendSeriesPt)
+		if pts := c.ProbPlot.Points; len(pts) > 0 {
+			c.ProbPlot.Points = []ProbPt{{Row: h.mark()}}
+			h.add(c.ProbPlot.Points, len(pts), func(b []byte, i int) ([]byte, bool) { return appendProbPt(b, &pts[i]) })
+		}
+		if pts := c.Series; len(pts) > 0 {
+			c.Series = []SeriesPt{{I: h.mark()}}
+			h.add(c.Series, len(pts), func(b []byte, i int) ([]byte, bool) { return appendSeriesPt(b, &pts[i]) })
+		}
 		r.Charts = &c
 	}
 	if rep.Stability != nil {
 		s := *rep.Stability
-		if s.Chart != nil {
+		if s.Chart != nil && len(s.Chart.Points) > 0 {
 			ch := *s.Chart
-			punch(&holes, &ch.Points, func(m int) CtlPoint { return CtlPoint{I: m} }, appendCtlPoint)
+			pts := ch.Points
+			ch.Points = []CtlPoint{{I: h.mark()}}
+			h.add(ch.Points, len(pts), func(b []byte, i int) ([]byte, bool) { return appendCtlPoint(b, &pts[i]) })
 			s.Chart = &ch
 		}
-		punch(&holes, &s.Signals, func(m int) SignalInfo { return SignalInfo{First: m} }, appendSignal)
-		if s.EWMA != nil {
+		if sig := s.Signals; len(sig) > 0 {
+			s.Signals = []SignalInfo{{First: h.mark()}}
+			h.add(s.Signals, len(sig), func(b []byte, i int) ([]byte, bool) { return appendSignal(b, &sig[i]) })
+		}
+		if s.EWMA != nil && len(s.EWMA.Points) > 0 {
 			e := *s.EWMA
-			punch(&holes, &e.Points, func(m int) EWMAPt { return EWMAPt{I: m} }, ewmaWriter())
+			pts := e.Points
+			e.Points = []EWMAPt{{I: h.mark()}}
+			h.add(e.Points, len(pts), ewmaWriter(pts))
 			s.EWMA = &e
 		}
-		if s.CUSUM != nil {
+		if s.CUSUM != nil && len(s.CUSUM.Points) > 0 {
 			cu := *s.CUSUM
-			punch(&holes, &cu.Points, func(m int) CUSUMPt { return CUSUMPt{I: m} }, appendCUSUMPt)
+			pts := cu.Points
+			cu.Points = []CUSUMPt{{I: h.mark()}}
+			h.add(cu.Points, len(pts), func(b []byte, i int) ([]byte, bool) { return appendCUSUMPt(b, &pts[i]) })
 			s.CUSUM = &cu
 		}
 		r.Stability = &s
 	}
 	rest, err := json.Marshal(&r)
-	if err != nil || len(holes) == 0 {
+	if err != nil || len(h.list) == 0 {
 		return rest, err
 	}
 	out := make([]byte, 0, len(rest)+outSize(rep))
-	for _, h := range holes {
-		at := bytes.Index(rest, h.marker)
+	for _, l := range h.list {
+		at := bytes.Index(rest, l.marker)
 		if at < 0 {
 			return nil, errSplice
 		}
 		out = append(out, rest[:at]...)
-		var ok bool
-		if out, ok = h.write(out); !ok {
-			return nil, errSplice
+		out = append(out, '[')
+		for i := 0; i < l.n; i++ {
+			if i > 0 {
+				out = append(out, ',')
+			}
+			var ok bool
+			if out, ok = l.elem(out, i); !ok {
+				return nil, errSplice
+			}
 		}
-		rest = rest[at+len(h.marker):]
+		out = append(out, ']')
+		rest = rest[at+len(l.marker):]
 	}
 	return append(out, rest...), nil
 }
@@ -244,9 +255,10 @@ func appendSignal(b []byte, s *SignalInfo) ([]byte, bool) {
 
 // ewmaWriter writes EWMA points; the limits, constant after the first
 // few dozen points, are copied from the point before when they are the same.
-func ewmaWriter() func(b []byte, p *EWMAPt) ([]byte, bool) {
+func ewmaWriter(pts []EWMAPt) func(b []byte, i int) ([]byte, bool) {
 	var lo, hi floatMemo
-	return func(b []byte, p *EWMAPt) ([]byte, bool) {
+	return func(b []byte, i int) ([]byte, bool) {
+		p := &pts[i]
 		b = append(b, `{"i":`...)
 		b = strconv.AppendInt(b, int64(p.I), 10)
 		b = append(b, `,"z":`...)

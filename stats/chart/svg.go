@@ -423,9 +423,21 @@ func appendF(b []byte, v float64) []byte {
 	return b
 }
 
-// appendEsc appends s escaped for XML.
+// appendEsc appends s escaped for XML (as esc).
 func appendEsc(b []byte, s string) []byte {
 	for i := 0; i < len(s); i++ {
+		switch s[i] {
+		case '&', '<', '>', '"', '\'':
+			return appendEscFrom(b, s, i)
+		}
+	}
+	return append(b, s...)
+}
+
+// appendEscFrom appends s, escaping from byte i on.
+func appendEscFrom(b []byte, s string, i int) []byte {
+	b = append(b, s[:i]...)
+	for ; i < len(s); i++ {
 		switch ch := s[i]; ch {
 		case '&':
 			b = append(b, "&amp;"...)
