@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"math"
 	"os"
+	"reflect"
 	"strconv"
 	"strings"
 	"testing"
@@ -251,5 +252,66 @@ func TestAppendTypedFloat(t *testing.T) {
 		check(math.Nextafter(f, math.Inf(1)))
 		check(math.Nextafter(f, math.Inf(-1)))
 		check(math.Float64frombits(next()))
+	}
+}
+
+// TestReportJSONListFields fills every field of each list element type
+// with a value that is not zero and requires its appender to write what
+// encoding/json writes: a field added to one of these types fails here
+// until its appender writes it too.
+func TestReportJSONListFields(t *testing.T) {
+	var fill func(v reflect.Value)
+	fill = func(v reflect.Value) {
+		switch v.Kind() {
+		case reflect.Int, reflect.Int64:
+			v.SetInt(-7)
+		case reflect.Float64:
+			v.SetFloat(-1.25e-7)
+		case reflect.String:
+			v.SetString("a<b>&\"c\"")
+		case reflect.Bool:
+			v.SetBool(true)
+		case reflect.Pointer:
+			v.Set(reflect.New(v.Type().Elem()))
+			fill(v.Elem())
+		case reflect.Slice:
+			v.Set(reflect.MakeSlice(v.Type(), 2, 2))
+			fill(v.Index(0))
+			fill(v.Index(1))
+		case reflect.Struct:
+			for i := 0; i < v.NumField(); i++ {
+				fill(v.Field(i))
+			}
+		default:
+			t.Fatalf("fill: a field of kind %s: extend the test", v.Kind())
+		}
+	}
+	var (
+		prob   ProbPt
+		series SeriesPt
+		ctl    CtlPoint
+		sig    SignalInfo
+		ewma   EWMAPt
+		cusum  CUSUMPt
+	)
+	for _, c := range []struct {
+		v     any
+		write func() []byte
+	}{
+		{&prob, func() []byte { b, _ := appendProbPt(nil, &prob); return b }},
+		{&series, func() []byte { b, _ := appendSeriesPt(nil, &series); return b }},
+		{&ctl, func() []byte { b, _ := appendCtlPoint(nil, &ctl); return b }},
+		{&sig, func() []byte { b, _ := appendSignal(nil, &sig); return b }},
+		{&ewma, func() []byte { b, _ := ewmaWriter([]EWMAPt{ewma})(nil, 0); return b }},
+		{&cusum, func() []byte { b, _ := appendCUSUMPt(nil, &cusum); return b }},
+	} {
+		fill(reflect.ValueOf(c.v).Elem())
+		want, err := json.Marshal(c.v)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got := c.write(); !bytes.Equal(got, want) {
+			t.Errorf("%T:\n got %s\nwant %s", c.v, got, want)
+		}
 	}
 }
