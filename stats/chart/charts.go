@@ -169,15 +169,7 @@ func Histogram(r *stats.Report) string {
 	}
 	c := newCanvas(Width, Height, "histogram", "Histogram of "+valueLabel(r), desc)
 	c.yAxis(ys, yt, ydec, f, "count", marginL, Width-marginR)
-	c.printf(`<g class="bars">`)
-	for i, k := range h.Counts {
-		x0, x1 := xs.at(h.Edges[i]), xs.at(h.Edges[i+1])
-		y := ys.at(float64(k))
-		c.printf(`<rect x="%.1f" y="%.1f" width="%.1f" height="%.1f" fill="%s" stroke="%s" stroke-width="1" class="bar" data-bin="%d" data-count="%d"><title>%s</title></rect>`,
-			x0, y, math.Max(x1-x0, 0.5), ys.at(0)-y, SkyBlue, Black, i, k,
-			esc(fmt.Sprintf("%s to %s: %d values", f.Num(h.Edges[i], f.Decimals+1), f.Num(h.Edges[i+1], f.Decimals+1), k)))
-	}
-	c.printf(`</g>`)
+	c.bars(h, xs, ys, f, "")
 	items := []legendItem{{"bar", SkyBlue, "", "count per bin"}}
 	if fit {
 		const steps = 160
@@ -201,6 +193,38 @@ func Histogram(r *stats.Report) string {
 	c.xAxis(xs, xt, xdec, f, valueLabel(r), Height-marginB)
 	c.legend(items)
 	return c.done()
+}
+
+// bars draws a histogram's bins as a group of bars, each titled with its
+// range and count; style goes after the fill colour.
+func (c *canvas) bars(h stats.Histogram, xs, ys scale, f Format, style string) {
+	b := append(c.b, `<g class="bars">`...)
+	for i, k := range h.Counts {
+		x0, x1 := xs.at(h.Edges[i]), xs.at(h.Edges[i+1])
+		y := ys.at(float64(k))
+		b = append(b, `<rect x="`...)
+		b = appendFixed1(b, x0)
+		b = append(b, `" y="`...)
+		b = appendFixed1(b, y)
+		b = append(b, `" width="`...)
+		b = appendFixed1(b, math.Max(x1-x0, 0.5))
+		b = append(b, `" height="`...)
+		b = appendFixed1(b, ys.at(0)-y)
+		b = append(b, `" fill="`+SkyBlue+`"`...)
+		b = append(b, style...)
+		b = append(b, ` stroke="`+Black+`" stroke-width="1" class="bar" data-bin="`...)
+		b = strconv.AppendInt(b, int64(i), 10)
+		b = append(b, `" data-count="`...)
+		b = strconv.AppendInt(b, int64(k), 10)
+		b = append(b, `"><title>`...) // numbers and words: nothing to escape
+		b = f.appendNum(b, h.Edges[i], f.Decimals+1)
+		b = append(b, " to "...)
+		b = f.appendNum(b, h.Edges[i+1], f.Decimals+1)
+		b = append(b, ": "...)
+		b = strconv.AppendInt(b, int64(k), 10)
+		b = append(b, " values</title></rect>"...)
+	}
+	c.b = append(b, `</g>`...)
 }
 
 // suspectKind sorts a flagged reading by how far out it lies.

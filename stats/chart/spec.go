@@ -97,15 +97,7 @@ func SpecFit(r *stats.Report) string {
 	}
 	c := newCanvas(Width, height, "spec", "Readings against the limits, "+valueLabel(r), desc)
 	c.yAxis(ys, yt, ydec, f, "count", marginL, Width-marginR)
-	c.printf(`<g class="bars">`)
-	for i, k := range h.Counts {
-		x0, x1 := xs.at(h.Edges[i]), xs.at(h.Edges[i+1])
-		y := ys.at(float64(k))
-		c.printf(`<rect x="%.1f" y="%.1f" width="%.1f" height="%.1f" fill="%s" fill-opacity="0.6" stroke="%s" stroke-width="1" class="bar" data-bin="%d" data-count="%d"><title>%s</title></rect>`,
-			x0, y, math.Max(x1-x0, 0.5), ys.at(0)-y, SkyBlue, Black, i, k,
-			esc(fmt.Sprintf("%s to %s: %d values", f.Num(h.Edges[i], f.Decimals+1), f.Num(h.Edges[i+1], f.Decimals+1), k)))
-	}
-	c.printf(`</g>`)
+	c.bars(h, xs, ys, f, ` fill-opacity="0.6"`)
 	items := []legendItem{{"bar", SkyBlue, "", "per bin"}}
 	yTop := ys.at(ytop)
 	for _, cv := range curves {

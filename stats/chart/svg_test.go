@@ -215,3 +215,29 @@ func TestPointTitlesInSVG(t *testing.T) {
 		}
 	}
 }
+
+// TestBarsAgreeWithFmt: the histogram's and the spec chart's bars are what
+// the format strings they replaced write.
+func TestBarsAgreeWithFmt(t *testing.T) {
+	h := stats.Histogram{Edges: []float64{-0.0001, 4.95, 5.05, 5.15, 1e9, math.Inf(1)}, Counts: []int{0, 3, 12, 1, 7}}
+	xs, ys := scale{-0.5, 6, marginL, Width - marginR}, scale{0, 12, Height - marginB, marginT}
+	for _, f := range []Format{{Decimals: 2}, {Decimals: 1, DecimalComma: true, Unit: "<g>"}} {
+		for _, style := range []string{"", ` fill-opacity="0.6"`} {
+			var want strings.Builder
+			want.WriteString(`<g class="bars">`)
+			for i, k := range h.Counts {
+				x0, x1 := xs.at(h.Edges[i]), xs.at(h.Edges[i+1])
+				y := ys.at(float64(k))
+				fmt.Fprintf(&want, `<rect x="%.1f" y="%.1f" width="%.1f" height="%.1f" fill="%s"%s stroke="%s" stroke-width="1" class="bar" data-bin="%d" data-count="%d"><title>%s</title></rect>`,
+					x0, y, math.Max(x1-x0, 0.5), ys.at(0)-y, SkyBlue, style, Black, i, k,
+					esc(fmt.Sprintf("%s to %s: %d values", refNum(f, h.Edges[i], f.Decimals+1), refNum(f, h.Edges[i+1], f.Decimals+1), k)))
+			}
+			want.WriteString(`</g>`)
+			c := &canvas{}
+			c.bars(h, xs, ys, f, style)
+			if string(c.b) != want.String() {
+				t.Errorf("bars with %+v:\n got %s\nwant %s", f, c.b, want.String())
+			}
+		}
+	}
+}
