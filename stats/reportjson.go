@@ -14,17 +14,18 @@ import (
 // 10,000-reading report) are written by the appenders below. encoding/json
 // spends most of its time there on reflection per field, and a
 // json.Marshaler would not help: encoding/json checks and compacts whatever
-// a MarshalJSON returns, which costs about as much again in WebAssembly.
+// a MarshalJSON returns, which alone costs more than writing the lists
+// here (2.1 ms against 1.8 ms natively for a 10,000-reading report).
 //
 // marshalReport encodes a shallow copy of the report in which each long
-// list is replaced by one marker element whose position (or row) is
-// math.MinInt64 plus the list's number: no real position or row is
-// negative, so the marker's JSON ("[{"i":-9223372036854775808,...}]")
+// list is replaced by one marker element whose position (or row, or first
+// position) is math.MinInt64 plus the list's number: no real position or
+// row is negative, so the marker's JSON ("[{"i":-9223372036854775808,...}]")
 // occurs nowhere else. The markers are then replaced by the lists as
-// written here. TestReportJSONSame compares the result with json.Marshal.
-// A list type added to a report needs no change here; a field added to
-// one of the point types below needs its appender changed too (the test
-// fails until it is).
+// written here. Every other part of the report, and any list added later,
+// is encoding/json's own. TestReportJSONSame compares whole reports with
+// json.Marshal; a field added to one of the point types below needs its
+// appender changed too (TestReportJSONListFields fails until it is).
 
 // errSplice: a marker was not found or a value is not finite; ReportJSON
 // then lets json.Marshal encode the report (and name a bad value).
