@@ -14,8 +14,10 @@ import (
 // 10,000-reading report) are written by the appenders below. encoding/json
 // spends most of its time there on reflection per field, and a
 // json.Marshaler would not help: encoding/json checks and compacts whatever
-// a MarshalJSON returns, which alone costs more than writing the lists
-// here (2.1 ms against 1.8 ms natively for a 10,000-reading report).
+// a MarshalJSON returns. For a 10,000-reading report in Node as js/wasm,
+// json.Compact of its JSON alone takes 7.7 ms, about as long as
+// json.Marshal of the whole report (8.2 ms); the report written here takes
+// 3.8 ms (natively 2.2, 2.0 and 1.2 ms).
 //
 // marshalReport encodes a shallow copy of the report in which each long
 // list is replaced by one marker element whose position (or row, or first
