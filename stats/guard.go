@@ -105,26 +105,7 @@ func (g *guard) walk(v reflect.Value) (bool, string) {
 			g.note(g.path(), at)
 		}
 	case reflect.Struct:
-		for _, f := range planOf(v.Type()) {
-			if f.flat {
-				if bad, at := g.walk(v.Field(f.index)); bad {
-					return true, at
-				}
-				continue
-			}
-			g.push(pathSeg{name: f.name, index: -1})
-			fv := v.Field(f.index)
-			bad, at := g.walk(fv)
-			if bad && f.omitempty && (fv.Kind() == reflect.Float64 || fv.Kind() == reflect.Float32) && fv.CanSet() {
-				fv.SetFloat(0) // an optional figure: left out of the JSON
-				g.note(g.path(), at)
-				bad = false
-			}
-			g.pop()
-			if bad {
-				return true, at
-			}
-		}
+		return g.walkStruct(v, planOf(v.Type()))
 	case reflect.Slice, reflect.Array:
 		if v.Type() == floatsType {
 			// the common long case (chart coordinates): no reflection per element
@@ -138,12 +119,23 @@ func (g *guard) walk(v reflect.Value) (bool, string) {
 			}
 			return false, ""
 		}
-		if !holdsNumber(v.Type().Elem()) {
+		et := v.Type().Elem()
+		if !holdsNumber(et) {
 			return false, ""
+		}
+		var plan []fieldPlan
+		if et.Kind() == reflect.Struct {
+			plan = planOf(et) // once for the list, not per element (the long point lists)
 		}
 		for i := 0; i < v.Len(); i++ {
 			g.push(pathSeg{index: i})
-			bad, at := g.walk(v.Index(i))
+			var bad bool
+			var at string
+			if plan != nil {
+				bad, at = g.walkStruct(v.Index(i), plan)
+			} else {
+				bad, at = g.walk(v.Index(i))
+			}
 			g.pop()
 			if bad {
 				return true, at
@@ -166,6 +158,32 @@ func (g *guard) walk(v reflect.Value) (bool, string) {
 		}
 		for _, k := range drop {
 			v.SetMapIndex(k, reflect.Value{})
+		}
+	}
+	return false, ""
+}
+
+// walkStruct walks the fields of struct v listed by plan (planOf of its
+// type), as walk does.
+func (g *guard) walkStruct(v reflect.Value, plan []fieldPlan) (bool, string) {
+	for _, f := range plan {
+		if f.flat {
+			if bad, at := g.walk(v.Field(f.index)); bad {
+				return true, at
+			}
+			continue
+		}
+		g.push(pathSeg{name: f.name, index: -1})
+		fv := v.Field(f.index)
+		bad, at := g.walk(fv)
+		if bad && f.omitempty && (fv.Kind() == reflect.Float64 || fv.Kind() == reflect.Float32) && fv.CanSet() {
+			fv.SetFloat(0) // an optional figure: left out of the JSON
+			g.note(g.path(), at)
+			bad = false
+		}
+		g.pop()
+		if bad {
+			return true, at
 		}
 	}
 	return false, ""
