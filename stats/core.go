@@ -398,9 +398,14 @@ func mapFlags(w words, sorted []float64, flags map[int][]Flag, flagged int, cv *
 		fl = append(fl, flags[i])
 		left = append(left, 1)
 	}
+	all := len(idx) // readings still to find: the scan stops when none is left
 	for i, x := range cv.vals {
+		if all == 0 {
+			break
+		}
 		if k := ix.get(x); k >= 0 && left[k] > 0 && !cv.excludedByUser[cv.rows[i]] {
 			left[k]--
+			all--
 			lead := false
 			for _, f := range fl[k] {
 				lead = lead || f.Lead
@@ -436,9 +441,15 @@ func probPlotRows(pts []ProbPt, cv *colView) {
 		need[id]++
 	}
 	got := make([][]int32, len(need))
+	// stop once every point has its row: on readings to a resolution (few
+	// distinct values, each met early) that is long before the end
+	left := len(pts)
 	for i, x := range cv.vals {
 		if id := ix.get(x); id >= 0 && len(got[id]) < need[id] && !cv.excludedByUser[cv.rows[i]] {
 			got[id] = append(got[id], cv.rows[i])
+			if left--; left == 0 {
+				break
+			}
 		}
 	}
 	for i := range pts {
