@@ -242,37 +242,49 @@ func series(cv *colView, excl map[int32]bool, n int) ([]SeriesPt, bool) {
 	}
 	blocks := maxChartPoints / 2
 	out := make([]SeriesPt, 0, maxChartPoints)
-	k := 0
-	var bmin, bmax SeriesPt
-	cur := -1
+	pt := func(k, i int) SeriesPt { return SeriesPt{I: k, Row: int(cv.rows[i]), Y: cv.vals[i]} }
+	// k counts the used readings; the k-th is in block k·blocks/n. The
+	// block's first k and its end (the next block's first k) are worked out
+	// once per block, not with a division per reading, and the block keeps
+	// the cell and k of its smallest and largest reading (the first of
+	// equals).
+	k, end := 0, 0
+	lo, hi, klo, khi := -1, -1, 0, 0
 	flush := func() {
-		if cur < 0 {
-			return
-		}
-		if bmin.I == bmax.I {
-			out = append(out, bmin)
-		} else if bmin.I < bmax.I {
-			out = append(out, bmin, bmax)
-		} else {
-			out = append(out, bmax, bmin)
+		switch {
+		case lo < 0:
+		case klo == khi:
+			out = append(out, pt(klo, lo))
+		case klo < khi:
+			out = append(out, pt(klo, lo), pt(khi, hi))
+		default:
+			out = append(out, pt(khi, hi), pt(klo, lo))
 		}
 	}
-	for i := range cv.inOrder() {
-		if !used(i) {
+	m := len(cv.vals)
+	if cv.seq != nil {
+		m = len(cv.seq)
+	}
+	for j := 0; j < m; j++ {
+		i := j
+		if cv.seq != nil {
+			i = int(cv.seq[j])
+		}
+		x := cv.vals[i]
+		if x != x || math.IsInf(x, 0) || (excl != nil && excl[cv.rows[i]]) {
 			continue
 		}
-		blk := int(int64(k) * int64(blocks) / int64(n))
-		p := SeriesPt{I: k, Row: int(cv.rows[i]), Y: cv.vals[i]}
-		if blk != cur {
+		if k >= end {
 			flush()
-			cur = blk
-			bmin, bmax = p, p
+			blk := int(int64(k) * int64(blocks) / int64(n))
+			end = int((int64(blk+1)*int64(n) + int64(blocks) - 1) / int64(blocks))
+			lo, hi, klo, khi = i, i, k, k
 		} else {
-			if p.Y < bmin.Y {
-				bmin = p
+			if x < cv.vals[lo] {
+				lo, klo = i, k
 			}
-			if p.Y > bmax.Y {
-				bmax = p
+			if x > cv.vals[hi] {
+				hi, khi = i, k
 			}
 		}
 		k++
