@@ -66,10 +66,7 @@ window.lotlens = Object.freeze({
 const incoming = takeFromAddress();
 startEngine();
 // once the engine is warm, warm the page's rendering too, when idle
-onWarmed((json, svg) => {
-  const go = () => warmRender(json, svg);
-  if ("requestIdleCallback" in window) requestIdleCallback(go, { timeout: 2000 }); else setTimeout(go, 50);
-});
+onWarmed(warmRender);
 whenReady().then(async () => {
   if (incoming) await openIncoming(incoming);
   else if (!document.body.dataset.shareError && !state.report) setStatus("Ready. Paste values, open a file or try the demo.");
