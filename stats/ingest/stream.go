@@ -871,6 +871,9 @@ func (s *Stream) fastLines(data []byte) int {
 	}
 	pos := 0
 	for {
+		if one != nil && one.num && len(s.pend) == 0 && s.row >= HeadRows {
+			pos += s.decimalLines(one, data[pos:])
+		}
 		rest := data[pos:]
 		i := 0
 		for i < len(rest) {
@@ -911,4 +914,84 @@ func (s *Stream) fastLines(data []byte) int {
 		}
 		pos += next
 	}
+}
+
+// decimalLines is fastLines' inner loop for one column of numbers: it takes
+// the lines from the start of data that are plain decimals in the column's
+// form (what fastDecimal accepts, in canonical form) ended by LF or CRLF,
+// parses each in the same pass that finds its end, and returns the bytes
+// it consumed. The result is what fastLines would do with each line (no
+// head row, no pending empty rows, nothing kept as text); the slices are
+// kept in locals so that the loop makes no call but append's growth.
+func (s *Stream) decimalLines(c *Column, data []byte) int {
+	vals, decs, rows := c.Values, c.Dec, s.rows
+	row, longest := s.row, s.longest
+	mark := c.mark
+	pos := 0
+	n := len(data)
+	for pos < n {
+		i := pos
+		neg := data[i] == '-'
+		if neg {
+			i++
+		}
+		start := i
+		var m uint64
+		for i < n {
+			d := data[i] - '0'
+			if d >= 10 {
+				break
+			}
+			m = m*10 + uint64(d)
+			i++
+		}
+		intDigits := i - start
+		dec := 0
+		if i < n && data[i] == mark {
+			i++
+			fs := i
+			for i < n {
+				d := data[i] - '0'
+				if d >= 10 {
+					break
+				}
+				m = m*10 + uint64(d)
+				i++
+			}
+			dec = i - fs
+			if dec == 0 {
+				break
+			}
+		}
+		// the limits of fastDecimal, and its canonical form (no leading zero)
+		if intDigits == 0 || i >= n || i-pos > 17 || intDigits+dec > 15 || (intDigits > 1 && data[start] == '0') {
+			break
+		}
+		next := i + 1
+		if data[i] != '\n' {
+			if data[i] != '\r' || i+1 >= n || data[i+1] != '\n' {
+				break
+			}
+			next = i + 2
+		}
+		v := float64(m)
+		if dec > 0 {
+			v /= pow10[dec]
+		}
+		if neg {
+			v = -v
+		}
+		row++
+		if i-pos > longest {
+			longest = i - pos
+		}
+		vals = append(vals, v)
+		decs = append(decs, int8(dec))
+		rows = append(rows, int32(row))
+		pos = next
+	}
+	c.Numbers += row - s.row
+	c.Values, c.Dec, s.rows = vals, decs, rows
+	s.row, s.longest = row, longest
+	return pos
 }

@@ -1,0 +1,114 @@
+package ingest
+
+import (
+	"fmt"
+	"math"
+	"math/rand"
+	"reflect"
+	"strings"
+	"testing"
+)
+
+// nearDecimal draws a cell that is a plain decimal or close to one: signs,
+// leading zeros, both marks, up to 19 digits, spaces, exponents, units and
+// missing markers, so that every limit of the fast paths is crossed.
+func nearDecimal(r *rand.Rand, mark byte, odd bool) string {
+	var b strings.Builder
+	switch r.Intn(40) {
+	case 0:
+		if !odd {
+			return "NA"
+		}
+		return []string{"NA", "-", "", "12.5 g", "1e3", "+4", "abc", "1,234", "1.234", "1 234,5", "−2"}[r.Intn(11)]
+	case 1:
+		b.WriteByte(' ')
+	}
+	if r.Intn(4) == 0 {
+		b.WriteByte('-')
+	}
+	digits := r.Intn(20)
+	if r.Intn(3) > 0 {
+		digits = 1 + r.Intn(7)
+	}
+	frac := -1
+	if r.Intn(3) > 0 {
+		frac = r.Intn(digits + 1)
+	}
+	for k := 0; k < digits; k++ {
+		if k == frac && k > 0 {
+			m := mark
+			if odd && r.Intn(25) == 0 {
+				m = '.' + ',' - mark
+			}
+			b.WriteByte(m)
+		}
+		d := byte('0' + r.Intn(10))
+		if k == 0 && r.Intn(6) > 0 && d == '0' {
+			d = '1'
+		}
+		b.WriteByte(d)
+	}
+	if digits > 0 && frac == digits && r.Intn(8) == 0 {
+		b.WriteByte(mark) // a mark without decimals
+	}
+	if r.Intn(40) == 0 {
+		b.WriteByte('\t')
+	}
+	return b.String()
+}
+
+// TestTextColumnLikeCells: one column of text lines (read by the fast
+// paths for plain lines and plain decimals) gives the column that the same
+// cells read one by one give (ReadCells: the general path of every cell).
+// Check values: the general path (parseNumber, strconv.ParseFloat).
+func TestTextColumnLikeCells(t *testing.T) {
+	r := rand.New(rand.NewSource(17))
+	for round := 0; round < 60; round++ {
+		mark := byte('.')
+		if round%3 == 2 {
+			mark = ','
+		}
+		n := 50 + r.Intn(3000)
+		var text strings.Builder
+		text.WriteString("Value\n")
+		crlf := round%4 == 1
+		var cells []Cell
+		for i := 0; i < n; i++ {
+			s := nearDecimal(r, mark, round%2 == 0)
+			if i == 0 || (i == n-1 && strings.TrimSpace(s) == "") {
+				s = "1" // a number under the header; no empty line at the end
+			}
+			text.WriteString(s)
+			if crlf {
+				text.WriteByte('\r')
+			}
+			text.WriteByte('\n')
+			cells = append(cells, Cell{Row: i + 2, Text: s})
+		}
+		tt, err := Read(text.String())
+		if err != nil {
+			t.Fatalf("round %d: %v", round, err)
+		}
+		ct, err := ReadCells("Value", cells, ReadOptions{})
+		if err != nil {
+			t.Fatalf("round %d cells: %v", round, err)
+		}
+		x, c := tt.Columns[0], ct.Columns[0]
+		ci := c.ColumnInfo
+		ci.Header = "Value" // cells have no header
+		if tt.HeaderRow != 1 || x.ColumnInfo != ci {
+			t.Fatalf("round %d: header row %d, %+v, cells %+v", round, tt.HeaderRow, x.ColumnInfo, c.ColumnInfo)
+		}
+		if !reflect.DeepEqual(x.Rows, c.Rows) || !reflect.DeepEqual(x.Dec, c.Dec) || !reflect.DeepEqual(tt.Problems, ct.Problems) {
+			t.Fatalf("round %d: rows, decimals or problems differ", round)
+		}
+		for i := range c.Values {
+			if math.Float64bits(x.Values[i]) != math.Float64bits(c.Values[i]) || x.Text(i) != c.Text(i) {
+				t.Fatalf("round %d cell %q: %v %q, general path %v %q", round, cells[i].Text, x.Values[i], x.Text(i), c.Values[i], c.Text(i))
+			}
+		}
+		if testing.Verbose() && round < 4 {
+			fmt.Println(tt.Summary())
+		}
+	}
+}
