@@ -112,3 +112,20 @@ func TestTextColumnLikeCells(t *testing.T) {
 		}
 	}
 }
+
+// trimCell's shortcut for cells that start and end with printable ASCII
+// trims as strings.TrimFunc with isSpaceRune does.
+func TestTrimCellShortcut(t *testing.T) {
+	r := rand.New(rand.NewSource(23))
+	atoms := []string{"1", ".", "a", " ", "\t", "\v", "\f", "\u00a0", "\u2009", "\u3000", "\x7f", "\x01", "~", "!", "µ", "\xff", "\xc2", "\x80"}
+	for i := 0; i < 200000; i++ {
+		var b strings.Builder
+		for k := r.Intn(6); k >= 0; k-- {
+			b.WriteString(atoms[r.Intn(len(atoms))])
+		}
+		s := b.String()
+		if got, want := trimCell(s), strings.TrimFunc(s, isSpaceRune); got != want {
+			t.Fatalf("trimCell(%q) = %q, want %q", s, got, want)
+		}
+	}
+}

@@ -46,10 +46,10 @@ type sniffRec struct {
 }
 
 func classify(s string) sniffCell {
-	if body, ok := plainDecimal(s); ok {
+	if ev, ok := plainDecimal(s); ok {
 		// what the general path below decides for such a cell: a number
 		// without unit, read with the mark it holds
-		return sniffCell{text: s, cls: cNumber, ev: evidence(body)}
+		return sniffCell{text: s, cls: cNumber, ev: ev}
 	}
 	return classifyAny(s)
 }
@@ -89,25 +89,39 @@ func classifyAny(s string) sniffCell {
 
 // plainDecimal reports whether s is digits with an optional leading minus
 // and at most one decimal mark ('.' or ',') between digits, the common cell
-// of a pasted column, and returns s without its sign.
-func plainDecimal(s string) (string, bool) {
+// of a pasted column, and returns what evidence says of s without its sign.
+func plainDecimal(s string) (markEvidence, bool) {
 	body := s
 	if len(body) > 0 && body[0] == '-' {
 		body = body[1:]
 	}
 	if len(body) == 0 || body[0]-'0' >= 10 || body[len(body)-1]-'0' >= 10 {
-		return "", false
+		return evNone, false
 	}
-	marks := 0
+	k := -1 // the mark's position
 	for i := 1; i < len(body)-1; i++ {
 		if c := body[i]; c-'0' >= 10 {
-			if c != '.' && c != ',' {
-				return "", false
+			if (c != '.' && c != ',') || k >= 0 {
+				return evNone, false
 			}
-			marks++
+			k = i
 		}
 	}
-	return body, marks <= 1
+	if k < 0 {
+		return evNone, true
+	}
+	// evidence(body) for digits with one mark at k: the integer part is k
+	// digits starting with body[0], without group runes
+	three := len(body)-k-1 == 3 && k <= 3 && body[0] != '0'
+	switch {
+	case body[k] == ',' && three:
+		return evAmbig, true
+	case body[k] == ',':
+		return evComma, true
+	case three:
+		return evAmbigP, true
+	}
+	return evPoint, true
 }
 
 // Errors for inputs that are not tables of text.
@@ -486,7 +500,11 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 			if lay.transposeName {
 				cells = cells[1:]
 			}
-			c := s.newColumn(colPlan{name: name, unit: unit, header: header}, 1, cells, markHint(lay.sep, [][]sniffCell{cells}))
+			tl := make([]colTally, 1)
+			for k := range cells {
+				tl[0].add(&cells[k])
+			}
+			c := s.newColumn(colPlan{name: name, unit: unit, header: header}, 1, &tl[0], markHint(lay.sep, tl))
 			s.cols = []*Column{c}
 			return
 		}
@@ -588,34 +606,22 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 		}
 		seen[p.name] = true
 	}
-	// cells of each column in the window
-	colCells := make([][]sniffCell, ncols)
+	// what the cells of each column in the window say, in cell order
+	tallies := make([]colTally, ncols)
 	dataRecs := 0
-	counts := make([]int, ncols)
 	for _, r := range recs {
 		if r.row < lay.dataStart || r.blank {
 			continue
 		}
 		dataRecs++
 		for j := 0; j < ncols && j < len(r.cells); j++ {
-			counts[j]++
-		}
-	}
-	for j := range colCells {
-		colCells[j] = make([]sniffCell, 0, counts[j])
-	}
-	for _, r := range recs {
-		if r.row < lay.dataStart || r.blank {
-			continue
-		}
-		for j := 0; j < ncols && j < len(r.cells); j++ {
-			colCells[j] = append(colCells[j], r.cells[j])
+			tallies[j].add(&r.cells[j])
 		}
 	}
 	s.cols = make([]*Column, ncols)
-	hint := markHint(lay.sep, colCells)
+	hint := markHint(lay.sep, tallies)
 	for j := range plans {
-		s.cols[j] = s.newColumn(plans[j], j+1, colCells[j], hint)
+		s.cols[j] = s.newColumn(plans[j], j+1, &tallies[j], hint)
 	}
 	// size the columns once when the input size is known
 	if h := s.opt.SizeHint; h > int64(winBytes) && dataRecs >= 64 && winBytes >= 4096 {
@@ -630,49 +636,68 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 	}
 }
 
-// newColumn decides a column's kind, decimal mark, unit and date order from
-// its cells in the window.
-func (s *Stream) newColumn(p colPlan, pos int, cells []sniffCell, hint byte) *Column {
-	c := &Column{ColumnInfo: ColumnInfo{Name: p.name, Unit: p.unit, Position: pos, Header: p.header}, mark: '.'}
-	var nNum, nTime, nText int
-	var comma, point, ambig, ambigP int
-	units := map[string]int{}
-	var unitOrder []string
-	dayEv, monthEv := 0, 0
-	for _, x := range cells {
-		switch x.cls {
-		case cNumber:
-			nNum++
-			switch x.ev {
-			case evComma:
-				comma++
-			case evPoint:
-				point++
-			case evAmbig:
-				ambig++
-			case evAmbigP:
-				ambigP++
+// colTally is what a column's cells in the window say about its kind,
+// decimal mark, unit and date order, added up cell by cell in order.
+type colTally struct {
+	nNum, nTime, nText          int
+	comma, point, ambig, ambigP int
+	units                       map[string]int
+	unitOrder                   []string // in order of first appearance
+	dayEv, monthEv              int
+	slash                       bool   // a date like 03/04/2026
+	firstAmbig                  string // the first cell like "1,234"
+}
+
+func (t *colTally) add(x *sniffCell) {
+	switch x.cls {
+	case cNumber:
+		t.nNum++
+		switch x.ev {
+		case evComma:
+			t.comma++
+		case evPoint:
+			t.point++
+		case evAmbig:
+			if t.ambig == 0 {
+				t.firstAmbig = x.text
 			}
-			if x.unit != "" {
-				if units[x.unit] == 0 {
-					unitOrder = append(unitOrder, x.unit)
-				}
-				units[x.unit]++
-			}
-		case cTime:
-			nTime++
-			if x.date.form == dfSlash {
-				if x.date.a > 12 {
-					dayEv++
-				}
-				if x.date.b > 12 {
-					monthEv++
-				}
-			}
-		case cText:
-			nText++
+			t.ambig++
+		case evAmbigP:
+			t.ambigP++
 		}
+		if x.unit != "" {
+			if t.units == nil {
+				t.units = map[string]int{}
+			}
+			if t.units[x.unit] == 0 {
+				t.unitOrder = append(t.unitOrder, x.unit)
+			}
+			t.units[x.unit]++
+		}
+	case cTime:
+		t.nTime++
+		if x.date.form == dfSlash {
+			t.slash = true
+			if x.date.a > 12 {
+				t.dayEv++
+			}
+			if x.date.b > 12 {
+				t.monthEv++
+			}
+		}
+	case cText:
+		t.nText++
 	}
+}
+
+// newColumn decides a column's kind, decimal mark, unit and date order from
+// what its cells in the window say.
+func (s *Stream) newColumn(p colPlan, pos int, t *colTally, hint byte) *Column {
+	c := &Column{ColumnInfo: ColumnInfo{Name: p.name, Unit: p.unit, Position: pos, Header: p.header}, mark: '.'}
+	nNum, nTime, nText := t.nNum, t.nTime, t.nText
+	comma, point, ambig, ambigP := t.comma, t.point, t.ambig, t.ambigP
+	units, unitOrder := t.units, t.unitOrder
+	dayEv, monthEv := t.dayEv, t.monthEv
 	nonMissing := nNum + nTime + nText
 	switch {
 	case nonMissing == 0:
@@ -718,7 +743,7 @@ func (s *Stream) newColumn(p colPlan, pos int, cells []sniffCell, hint byte) *Co
 				c.mark = '.'
 			}
 			s.problem(Problem{Column: c.Name, Col: pos, Kind: KindAmbiguous,
-				Reason: fmt.Sprintf("in column %q a value like %q can mean %s", c.Name, firstAmbig(cells), ambigMeaning(firstAmbig(cells))),
+				Reason: fmt.Sprintf("in column %q a value like %q can mean %s", c.Name, t.firstAmbig, ambigMeaning(t.firstAmbig)),
 				Action: "read with the decimal " + markName(c.mark) + "; choose the decimal mark if this is wrong"})
 		}
 		c.DecimalComma = c.mark == ','
@@ -732,7 +757,7 @@ func (s *Stream) newColumn(p colPlan, pos int, cells []sniffCell, hint byte) *Co
 			c.Unit = strings.Clone(best) // cells' texts alias the input
 		}
 	}
-	if c.Kind == "time" && (dayEv > 0 || monthEv > 0 || hasSlash(cells)) {
+	if c.Kind == "time" && (dayEv > 0 || monthEv > 0 || t.slash) {
 		switch {
 		case dayEv > 0 && monthEv == 0:
 			c.DateOrder = "day-first"
@@ -756,29 +781,11 @@ func (s *Stream) newColumn(p colPlan, pos int, cells []sniffCell, hint byte) *Co
 	return c
 }
 
-func hasSlash(cells []sniffCell) bool {
-	for _, x := range cells {
-		if x.cls == cTime && x.date.form == dfSlash {
-			return true
-		}
-	}
-	return false
-}
-
 func markName(m byte) string {
 	if m == ',' {
 		return "comma"
 	}
 	return "point"
-}
-
-func firstAmbig(cells []sniffCell) string {
-	for _, x := range cells {
-		if x.cls == cNumber && x.ev == evAmbig {
-			return x.text
-		}
-	}
-	return ""
 }
 
 func ambigMeaning(s string) string {
@@ -1061,23 +1068,14 @@ func numberRole(c *Column) string {
 // markHint is the decimal mark the whole file shows: semicolon-separated
 // files come from decimal-comma locales; otherwise unambiguous cells in any
 // column decide, when they agree. 0 when nothing decides.
-func markHint(sep byte, cols [][]sniffCell) byte {
+func markHint(sep byte, cols []colTally) byte {
 	if sep == ';' {
 		return ','
 	}
 	comma, point := 0, 0
-	for _, cells := range cols {
-		for _, x := range cells {
-			if x.cls != cNumber {
-				continue
-			}
-			switch x.ev {
-			case evComma:
-				comma++
-			case evPoint:
-				point++
-			}
-		}
+	for _, t := range cols {
+		comma += t.comma
+		point += t.point
 	}
 	switch {
 	case comma > 0 && point == 0:
