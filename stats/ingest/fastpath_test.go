@@ -1,12 +1,14 @@
 package ingest
 
 import (
+	"bytes"
 	"fmt"
 	"math"
 	"math/rand"
 	"reflect"
 	"strings"
 	"testing"
+	"unicode"
 )
 
 // nearDecimal draws a cell that is a plain decimal or close to one: signs,
@@ -126,6 +128,52 @@ func TestTrimCellShortcut(t *testing.T) {
 		s := b.String()
 		if got, want := trimCell(s), strings.TrimFunc(s, isSpaceRune); got != want {
 			t.Fatalf("trimCell(%q) = %q, want %q", s, got, want)
+		}
+	}
+}
+
+// The sniffing pass's shortcuts for a window without quotes cut and count
+// as the splitter and splitPlain do: plainRecords gives the splitter's
+// records (LF, CRLF and CR texts, mixed), countFields the number of fields.
+func TestPlainRecordsLikeSplitter(t *testing.T) {
+	r := rand.New(rand.NewSource(29))
+	atoms := []string{"1", "a", ",", ";", " ", "\t", "\r", "\n", "\r\n", "\n\r", "\r\r\n", "|", "\xb5"}
+	for i := 0; i < 100000; i++ {
+		var b []byte
+		for k := r.Intn(12); k >= 0; k-- {
+			b = append(b, atoms[r.Intn(len(atoms))]...)
+		}
+		brk, other := byte('\n'), byte('\r')
+		if bytes.IndexByte(b, '\n') < 0 {
+			brk, other = '\r', '\n'
+		}
+		for _, sep := range []byte{0, '\t', ',', ';', '|', ' '} {
+			var want [][]byte
+			sp := splitter{brk: brk, other: other, sep: sep}
+			sp.emit = func(rec []byte, quoted bool) { want = append(want, append([]byte{}, rec...)) }
+			sp.feed(b)
+			sp.finish()
+			got := plainRecords(b, nil)
+			if len(got) != len(want) {
+				t.Fatalf("%q: %d records, splitter %d", b, len(got), len(want))
+			}
+			for k, g := range got {
+				rec := b[g.start:g.end]
+				if !bytes.Equal(rec, want[k]) {
+					t.Fatalf("%q: record %d %q, splitter %q", b, k, rec, want[k])
+				}
+				if n := len(splitPlain(rec, sep, nil)); countFields(rec, sep) != n {
+					t.Fatalf("%q separator %q: %d fields, splitPlain %d", rec, sep, countFields(rec, sep), n)
+				}
+			}
+		}
+		if s := string(b); hasSpace(s) != (strings.IndexFunc(s, unicode.IsSpace) >= 0) {
+			t.Fatalf("hasSpace(%q) = %v", s, hasSpace(s))
+		}
+	}
+	for _, s := range []string{"1\u00a02", "1\u20002", "µ 2", "\x85", "1\u3000"} {
+		if hasSpace(s) != (strings.IndexFunc(s, unicode.IsSpace) >= 0) {
+			t.Fatalf("hasSpace(%q) = %v", s, hasSpace(s))
 		}
 	}
 }

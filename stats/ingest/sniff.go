@@ -39,10 +39,98 @@ type sniffCell struct {
 	date *dateCell
 }
 
+// sniffRec is one record of the window: its cells are
+// sniffWin.cells[first:first+n].
 type sniffRec struct {
-	row   int
-	cells []sniffCell
-	blank bool
+	row      int
+	first, n int32
+	blank    bool
+}
+
+// cellRec is a classified cell of the window kept without pointers (the
+// window's records and cells are most of what reading a short paste
+// allocates and writes): its text is win[off:off+n], or, when aux > 0,
+// the text, unit and date are in sniffWin.extra[aux-1].
+type cellRec struct {
+	off, n uint32
+	aux    int32
+	cls    cls
+	ev     markEvidence
+}
+
+type cellExtra struct {
+	text, unit string
+	date       *dateCell
+}
+
+// sniffWin holds the classified cells of the window's records.
+type sniffWin struct {
+	win   []byte
+	cells []cellRec
+	extra []cellExtra
+}
+
+// add stores x, whose text is win[off:off+len(x.text)] when inWin.
+func (w *sniffWin) add(x sniffCell, off int, inWin bool) {
+	c := cellRec{cls: x.cls, ev: x.ev}
+	if inWin && x.unit == "" && x.date == nil {
+		if len(x.text) > 0 {
+			c.off, c.n = uint32(off), uint32(len(x.text))
+		}
+	} else {
+		w.extra = append(w.extra, cellExtra{text: x.text, unit: x.unit, date: x.date})
+		c.aux = int32(len(w.extra))
+	}
+	w.cells = append(w.cells, c)
+}
+
+// of returns the cells of r.
+func (w *sniffWin) of(r sniffRec) []cellRec { return w.cells[r.first : r.first+r.n] }
+
+// cell returns c as classify gave it.
+func (w *sniffWin) cell(c *cellRec) sniffCell {
+	if c.aux > 0 {
+		e := &w.extra[c.aux-1]
+		return sniffCell{text: e.text, cls: c.cls, ev: c.ev, unit: e.unit, date: e.date}
+	}
+	return sniffCell{text: w.text(c), cls: c.cls, ev: c.ev}
+}
+
+// text returns c's text.
+func (w *sniffWin) text(c *cellRec) string {
+	if c.aux > 0 {
+		return w.extra[c.aux-1].text
+	}
+	if c.n == 0 {
+		return ""
+	}
+	return unsafe.String(&w.win[c.off], int(c.n))
+}
+
+// span is a record of the window: win[start:end].
+type span struct{ start, end int }
+
+// plainRecords splits a window without quotes into the records the
+// splitter gives for it: lines ended by CRLF, LF or CR, the last one only
+// when it is not empty. (The splitter strips a CR before its LF and splits
+// the rest at CRs; without quotes no record holds a line break.)
+func plainRecords(win []byte, out []span) []span {
+	start := 0
+	for i := 0; i < len(win); i++ {
+		c := win[i]
+		if c != '\n' && c != '\r' {
+			continue
+		}
+		out = append(out, span{start, i})
+		if c == '\r' && i+1 < len(win) && win[i+1] == '\n' {
+			i++
+		}
+		start = i + 1
+	}
+	if start < len(win) {
+		out = append(out, span{start, len(win)})
+	}
+	return out
 }
 
 func classify(s string) sniffCell {
@@ -260,57 +348,91 @@ func (s *Stream) sniff(text []byte, eof bool) {
 	if s.lay.brk == '\r' {
 		other = '\n'
 	}
-	s.lay.sep = chooseSep(win, s.lay.brk, other)
+	// Without quotes the records do not depend on the separator: the
+	// window is cut into records once, for chooseSep and for the cells.
+	var spans []span
+	if bytes.IndexByte(win, '"') < 0 && len(win) < 1<<31 {
+		spans = plainRecords(win, make([]span, 0, bytes.Count(win, []byte{s.lay.brk})+1))
+	}
+	s.lay.sep = chooseSep(win, s.lay.brk, other, spans)
 	s.tab.Format.Separator = map[byte]string{'\t': "tab", ',': "comma", ';': "semicolon", '|': "pipe", ' ': "spaces", 0: "none"}[s.lay.sep]
 
 	// records of the window, split as the main pass will split them. The
 	// cells' texts alias the window (or buffers made for one record and
-	// never reused): plan clones what it keeps. Records and cells are
-	// allocated in blocks, not one by one: this pass is most of the cost of
-	// reading a short paste.
-	lines := bytes.Count(win, []byte{s.lay.brk}) + 1
-	recs := make([]sniffRec, 0, lines)
-	var arena []sniffCell
-	row := 0
-	tmp := splitter{brk: s.lay.brk, other: other, sep: s.lay.sep}
+	// never reused): plan clones what it keeps.
+	w := &sniffWin{win: win}
+	var recs []sniffRec
 	var fields [][]byte
-	tmp.emit = func(rec []byte, quoted bool) {
-		row++
-		if tmp.unclosed && !whole {
-			return
-		}
-		if !utf8.Valid(rec) {
-			rec = fromWindows1252(nil, rec)
-		}
-		if quoted {
-			fields = splitQuoted(rec, s.lay.sep, fields)
-		} else {
-			fields = splitPlain(rec, s.lay.sep, fields)
-		}
-		r := sniffRec{row: row, blank: blankFields(fields)}
-		if !r.blank {
-			if cap(arena)-len(arena) < len(fields) {
-				arena = make([]sniffCell, 0, max(len(fields)*max(lines-row+1, 1), 64))
+	if spans != nil {
+		recs = make([]sniffRec, 0, len(spans))
+		w.cells = make([]cellRec, 0, len(spans))
+		valid := utf8.Valid(win) // then so is every record (split at ASCII bytes)
+		var one [1][]byte
+		for k, sp := range spans {
+			rec := win[sp.start:sp.end]
+			inWin := valid || utf8.Valid(rec)
+			if !inWin {
+				rec = fromWindows1252(nil, rec)
 			}
-			k := len(arena)
-			for _, f := range fields {
-				arena = append(arena, classify(trimCell(unsafe.String(unsafe.SliceData(f), len(f)))))
+			if s.lay.sep == 0 {
+				one[0] = rec
+				fields = one[:]
+			} else {
+				fields = splitPlain(rec, s.lay.sep, fields)
 			}
-			r.cells = arena[k:len(arena):len(arena)]
+			r := sniffRec{row: k + 1, blank: blankFields(fields), first: int32(len(w.cells))}
+			if !r.blank {
+				for _, f := range fields {
+					t := trimCell(unsafe.String(unsafe.SliceData(f), len(f)))
+					off := 0
+					if inWin && len(t) > 0 {
+						off = sp.start + int(uintptr(unsafe.Pointer(unsafe.StringData(t)))-uintptr(unsafe.Pointer(unsafe.SliceData(rec))))
+					}
+					w.add(classify(t), off, inWin)
+				}
+				r.n = int32(len(fields))
+			}
+			recs = append(recs, r)
 		}
-		recs = append(recs, r)
+	} else {
+		recs = make([]sniffRec, 0, bytes.Count(win, []byte{s.lay.brk})+1)
+		row := 0
+		tmp := splitter{brk: s.lay.brk, other: other, sep: s.lay.sep}
+		tmp.emit = func(rec []byte, quoted bool) {
+			row++
+			if tmp.unclosed && !whole {
+				return
+			}
+			if !utf8.Valid(rec) {
+				rec = fromWindows1252(nil, rec)
+			}
+			if quoted {
+				fields = splitQuoted(rec, s.lay.sep, fields)
+			} else {
+				fields = splitPlain(rec, s.lay.sep, fields)
+			}
+			r := sniffRec{row: row, blank: blankFields(fields), first: int32(len(w.cells))}
+			if !r.blank {
+				for _, f := range fields {
+					w.add(classify(trimCell(unsafe.String(unsafe.SliceData(f), len(f)))), 0, false)
+				}
+				r.n = int32(len(fields))
+			}
+			recs = append(recs, r)
+		}
+		tmp.feed(win)
+		tmp.finish()
 	}
-	tmp.feed(win)
-	tmp.finish()
 	s.sp = splitter{brk: s.lay.brk, other: other, sep: s.lay.sep, emit: s.onRecord}
 	if s.lay.brk == '\n' {
 		s.sp.fast = s.fastLines
 	}
-	s.plan(recs, whole, len(win))
+	s.plan(w, recs, whole, len(win))
 }
 
-// chooseSep picks the separator from the window's lines.
-func chooseSep(win []byte, brk, other byte) byte {
+// chooseSep picks the separator from the window's lines. spans, when not
+// nil, are the records of a window without quotes (plainRecords).
+func chooseSep(win []byte, brk, other byte, spans []span) byte {
 	// records under a separator (quotes decide where records end)
 	n := bytes.Count(win, []byte{brk}) + 1
 	records := func(sep byte) (counts []int, lines [][]byte) {
@@ -344,16 +466,45 @@ func chooseSep(win []byte, brk, other byte) byte {
 	// Without quotes, a separator absent from the window gives every record
 	// one field: not consistent, and no need to split the window again.
 	noQuotes := bytes.IndexByte(win, '"') < 0
-	_, lines := records(0)
-	if len(lines) == 0 {
+	// the non-blank records: lines, or plain (parts of win) with spans
+	var lines [][]byte
+	var plain []span
+	nLines := 0
+	if spans != nil {
+		plain = make([]span, 0, len(spans))
+		for _, r := range spans {
+			if !blank(win[r.start:r.end]) {
+				plain = append(plain, r)
+			}
+		}
+		nLines = len(plain)
+	} else {
+		_, lines = records(0)
+		nLines = len(lines)
+	}
+	if nLines == 0 {
 		return 0
 	}
-	tail := lines[len(lines)/2:]
+	line := func(i int) []byte {
+		if spans != nil {
+			return win[plain[i].start:plain[i].end]
+		}
+		return lines[i]
+	}
 	consistent := func(sep byte) bool {
 		if noQuotes && bytes.IndexByte(win, sep) < 0 && (sep != ' ' || bytes.IndexByte(win, '\t') < 0) {
 			return false
 		}
-		counts, _ := records(sep)
+		var counts []int
+		if spans != nil {
+			// the records are those of any separator: count the fields
+			counts = make([]int, len(plain))
+			for i, r := range plain {
+				counts[i] = countFields(win[r.start:r.end], sep)
+			}
+		} else {
+			counts, _ = records(sep)
+		}
 		if len(counts) == 0 {
 			return false
 		}
@@ -394,7 +545,8 @@ func chooseSep(win []byte, brk, other byte) byte {
 		}
 	}
 	single := 0
-	for _, l := range tail {
+	for i := nLines / 2; i < nLines; i++ {
+		l := line(i)
 		t := trimCell(unsafe.String(unsafe.SliceData(l), len(l)))
 		if spacedIntegers(t) {
 			// "412 413 411": whole numbers apart by spaces are values side by
@@ -407,7 +559,7 @@ func chooseSep(win []byte, brk, other byte) byte {
 			single++
 		}
 	}
-	if single*5 >= 4*len(tail) {
+	if single*5 >= 4*(nLines-nLines/2) {
 		return 0
 	}
 	for _, sep := range []byte{',', ' '} {
@@ -418,10 +570,30 @@ func chooseSep(win []byte, brk, other byte) byte {
 	return 0
 }
 
+// countFields is len(splitPlain(rec, sep, nil)), without the fields.
+func countFields(rec []byte, sep byte) int {
+	switch sep {
+	case 0:
+		return 1
+	case ' ':
+		n := 0
+		in := false
+		for _, c := range rec {
+			sp := c == ' ' || c == '\t'
+			if !sp && !in {
+				n++
+			}
+			in = !sp
+		}
+		return max(n, 1)
+	}
+	return bytes.Count(rec, []byte{sep}) + 1
+}
+
 // spacedIntegers reports whether s is two or more runs of digits (with an
 // optional sign on each) separated by spaces, with no decimal mark.
 func spacedIntegers(s string) bool {
-	if strings.IndexFunc(s, unicode.IsSpace) < 0 {
+	if !hasSpace(s) {
 		return false // one part at most: skip the allocation of Fields
 	}
 	parts := strings.Fields(s)
@@ -442,13 +614,28 @@ func spacedIntegers(s string) bool {
 	return true
 }
 
+// hasSpace is strings.IndexFunc(s, unicode.IsSpace) >= 0, with a loop
+// without calls for ASCII text.
+func hasSpace(s string) bool {
+	for i := 0; i < len(s); i++ {
+		c := s[i]
+		if c >= 0x80 {
+			return strings.IndexFunc(s[i:], unicode.IsSpace) >= 0
+		}
+		if c == ' ' || c-'\t' <= '\r'-'\t' {
+			return true
+		}
+	}
+	return false
+}
+
 // colPlan is the decision for one column.
 type colPlan struct {
 	name, unit, header string
 }
 
 // plan decides header, notes, columns and their kinds from the window.
-func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
+func (s *Stream) plan(w *sniffWin, recs []sniffRec, whole bool, winBytes int) {
 	lay := &s.lay
 	lay.dataStart = 1
 	nonEmpty := make([]int, 0, len(recs)) // indexes into recs
@@ -458,7 +645,7 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 		}
 	}
 	hasNumber := func(r sniffRec) bool {
-		for _, c := range r.cells {
+		for _, c := range w.of(r) {
 			if c.cls == cNumber {
 				return true
 			}
@@ -467,7 +654,7 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 	}
 	headerLike := func(r sniffRec) bool {
 		text := 0
-		for _, c := range r.cells {
+		for _, c := range w.of(r) {
 			switch c.cls {
 			case cNumber:
 				return false
@@ -481,7 +668,7 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 	if whole && len(nonEmpty) == 1 && lay.sep != 0 {
 		r := recs[nonEmpty[0]]
 		nums := 0
-		for _, c := range r.cells {
+		for _, c := range w.of(r) {
 			if c.cls == cNumber {
 				nums++
 			}
@@ -491,18 +678,19 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 			s.tab.Format.Transposed = true
 			lay.dataStart = r.row
 			name, unit, header := "Column 1", "", ""
-			if r.cells[0].cls == cText {
+			cells := w.of(r)
+			if cells[0].cls == cText {
 				lay.transposeName = true
-				header = strings.Clone(r.cells[0].text)
+				header = strings.Clone(w.text(&cells[0]))
 				name, unit = headerName(header)
 			}
-			cells := r.cells
 			if lay.transposeName {
 				cells = cells[1:]
 			}
 			tl := make([]colTally, 1)
 			for k := range cells {
-				tl[0].add(&cells[k])
+				x := w.cell(&cells[k])
+				tl[0].add(&x)
 			}
 			c := s.newColumn(colPlan{name: name, unit: unit, header: header}, 1, &tl[0], markHint(lay.sep, tl))
 			s.cols = []*Column{c}
@@ -513,7 +701,7 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 	if lay.sep != 0 {
 		freq := map[int]int{}
 		for _, i := range nonEmpty[len(nonEmpty)/2:] {
-			freq[len(recs[i].cells)]++
+			freq[int(recs[i].n)]++
 		}
 		best := 0
 		for c, f := range freq {
@@ -525,7 +713,7 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 	first := -1
 	for _, i := range nonEmpty {
 		r := recs[i]
-		if hasNumber(r) && (lay.sep == 0 || len(r.cells) == m) {
+		if hasNumber(r) && (lay.sep == 0 || int(r.n) == m) {
 			first = i
 			break
 		}
@@ -543,7 +731,7 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 		for k := len(nonEmpty) - 1; k >= 0; k-- {
 			if nonEmpty[k] < first {
 				r := recs[nonEmpty[k]]
-				if headerLike(r) && (m == 1 || len(r.cells) >= 2) {
+				if headerLike(r) && (m == 1 || r.n >= 2) {
 					header = nonEmpty[k]
 				}
 				break
@@ -562,7 +750,7 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 		}
 		header = start
 		for k := start; k < first; k++ {
-			if noteLike(recs[k].cells[0].text) {
+			if noteLike(w.text(&w.of(recs[k])[0])) {
 				header = min(k+1, first-1)
 			}
 		}
@@ -576,8 +764,8 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 		lay.dataStart = recs[first].row
 	}
 	ncols := m
-	if header >= 0 && len(recs[header].cells) > ncols {
-		ncols = len(recs[header].cells)
+	if header >= 0 && int(recs[header].n) > ncols {
+		ncols = int(recs[header].n)
 	}
 	if lay.sep == 0 {
 		ncols = 1
@@ -587,8 +775,8 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 	seen := map[string]bool{}
 	for j := range plans {
 		p := &plans[j]
-		if header >= 0 && j < len(recs[header].cells) {
-			p.header = strings.Clone(recs[header].cells[j].text)
+		if header >= 0 && j < int(recs[header].n) {
+			p.header = strings.Clone(w.text(&w.of(recs[header])[j]))
 			p.name, p.unit = headerName(p.header)
 		}
 		if p.name == "" {
@@ -614,8 +802,10 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 			continue
 		}
 		dataRecs++
-		for j := 0; j < ncols && j < len(r.cells); j++ {
-			tallies[j].add(&r.cells[j])
+		cells := w.of(r)
+		for j := 0; j < ncols && j < len(cells); j++ {
+			x := w.cell(&cells[j])
+			tallies[j].add(&x)
 		}
 	}
 	s.cols = make([]*Column, ncols)
