@@ -70,18 +70,10 @@ type sniffWin struct {
 	extra []cellExtra
 }
 
-// add stores x, whose text is win[off:off+len(x.text)] when inWin.
-func (w *sniffWin) add(x sniffCell, off int, inWin bool) {
-	c := cellRec{cls: x.cls, ev: x.ev}
-	if inWin && x.unit == "" && x.date == nil {
-		if len(x.text) > 0 {
-			c.off, c.n = uint32(off), uint32(len(x.text))
-		}
-	} else {
-		w.extra = append(w.extra, cellExtra{text: x.text, unit: x.unit, date: x.date})
-		c.aux = int32(len(w.extra))
-	}
-	w.cells = append(w.cells, c)
+// add stores x, its text in extra.
+func (w *sniffWin) add(x sniffCell) {
+	w.extra = append(w.extra, cellExtra{text: x.text, unit: x.unit, date: x.date})
+	w.cells = append(w.cells, cellRec{cls: x.cls, ev: x.ev, aux: int32(len(w.extra))})
 }
 
 // of returns the cells of r.
@@ -105,6 +97,93 @@ func (w *sniffWin) text(c *cellRec) string {
 		return ""
 	}
 	return unsafe.String(&w.win[c.off], int(c.n))
+}
+
+// plainCells classifies the cells of the records spans of a window without
+// quotes, as splitCells does, with the records and cells in local slices
+// (no write barriers) and the texts as offsets into the window.
+func (w *sniffWin) plainCells(spans []span, sep byte) []sniffRec {
+	win := w.win
+	recs := make([]sniffRec, 0, len(spans))
+	cells := make([]cellRec, 0, len(spans))
+	extra := w.extra
+	valid := utf8.Valid(win) // then so is every record (split at ASCII bytes)
+	var fields [][]byte
+	var one [1][]byte
+	for k, sp := range spans {
+		rec := win[sp.start:sp.end]
+		inWin := valid || utf8.Valid(rec)
+		if !inWin {
+			rec = fromWindows1252(nil, rec)
+		}
+		if sep == 0 {
+			one[0] = rec
+			fields = one[:]
+		} else {
+			fields = splitPlain(rec, sep, fields)
+		}
+		r := sniffRec{row: k + 1, blank: blankFields(fields), first: int32(len(cells))}
+		if !r.blank {
+			for _, f := range fields {
+				t := trimCell(unsafe.String(unsafe.SliceData(f), len(f)))
+				var x sniffCell
+				if ev, ok := plainDecimal(t); ok {
+					x = sniffCell{text: t, cls: cNumber, ev: ev} // classify's shortcut
+				} else {
+					x = classifyAny(t)
+				}
+				c := cellRec{cls: x.cls, ev: x.ev}
+				if inWin && x.unit == "" && x.date == nil {
+					if len(t) > 0 {
+						c.off = uint32(sp.start + int(uintptr(unsafe.Pointer(unsafe.StringData(t)))-uintptr(unsafe.Pointer(unsafe.SliceData(rec)))))
+						c.n = uint32(len(t))
+					}
+				} else {
+					extra = append(extra, cellExtra{text: x.text, unit: x.unit, date: x.date})
+					c.aux = int32(len(extra))
+				}
+				cells = append(cells, c)
+			}
+			r.n = int32(len(fields))
+		}
+		recs = append(recs, r)
+	}
+	w.cells, w.extra = cells, extra
+	return recs
+}
+
+// splitCells classifies the cells of the window's records as the splitter
+// cuts them (quoted fields may hold separators and line breaks).
+func (w *sniffWin) splitCells(brk, other, sep byte, whole bool) []sniffRec {
+	recs := make([]sniffRec, 0, bytes.Count(w.win, []byte{brk})+1)
+	var fields [][]byte
+	row := 0
+	tmp := splitter{brk: brk, other: other, sep: sep}
+	tmp.emit = func(rec []byte, quoted bool) {
+		row++
+		if tmp.unclosed && !whole {
+			return
+		}
+		if !utf8.Valid(rec) {
+			rec = fromWindows1252(nil, rec)
+		}
+		if quoted {
+			fields = splitQuoted(rec, sep, fields)
+		} else {
+			fields = splitPlain(rec, sep, fields)
+		}
+		r := sniffRec{row: row, blank: blankFields(fields), first: int32(len(w.cells))}
+		if !r.blank {
+			for _, f := range fields {
+				w.add(classify(trimCell(unsafe.String(unsafe.SliceData(f), len(f)))))
+			}
+			r.n = int32(len(fields))
+		}
+		recs = append(recs, r)
+	}
+	tmp.feed(w.win)
+	tmp.finish()
+	return recs
 }
 
 // span is a record of the window: win[start:end].
@@ -352,7 +431,7 @@ func (s *Stream) sniff(text []byte, eof bool) {
 	// window is cut into records once, for chooseSep and for the cells.
 	var spans []span
 	if bytes.IndexByte(win, '"') < 0 && len(win) < 1<<31 {
-		spans = plainRecords(win, make([]span, 0, bytes.Count(win, []byte{s.lay.brk})+1))
+		spans = plainRecords(win, make([]span, 0, len(win)/8+16))
 	}
 	s.lay.sep = chooseSep(win, s.lay.brk, other, spans)
 	s.tab.Format.Separator = map[byte]string{'\t': "tab", ',': "comma", ';': "semicolon", '|': "pipe", ' ': "spaces", 0: "none"}[s.lay.sep]
@@ -362,66 +441,10 @@ func (s *Stream) sniff(text []byte, eof bool) {
 	// never reused): plan clones what it keeps.
 	w := &sniffWin{win: win}
 	var recs []sniffRec
-	var fields [][]byte
 	if spans != nil {
-		recs = make([]sniffRec, 0, len(spans))
-		w.cells = make([]cellRec, 0, len(spans))
-		valid := utf8.Valid(win) // then so is every record (split at ASCII bytes)
-		var one [1][]byte
-		for k, sp := range spans {
-			rec := win[sp.start:sp.end]
-			inWin := valid || utf8.Valid(rec)
-			if !inWin {
-				rec = fromWindows1252(nil, rec)
-			}
-			if s.lay.sep == 0 {
-				one[0] = rec
-				fields = one[:]
-			} else {
-				fields = splitPlain(rec, s.lay.sep, fields)
-			}
-			r := sniffRec{row: k + 1, blank: blankFields(fields), first: int32(len(w.cells))}
-			if !r.blank {
-				for _, f := range fields {
-					t := trimCell(unsafe.String(unsafe.SliceData(f), len(f)))
-					off := 0
-					if inWin && len(t) > 0 {
-						off = sp.start + int(uintptr(unsafe.Pointer(unsafe.StringData(t)))-uintptr(unsafe.Pointer(unsafe.SliceData(rec))))
-					}
-					w.add(classify(t), off, inWin)
-				}
-				r.n = int32(len(fields))
-			}
-			recs = append(recs, r)
-		}
+		recs = w.plainCells(spans, s.lay.sep)
 	} else {
-		recs = make([]sniffRec, 0, bytes.Count(win, []byte{s.lay.brk})+1)
-		row := 0
-		tmp := splitter{brk: s.lay.brk, other: other, sep: s.lay.sep}
-		tmp.emit = func(rec []byte, quoted bool) {
-			row++
-			if tmp.unclosed && !whole {
-				return
-			}
-			if !utf8.Valid(rec) {
-				rec = fromWindows1252(nil, rec)
-			}
-			if quoted {
-				fields = splitQuoted(rec, s.lay.sep, fields)
-			} else {
-				fields = splitPlain(rec, s.lay.sep, fields)
-			}
-			r := sniffRec{row: row, blank: blankFields(fields), first: int32(len(w.cells))}
-			if !r.blank {
-				for _, f := range fields {
-					w.add(classify(trimCell(unsafe.String(unsafe.SliceData(f), len(f)))), 0, false)
-				}
-				r.n = int32(len(fields))
-			}
-			recs = append(recs, r)
-		}
-		tmp.feed(win)
-		tmp.finish()
+		recs = w.splitCells(s.lay.brk, other, s.lay.sep, whole)
 	}
 	s.sp = splitter{brk: s.lay.brk, other: other, sep: s.lay.sep, emit: s.onRecord}
 	if s.lay.brk == '\n' {
@@ -434,8 +457,8 @@ func (s *Stream) sniff(text []byte, eof bool) {
 // nil, are the records of a window without quotes (plainRecords).
 func chooseSep(win []byte, brk, other byte, spans []span) byte {
 	// records under a separator (quotes decide where records end)
-	n := bytes.Count(win, []byte{brk}) + 1
 	records := func(sep byte) (counts []int, lines [][]byte) {
+		n := bytes.Count(win, []byte{brk}) + 1
 		counts = make([]int, 0, n)
 		if sep == 0 {
 			lines = make([][]byte, 0, n)
@@ -804,8 +827,29 @@ func (s *Stream) plan(w *sniffWin, recs []sniffRec, whole bool, winBytes int) {
 		dataRecs++
 		cells := w.of(r)
 		for j := 0; j < ncols && j < len(cells); j++ {
-			x := w.cell(&cells[j])
-			tallies[j].add(&x)
+			if c := &cells[j]; c.aux == 0 && c.cls != cNumber {
+				// neither unit nor date nor text: what add counts
+				switch c.cls {
+				case cTime:
+					tallies[j].nTime++
+				case cText:
+					tallies[j].nText++
+				}
+			} else if c.aux == 0 && c.ev != evAmbig {
+				t := &tallies[j] // a number without unit: what add counts
+				t.nNum++
+				switch c.ev {
+				case evComma:
+					t.comma++
+				case evPoint:
+					t.point++
+				case evAmbigP:
+					t.ambigP++
+				}
+			} else {
+				x := w.cell(c)
+				tallies[j].add(&x)
+			}
 		}
 	}
 	s.cols = make([]*Column, ncols)
