@@ -921,23 +921,24 @@ func (s *Stream) fastLines(data []byte) int {
 // form (what fastDecimal accepts, in canonical form) ended by LF or CRLF,
 // parses each in the same pass that finds its end, and returns the bytes
 // it consumed. The result is what fastLines would do with each line (no
-// head row, no pending empty rows, nothing kept as text); the slices are
-// kept in locals so that the loop makes no call but append's growth.
+// head row, no pending empty rows, nothing kept as text). The loop keeps
+// few values live (Go's WebAssembly code spills the rest to memory): the
+// rows are appended after it, and s.longest is left alone (it only serves
+// inputs of one or two rows, and this runs from row HeadRows+1 on lines of
+// at most 17 bytes).
 func (s *Stream) decimalLines(c *Column, data []byte) int {
-	vals, decs, rows := c.Values, c.Dec, s.rows
-	row, longest := s.row, s.longest
+	vals, decs := c.Values, c.Dec
+	n0 := len(vals)
 	mark := c.mark
 	pos := 0
-	n := len(data)
-	for pos < n {
+	for pos < len(data) {
 		i := pos
-		neg := data[i] == '-'
-		if neg {
+		if data[i] == '-' {
 			i++
 		}
 		start := i
 		var m uint64
-		for i < n {
+		for i < len(data) {
 			d := data[i] - '0'
 			if d >= 10 {
 				break
@@ -946,11 +947,15 @@ func (s *Stream) decimalLines(c *Column, data []byte) int {
 			i++
 		}
 		intDigits := i - start
+		// fastDecimal's canonical form: digits, no leading zero
+		if intDigits == 0 || (intDigits > 1 && data[start] == '0') {
+			break
+		}
 		dec := 0
-		if i < n && data[i] == mark {
+		if i < len(data) && data[i] == mark {
 			i++
 			fs := i
-			for i < n {
+			for i < len(data) {
 				d := data[i] - '0'
 				if d >= 10 {
 					break
@@ -963,13 +968,13 @@ func (s *Stream) decimalLines(c *Column, data []byte) int {
 				break
 			}
 		}
-		// the limits of fastDecimal, and its canonical form (no leading zero)
-		if intDigits == 0 || i >= n || i-pos > 17 || intDigits+dec > 15 || (intDigits > 1 && data[start] == '0') {
+		// fastDecimal's limit (its limit of 17 bytes follows from it)
+		if intDigits+dec > 15 || i >= len(data) {
 			break
 		}
 		next := i + 1
 		if data[i] != '\n' {
-			if data[i] != '\r' || i+1 >= n || data[i+1] != '\n' {
+			if data[i] != '\r' || i+1 >= len(data) || data[i+1] != '\n' {
 				break
 			}
 			next = i + 2
@@ -978,20 +983,20 @@ func (s *Stream) decimalLines(c *Column, data []byte) int {
 		if dec > 0 {
 			v /= pow10[dec]
 		}
-		if neg {
+		if data[pos] == '-' {
 			v = -v
-		}
-		row++
-		if i-pos > longest {
-			longest = i - pos
 		}
 		vals = append(vals, v)
 		decs = append(decs, int8(dec))
-		rows = append(rows, int32(row))
 		pos = next
 	}
-	c.Numbers += row - s.row
+	k := len(vals) - n0
+	rows := s.rows
+	for j := 1; j <= k; j++ {
+		rows = append(rows, int32(s.row+j))
+	}
+	c.Numbers += k
 	c.Values, c.Dec, s.rows = vals, decs, rows
-	s.row, s.longest = row, longest
+	s.row += k
 	return pos
 }
