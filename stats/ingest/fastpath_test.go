@@ -2,10 +2,12 @@ package ingest
 
 import (
 	"bytes"
+	"encoding/binary"
 	"fmt"
 	"math"
 	"math/rand"
 	"reflect"
+	"strconv"
 	"strings"
 	"testing"
 	"unicode"
@@ -174,6 +176,32 @@ func TestPlainRecordsLikeSplitter(t *testing.T) {
 	for _, s := range []string{"1\u00a02", "1\u20002", "µ 2", "\x85", "1\u3000"} {
 		if hasSpace(s) != (strings.IndexFunc(s, unicode.IsSpace) >= 0) {
 			t.Fatalf("hasSpace(%q) = %v", s, hasSpace(s))
+		}
+	}
+}
+
+// digits8 gives the number of 1 to 8 digits as strconv.ParseUint does
+// (Go standard library), for every length and random digits.
+func TestDigits8(t *testing.T) {
+	r := rand.New(rand.NewSource(31))
+	for i := 0; i < 200000; i++ {
+		k := 1 + r.Intn(8)
+		b := make([]byte, 8)
+		for j := range b {
+			b[j] = byte(r.Intn(256)) // beyond k: anything
+		}
+		for j := 0; j < k; j++ {
+			b[j] = byte('0' + r.Intn(10))
+		}
+		if i%7 == 0 {
+			for j := 0; j < k; j++ {
+				b[j] = '9'
+			}
+		}
+		x := binary.LittleEndian.Uint64(b) ^ 0x3030303030303030
+		want, _ := strconv.ParseUint(string(b[:k]), 10, 64)
+		if got := digits8(x << (64 - 8*k)); got != want {
+			t.Fatalf("%q: %d, want %d", b[:k], got, want)
 		}
 	}
 }
