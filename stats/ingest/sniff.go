@@ -431,7 +431,7 @@ func (s *Stream) sniff(text []byte, eof bool) {
 	// window is cut into records once, for chooseSep and for the cells.
 	var spans []span
 	if bytes.IndexByte(win, '"') < 0 && len(win) < 1<<31 {
-		spans = plainRecords(win, make([]span, 0, len(win)/8+16))
+		spans = plainRecords(win, make([]span, 0, len(win)/6+16))
 	}
 	s.lay.sep = chooseSep(win, s.lay.brk, other, spans)
 	s.tab.Format.Separator = map[byte]string{'\t': "tab", ',': "comma", ';': "semicolon", '|': "pipe", ' ': "spaces", 0: "none"}[s.lay.sep]
@@ -489,30 +489,21 @@ func chooseSep(win []byte, brk, other byte, spans []span) byte {
 	// Without quotes, a separator absent from the window gives every record
 	// one field: not consistent, and no need to split the window again.
 	noQuotes := bytes.IndexByte(win, '"') < 0
-	// the non-blank records: lines, or plain (parts of win) with spans
+	// the non-blank records: lines, or the spans that are not blank
 	var lines [][]byte
-	var plain []span
 	nLines := 0
 	if spans != nil {
-		plain = make([]span, 0, len(spans))
 		for _, r := range spans {
 			if !blank(win[r.start:r.end]) {
-				plain = append(plain, r)
+				nLines++
 			}
 		}
-		nLines = len(plain)
 	} else {
 		_, lines = records(0)
 		nLines = len(lines)
 	}
 	if nLines == 0 {
 		return 0
-	}
-	line := func(i int) []byte {
-		if spans != nil {
-			return win[plain[i].start:plain[i].end]
-		}
-		return lines[i]
 	}
 	consistent := func(sep byte) bool {
 		if noQuotes && bytes.IndexByte(win, sep) < 0 && (sep != ' ' || bytes.IndexByte(win, '\t') < 0) {
@@ -521,9 +512,11 @@ func chooseSep(win []byte, brk, other byte, spans []span) byte {
 		var counts []int
 		if spans != nil {
 			// the records are those of any separator: count the fields
-			counts = make([]int, len(plain))
-			for i, r := range plain {
-				counts[i] = countFields(win[r.start:r.end], sep)
+			counts = make([]int, 0, nLines)
+			for _, r := range spans {
+				if rec := win[r.start:r.end]; !blank(rec) {
+					counts = append(counts, countFields(rec, sep))
+				}
 			}
 		} else {
 			counts, _ = records(sep)
@@ -567,19 +560,23 @@ func chooseSep(win []byte, brk, other byte, spans []span) byte {
 			return sep
 		}
 	}
+	// the second half of the lines: one value each?
 	single := 0
-	for i := nLines / 2; i < nLines; i++ {
-		l := line(i)
-		t := trimCell(unsafe.String(unsafe.SliceData(l), len(l)))
-		if spacedIntegers(t) {
-			// "412 413 411": whole numbers apart by spaces are values side by
-			// side, not one number with thousands separators (that would be a
-			// silent wrong number); "12 345,6" keeps its decimal mark and stays one.
-			continue
+	if spans != nil {
+		k := 0
+		for _, r := range spans {
+			if rec := win[r.start:r.end]; !blank(rec) {
+				if k >= nLines/2 && singleValue(rec) {
+					single++
+				}
+				k++
+			}
 		}
-		c := classify(t)
-		if c.cls == cNumber || c.cls == cMissing {
-			single++
+	} else {
+		for _, l := range lines[nLines/2:] {
+			if singleValue(l) {
+				single++
+			}
 		}
 	}
 	if single*5 >= 4*(nLines-nLines/2) {
@@ -591,6 +588,20 @@ func chooseSep(win []byte, brk, other byte, spans []span) byte {
 		}
 	}
 	return 0
+}
+
+// singleValue reports whether a line reads as one number or a missing
+// marker.
+func singleValue(l []byte) bool {
+	t := trimCell(unsafe.String(unsafe.SliceData(l), len(l)))
+	if spacedIntegers(t) {
+		// "412 413 411": whole numbers apart by spaces are values side by
+		// side, not one number with thousands separators (that would be a
+		// silent wrong number); "12 345,6" keeps its decimal mark and stays one.
+		return false
+	}
+	c := classify(t)
+	return c.cls == cNumber || c.cls == cMissing
 }
 
 // countFields is len(splitPlain(rec, sep, nil)), without the fields.
