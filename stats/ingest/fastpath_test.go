@@ -205,3 +205,74 @@ func TestDigits8(t *testing.T) {
 		}
 	}
 }
+
+// TestFastCellsLikeGeneral: tables of one or several columns of numbers
+// (plain decimals and cells near them, both marks, LF and CRLF, notes, a
+// header) read with decimalLines and decimalRows give the table that the
+// general path (splitPlain, data and cell for every line) gives.
+func TestFastCellsLikeGeneral(t *testing.T) {
+	r := rand.New(rand.NewSource(37))
+	for round := 0; round < 300; round++ {
+		seps := []string{"\n", ",", ";", "\t", "|"}
+		sep := seps[round%len(seps)]
+		nc := 1
+		if sep != "\n" {
+			nc = 1 + r.Intn(5)
+			if round%23 == 0 {
+				nc = maxWide + 1 - r.Intn(2)
+			}
+		}
+		marks := make([]byte, nc)
+		for j := range marks {
+			marks[j] = ".,"[r.Intn(2)]
+		}
+		brk := []string{"\n", "\r\n"}[r.Intn(2)]
+		var b strings.Builder
+		if r.Intn(3) == 0 {
+			b.WriteString("Note: line 4" + brk)
+		}
+		for j := 0; j < nc; j++ {
+			if j > 0 {
+				b.WriteString(sep)
+			}
+			fmt.Fprintf(&b, "X%d", j)
+		}
+		b.WriteString(brk)
+		rows := 40 + r.Intn(400)
+		for i := 0; i < rows; i++ {
+			for j := 0; j < nc; j++ {
+				if j > 0 {
+					b.WriteString(sep)
+				}
+				cell := nearDecimal(r, marks[j], round%2 == 0)
+				if i%97 == 5 && j == 0 {
+					cell = "1.234.567" // a decimal comma for sure, also in a comma-separated table
+				}
+				if i == 0 || (i == rows-1 && strings.TrimSpace(cell) == "") {
+					cell = "1"
+				}
+				b.WriteString(cell)
+			}
+			if r.Intn(60) == 0 {
+				b.WriteString(sep + "7") // a cell beyond the last column
+			}
+			b.WriteString(brk)
+		}
+		in := []byte(b.String())
+		for _, chunk := range []int{len(in) + 1, 64, 1 + r.Intn(500)} {
+			fast, err1 := readChunks(in, []int{chunk}, 0, ReadOptions{})
+			generalCells = true
+			slow, err2 := readChunks(in, []int{chunk}, 0, ReadOptions{})
+			generalCells = false
+			if (err1 == nil) != (err2 == nil) {
+				t.Fatalf("round %d: %v vs %v", round, err1, err2)
+			}
+			if err1 != nil {
+				continue
+			}
+			if d := diffTables(fast, slow); d != "" || !reflect.DeepEqual(fast.Head, slow.Head) {
+				t.Fatalf("round %d (separator %q, %d columns, chunks of %d): %s", round, sep, nc, chunk, d)
+			}
+		}
+	}
+}
