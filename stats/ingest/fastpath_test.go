@@ -208,8 +208,9 @@ func TestDigits8(t *testing.T) {
 
 // TestFastCellsLikeGeneral: tables of one or several columns of numbers
 // (plain decimals and cells near them, both marks, LF and CRLF, notes, a
-// header) read with decimalLines and decimalRows give the table that the
-// general path (splitPlain, data and cell for every line) gives.
+// header) read with the fast paths give the table that the general path
+// (the splitter for the sniffing window, splitPlain, data and cell for
+// every line) gives.
 func TestFastCellsLikeGeneral(t *testing.T) {
 	r := rand.New(rand.NewSource(37))
 	for round := 0; round < 300; round++ {
@@ -261,9 +262,9 @@ func TestFastCellsLikeGeneral(t *testing.T) {
 		in := []byte(b.String())
 		for _, chunk := range []int{len(in) + 1, 64, 1 + r.Intn(500)} {
 			fast, err1 := readChunks(in, []int{chunk}, 0, ReadOptions{})
-			generalCells = true
+			generalPaths = true
 			slow, err2 := readChunks(in, []int{chunk}, 0, ReadOptions{})
-			generalCells = false
+			generalPaths = false
 			if (err1 == nil) != (err2 == nil) {
 				t.Fatalf("round %d: %v vs %v", round, err1, err2)
 			}
@@ -272,6 +273,52 @@ func TestFastCellsLikeGeneral(t *testing.T) {
 			}
 			if d := diffTables(fast, slow); d != "" || !reflect.DeepEqual(fast.Head, slow.Head) {
 				t.Fatalf("round %d (separator %q, %d columns, chunks of %d): %s", round, sep, nc, chunk, d)
+			}
+		}
+	}
+}
+
+// TestFastPathsLikeGeneralNoise: short texts of random pieces (numbers,
+// marks, separators, spaces, CR, LF, quotes, Latin-1 bytes, dates, units,
+// missing markers) give the same table or error with and without the fast
+// paths, read whole and in chunks, with a small sniffing window too.
+func TestFastPathsLikeGeneralNoise(t *testing.T) {
+	r := rand.New(rand.NewSource(41))
+	atoms := []string{"1", "2", "0", "5", ".", ",", ";", "\t", " ", "\r", "\n", "\n", "\n", "\r\n", "a", "\xb5", "-", "NA",
+		"g", "12.5", "3,25", "|", "\"", "1,234", "1.234", "01/02/2026", "13/02/2026", "08:15", "x y", "12.5 mm", "Weight (g)", "#N/A"}
+	n := 6000
+	if testing.Short() {
+		n = 1500
+	}
+	for k := 0; k < n; k++ {
+		var b []byte
+		m := r.Intn(80)
+		if k%40 == 0 {
+			m = r.Intn(6000)
+		}
+		quotes := r.Intn(4) == 0
+		for i := 0; i < m; i++ {
+			a := atoms[r.Intn(len(atoms))]
+			if a == "\"" && !quotes {
+				continue
+			}
+			b = append(b, a...)
+		}
+		sizes := []int{len(b) + 1, 1 + r.Intn(300)}
+		window := []int{0, 64, 4096}[r.Intn(3)]
+		for _, size := range sizes {
+			fast, err1 := readChunks(b, []int{size}, window, ReadOptions{})
+			generalPaths = true
+			slow, err2 := readChunks(b, []int{size}, window, ReadOptions{})
+			generalPaths = false
+			if (err1 == nil) != (err2 == nil) || (err1 != nil && err1.Error() != err2.Error()) {
+				t.Fatalf("%q: errors %v vs %v", b, err1, err2)
+			}
+			if err1 != nil {
+				continue
+			}
+			if d := diffTables(fast, slow); d != "" || !reflect.DeepEqual(fast.Head, slow.Head) {
+				t.Fatalf("%q (chunks of %d, window %d): %s", b, size, window, d)
 			}
 		}
 	}

@@ -430,7 +430,7 @@ func (s *Stream) sniff(text []byte, eof bool) {
 	// Without quotes the records do not depend on the separator: the
 	// window is cut into records once, for chooseSep and for the cells.
 	var spans []span
-	if bytes.IndexByte(win, '"') < 0 && len(win) < 1<<31 {
+	if bytes.IndexByte(win, '"') < 0 && len(win) < 1<<31 && !generalPaths {
 		spans = plainRecords(win, make([]span, 0, len(win)/6+16))
 	}
 	s.lay.sep = chooseSep(win, s.lay.brk, other, spans)

@@ -878,7 +878,7 @@ func (s *Stream) fastLines(data []byte) int {
 	}
 	pos := 0
 	for {
-		if len(s.pend) == 0 && s.row >= HeadRows && !generalCells {
+		if len(s.pend) == 0 && s.row >= HeadRows && !generalPaths {
 			if one != nil && one.num {
 				pos += s.decimalLines(one, data[pos:])
 			} else if wide {
@@ -1070,9 +1070,11 @@ func digits8(x uint64) uint64 {
 	return x & 0xffffffff
 }
 
-// generalCells, set by tests, turns decimalLines and decimalRows off: every
-// cell then goes through cell, the general path they are compared with.
-var generalCells bool
+// generalPaths, set by tests, turns the fast paths off (plainRecords and
+// plainCells in the sniffing, decimalLines and decimalRows): the window is
+// cut by the splitter and every cell goes through cell, the general path
+// they are compared with.
+var generalPaths bool
 
 // maxWide is the most columns decimalRows reads.
 const maxWide = 16
