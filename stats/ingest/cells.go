@@ -33,16 +33,17 @@ func ReadCells(name string, cells []Cell, opt ReadOptions) (*Table, error) {
 	s.sniffed, s.encKnown, s.done = true, true, true
 	s.tab.Format = Format{Encoding: "utf-8", Separator: "cells"}
 	s.lay = layout{dataStart: 1}
-	win := make([]sniffCell, 0, min(len(cells), 4096))
+	win := make([]colTally, 1)
 	budget := s.sniffN/2 - 8
 	for i, c := range cells {
 		if i > 0 && budget < len(c.Text)+1 {
 			break
 		}
 		budget -= len(c.Text) + 1
-		win = append(win, classify(trimCell(c.Text)))
+		x := classify(trimCell(c.Text))
+		win[0].add(&x)
 	}
-	col := s.newColumn(colPlan{name: name}, 1, win, markHint(0, [][]sniffCell{win}))
+	col := s.newColumn(colPlan{name: name}, 1, &win[0], markHint(0, win))
 	s.cols = []*Column{col}
 	s.rows = make([]int32, 0, len(cells))
 	col.Values = make([]float64, 0, len(cells))

@@ -103,7 +103,16 @@ func isSpaceRune(r rune) bool {
 	return false
 }
 
-func trimCell(s string) string { return strings.TrimFunc(s, isSpaceRune) }
+func trimCell(s string) string {
+	// A cell that starts and ends with a printable ASCII byte has nothing to
+	// trim (every space of isSpaceRune is below '!' or not ASCII, and the
+	// last rune of a text ending in an ASCII byte is that byte): no calls
+	// per rune for the common cell.
+	if n := len(s); n > 0 && s[0]-'!' < 0x7f-'!' && s[n-1]-'!' < 0x7f-'!' {
+		return s
+	}
+	return strings.TrimFunc(s, isSpaceRune)
+}
 
 // splitNumber splits s (already trimmed) into its parts; ok is false when s
 // does not start like a number.

@@ -39,17 +39,184 @@ type sniffCell struct {
 	date *dateCell
 }
 
+// sniffRec is one record of the window: its cells are
+// sniffWin.cells[first:first+n].
 type sniffRec struct {
-	row   int
-	cells []sniffCell
-	blank bool
+	row      int
+	first, n int32
+	blank    bool
+}
+
+// cellRec is a classified cell of the window kept without pointers (the
+// window's records and cells are most of what reading a short paste
+// allocates and writes): its text is win[off:off+n], or, when aux > 0,
+// the text, unit and date are in sniffWin.extra[aux-1].
+type cellRec struct {
+	off, n uint32
+	aux    int32
+	cls    cls
+	ev     markEvidence
+}
+
+type cellExtra struct {
+	text, unit string
+	date       *dateCell
+}
+
+// sniffWin holds the classified cells of the window's records.
+type sniffWin struct {
+	win   []byte
+	cells []cellRec
+	extra []cellExtra
+}
+
+// add stores x, its text in extra.
+func (w *sniffWin) add(x sniffCell) {
+	w.extra = append(w.extra, cellExtra{text: x.text, unit: x.unit, date: x.date})
+	w.cells = append(w.cells, cellRec{cls: x.cls, ev: x.ev, aux: int32(len(w.extra))})
+}
+
+// of returns the cells of r.
+func (w *sniffWin) of(r sniffRec) []cellRec { return w.cells[r.first : r.first+r.n] }
+
+// cell returns c as classify gave it.
+func (w *sniffWin) cell(c *cellRec) sniffCell {
+	if c.aux > 0 {
+		e := &w.extra[c.aux-1]
+		return sniffCell{text: e.text, cls: c.cls, ev: c.ev, unit: e.unit, date: e.date}
+	}
+	return sniffCell{text: w.text(c), cls: c.cls, ev: c.ev}
+}
+
+// text returns c's text.
+func (w *sniffWin) text(c *cellRec) string {
+	if c.aux > 0 {
+		return w.extra[c.aux-1].text
+	}
+	if c.n == 0 {
+		return ""
+	}
+	return unsafe.String(&w.win[c.off], int(c.n))
+}
+
+// plainCells classifies the cells of the records spans of a window without
+// quotes, as splitCells does, with the records and cells in local slices
+// (no write barriers) and the texts as offsets into the window.
+func (w *sniffWin) plainCells(spans []span, sep byte) []sniffRec {
+	win := w.win
+	recs := make([]sniffRec, 0, len(spans))
+	cells := make([]cellRec, 0, len(spans))
+	extra := w.extra
+	valid := utf8.Valid(win) // then so is every record (split at ASCII bytes)
+	var fields [][]byte
+	var one [1][]byte
+	for k, sp := range spans {
+		rec := win[sp.start:sp.end]
+		inWin := valid || utf8.Valid(rec)
+		if !inWin {
+			rec = fromWindows1252(nil, rec)
+		}
+		if sep == 0 {
+			one[0] = rec
+			fields = one[:]
+		} else {
+			fields = splitPlain(rec, sep, fields)
+		}
+		r := sniffRec{row: k + 1, blank: blankFields(fields), first: int32(len(cells))}
+		if !r.blank {
+			for _, f := range fields {
+				t := trimCell(unsafe.String(unsafe.SliceData(f), len(f)))
+				var x sniffCell
+				if ev, ok := plainDecimal(t); ok {
+					x = sniffCell{text: t, cls: cNumber, ev: ev} // classify's shortcut
+				} else {
+					x = classifyAny(t)
+				}
+				c := cellRec{cls: x.cls, ev: x.ev}
+				if inWin && x.unit == "" && x.date == nil {
+					if len(t) > 0 {
+						c.off = uint32(sp.start + int(uintptr(unsafe.Pointer(unsafe.StringData(t)))-uintptr(unsafe.Pointer(unsafe.SliceData(rec)))))
+						c.n = uint32(len(t))
+					}
+				} else {
+					extra = append(extra, cellExtra{text: x.text, unit: x.unit, date: x.date})
+					c.aux = int32(len(extra))
+				}
+				cells = append(cells, c)
+			}
+			r.n = int32(len(fields))
+		}
+		recs = append(recs, r)
+	}
+	w.cells, w.extra = cells, extra
+	return recs
+}
+
+// splitCells classifies the cells of the window's records as the splitter
+// cuts them (quoted fields may hold separators and line breaks).
+func (w *sniffWin) splitCells(brk, other, sep byte, whole bool) []sniffRec {
+	recs := make([]sniffRec, 0, bytes.Count(w.win, []byte{brk})+1)
+	var fields [][]byte
+	row := 0
+	tmp := splitter{brk: brk, other: other, sep: sep}
+	tmp.emit = func(rec []byte, quoted bool) {
+		row++
+		if tmp.unclosed && !whole {
+			return
+		}
+		if !utf8.Valid(rec) {
+			rec = fromWindows1252(nil, rec)
+		}
+		if quoted {
+			fields = splitQuoted(rec, sep, fields)
+		} else {
+			fields = splitPlain(rec, sep, fields)
+		}
+		r := sniffRec{row: row, blank: blankFields(fields), first: int32(len(w.cells))}
+		if !r.blank {
+			for _, f := range fields {
+				w.add(classify(trimCell(unsafe.String(unsafe.SliceData(f), len(f)))))
+			}
+			r.n = int32(len(fields))
+		}
+		recs = append(recs, r)
+	}
+	tmp.feed(w.win)
+	tmp.finish()
+	return recs
+}
+
+// span is a record of the window: win[start:end].
+type span struct{ start, end int }
+
+// plainRecords splits a window without quotes into the records the
+// splitter gives for it: lines ended by CRLF, LF or CR, the last one only
+// when it is not empty. (The splitter strips a CR before its LF and splits
+// the rest at CRs; without quotes no record holds a line break.)
+func plainRecords(win []byte, out []span) []span {
+	start := 0
+	for i := 0; i < len(win); i++ {
+		c := win[i]
+		if c != '\n' && c != '\r' {
+			continue
+		}
+		out = append(out, span{start, i})
+		if c == '\r' && i+1 < len(win) && win[i+1] == '\n' {
+			i++
+		}
+		start = i + 1
+	}
+	if start < len(win) {
+		out = append(out, span{start, len(win)})
+	}
+	return out
 }
 
 func classify(s string) sniffCell {
-	if body, ok := plainDecimal(s); ok {
+	if ev, ok := plainDecimal(s); ok {
 		// what the general path below decides for such a cell: a number
 		// without unit, read with the mark it holds
-		return sniffCell{text: s, cls: cNumber, ev: evidence(body)}
+		return sniffCell{text: s, cls: cNumber, ev: ev}
 	}
 	return classifyAny(s)
 }
@@ -89,25 +256,39 @@ func classifyAny(s string) sniffCell {
 
 // plainDecimal reports whether s is digits with an optional leading minus
 // and at most one decimal mark ('.' or ',') between digits, the common cell
-// of a pasted column, and returns s without its sign.
-func plainDecimal(s string) (string, bool) {
+// of a pasted column, and returns what evidence says of s without its sign.
+func plainDecimal(s string) (markEvidence, bool) {
 	body := s
 	if len(body) > 0 && body[0] == '-' {
 		body = body[1:]
 	}
 	if len(body) == 0 || body[0]-'0' >= 10 || body[len(body)-1]-'0' >= 10 {
-		return "", false
+		return evNone, false
 	}
-	marks := 0
+	k := -1 // the mark's position
 	for i := 1; i < len(body)-1; i++ {
 		if c := body[i]; c-'0' >= 10 {
-			if c != '.' && c != ',' {
-				return "", false
+			if (c != '.' && c != ',') || k >= 0 {
+				return evNone, false
 			}
-			marks++
+			k = i
 		}
 	}
-	return body, marks <= 1
+	if k < 0 {
+		return evNone, true
+	}
+	// evidence(body) for digits with one mark at k: the integer part is k
+	// digits starting with body[0], without group runes
+	three := len(body)-k-1 == 3 && k <= 3 && body[0] != '0'
+	switch {
+	case body[k] == ',' && three:
+		return evAmbig, true
+	case body[k] == ',':
+		return evComma, true
+	case three:
+		return evAmbigP, true
+	}
+	return evPoint, true
 }
 
 // Errors for inputs that are not tables of text.
@@ -246,60 +427,38 @@ func (s *Stream) sniff(text []byte, eof bool) {
 	if s.lay.brk == '\r' {
 		other = '\n'
 	}
-	s.lay.sep = chooseSep(win, s.lay.brk, other)
+	// Without quotes the records do not depend on the separator: the
+	// window is cut into records once, for chooseSep and for the cells.
+	var spans []span
+	if bytes.IndexByte(win, '"') < 0 && len(win) < 1<<31 && !generalPaths {
+		spans = plainRecords(win, make([]span, 0, len(win)/6+16))
+	}
+	s.lay.sep = chooseSep(win, s.lay.brk, other, spans)
 	s.tab.Format.Separator = map[byte]string{'\t': "tab", ',': "comma", ';': "semicolon", '|': "pipe", ' ': "spaces", 0: "none"}[s.lay.sep]
 
 	// records of the window, split as the main pass will split them. The
 	// cells' texts alias the window (or buffers made for one record and
-	// never reused): plan clones what it keeps. Records and cells are
-	// allocated in blocks, not one by one: this pass is most of the cost of
-	// reading a short paste.
-	lines := bytes.Count(win, []byte{s.lay.brk}) + 1
-	recs := make([]sniffRec, 0, lines)
-	var arena []sniffCell
-	row := 0
-	tmp := splitter{brk: s.lay.brk, other: other, sep: s.lay.sep}
-	var fields [][]byte
-	tmp.emit = func(rec []byte, quoted bool) {
-		row++
-		if tmp.unclosed && !whole {
-			return
-		}
-		if !utf8.Valid(rec) {
-			rec = fromWindows1252(nil, rec)
-		}
-		if quoted {
-			fields = splitQuoted(rec, s.lay.sep, fields)
-		} else {
-			fields = splitPlain(rec, s.lay.sep, fields)
-		}
-		r := sniffRec{row: row, blank: blankFields(fields)}
-		if !r.blank {
-			if cap(arena)-len(arena) < len(fields) {
-				arena = make([]sniffCell, 0, max(len(fields)*max(lines-row+1, 1), 64))
-			}
-			k := len(arena)
-			for _, f := range fields {
-				arena = append(arena, classify(trimCell(unsafe.String(unsafe.SliceData(f), len(f)))))
-			}
-			r.cells = arena[k:len(arena):len(arena)]
-		}
-		recs = append(recs, r)
+	// never reused): plan clones what it keeps.
+	w := &sniffWin{win: win}
+	var recs []sniffRec
+	if spans != nil {
+		recs = w.plainCells(spans, s.lay.sep)
+	} else {
+		recs = w.splitCells(s.lay.brk, other, s.lay.sep, whole)
 	}
-	tmp.feed(win)
-	tmp.finish()
 	s.sp = splitter{brk: s.lay.brk, other: other, sep: s.lay.sep, emit: s.onRecord}
 	if s.lay.brk == '\n' {
 		s.sp.fast = s.fastLines
 	}
-	s.plan(recs, whole, len(win))
+	s.plan(w, recs, whole, len(win))
 }
 
-// chooseSep picks the separator from the window's lines.
-func chooseSep(win []byte, brk, other byte) byte {
+// chooseSep picks the separator from the window's lines. spans, when not
+// nil, are the records of a window without quotes (plainRecords).
+func chooseSep(win []byte, brk, other byte, spans []span) byte {
 	// records under a separator (quotes decide where records end)
-	n := bytes.Count(win, []byte{brk}) + 1
 	records := func(sep byte) (counts []int, lines [][]byte) {
+		n := bytes.Count(win, []byte{brk}) + 1
 		counts = make([]int, 0, n)
 		if sep == 0 {
 			lines = make([][]byte, 0, n)
@@ -330,16 +489,38 @@ func chooseSep(win []byte, brk, other byte) byte {
 	// Without quotes, a separator absent from the window gives every record
 	// one field: not consistent, and no need to split the window again.
 	noQuotes := bytes.IndexByte(win, '"') < 0
-	_, lines := records(0)
-	if len(lines) == 0 {
+	// the non-blank records: lines, or the spans that are not blank
+	var lines [][]byte
+	nLines := 0
+	if spans != nil {
+		for _, r := range spans {
+			if !blank(win[r.start:r.end]) {
+				nLines++
+			}
+		}
+	} else {
+		_, lines = records(0)
+		nLines = len(lines)
+	}
+	if nLines == 0 {
 		return 0
 	}
-	tail := lines[len(lines)/2:]
 	consistent := func(sep byte) bool {
 		if noQuotes && bytes.IndexByte(win, sep) < 0 && (sep != ' ' || bytes.IndexByte(win, '\t') < 0) {
 			return false
 		}
-		counts, _ := records(sep)
+		var counts []int
+		if spans != nil {
+			// the records are those of any separator: count the fields
+			counts = make([]int, 0, nLines)
+			for _, r := range spans {
+				if rec := win[r.start:r.end]; !blank(rec) {
+					counts = append(counts, countFields(rec, sep))
+				}
+			}
+		} else {
+			counts, _ = records(sep)
+		}
 		if len(counts) == 0 {
 			return false
 		}
@@ -379,21 +560,26 @@ func chooseSep(win []byte, brk, other byte) byte {
 			return sep
 		}
 	}
+	// the second half of the lines: one value each?
 	single := 0
-	for _, l := range tail {
-		t := trimCell(unsafe.String(unsafe.SliceData(l), len(l)))
-		if spacedIntegers(t) {
-			// "412 413 411": whole numbers apart by spaces are values side by
-			// side, not one number with thousands separators (that would be a
-			// silent wrong number); "12 345,6" keeps its decimal mark and stays one.
-			continue
+	if spans != nil {
+		k := 0
+		for _, r := range spans {
+			if rec := win[r.start:r.end]; !blank(rec) {
+				if k >= nLines/2 && singleValue(rec) {
+					single++
+				}
+				k++
+			}
 		}
-		c := classify(t)
-		if c.cls == cNumber || c.cls == cMissing {
-			single++
+	} else {
+		for _, l := range lines[nLines/2:] {
+			if singleValue(l) {
+				single++
+			}
 		}
 	}
-	if single*5 >= 4*len(tail) {
+	if single*5 >= 4*(nLines-nLines/2) {
 		return 0
 	}
 	for _, sep := range []byte{',', ' '} {
@@ -404,10 +590,44 @@ func chooseSep(win []byte, brk, other byte) byte {
 	return 0
 }
 
+// singleValue reports whether a line reads as one number or a missing
+// marker.
+func singleValue(l []byte) bool {
+	t := trimCell(unsafe.String(unsafe.SliceData(l), len(l)))
+	if spacedIntegers(t) {
+		// "412 413 411": whole numbers apart by spaces are values side by
+		// side, not one number with thousands separators (that would be a
+		// silent wrong number); "12 345,6" keeps its decimal mark and stays one.
+		return false
+	}
+	c := classify(t)
+	return c.cls == cNumber || c.cls == cMissing
+}
+
+// countFields is len(splitPlain(rec, sep, nil)), without the fields.
+func countFields(rec []byte, sep byte) int {
+	switch sep {
+	case 0:
+		return 1
+	case ' ':
+		n := 0
+		in := false
+		for _, c := range rec {
+			sp := c == ' ' || c == '\t'
+			if !sp && !in {
+				n++
+			}
+			in = !sp
+		}
+		return max(n, 1)
+	}
+	return bytes.Count(rec, []byte{sep}) + 1
+}
+
 // spacedIntegers reports whether s is two or more runs of digits (with an
 // optional sign on each) separated by spaces, with no decimal mark.
 func spacedIntegers(s string) bool {
-	if strings.IndexFunc(s, unicode.IsSpace) < 0 {
+	if !hasSpace(s) {
 		return false // one part at most: skip the allocation of Fields
 	}
 	parts := strings.Fields(s)
@@ -428,13 +648,28 @@ func spacedIntegers(s string) bool {
 	return true
 }
 
+// hasSpace is strings.IndexFunc(s, unicode.IsSpace) >= 0, with a loop
+// without calls for ASCII text.
+func hasSpace(s string) bool {
+	for i := 0; i < len(s); i++ {
+		c := s[i]
+		if c >= 0x80 {
+			return strings.IndexFunc(s[i:], unicode.IsSpace) >= 0
+		}
+		if c == ' ' || c-'\t' <= '\r'-'\t' {
+			return true
+		}
+	}
+	return false
+}
+
 // colPlan is the decision for one column.
 type colPlan struct {
 	name, unit, header string
 }
 
 // plan decides header, notes, columns and their kinds from the window.
-func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
+func (s *Stream) plan(w *sniffWin, recs []sniffRec, whole bool, winBytes int) {
 	lay := &s.lay
 	lay.dataStart = 1
 	nonEmpty := make([]int, 0, len(recs)) // indexes into recs
@@ -444,7 +679,7 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 		}
 	}
 	hasNumber := func(r sniffRec) bool {
-		for _, c := range r.cells {
+		for _, c := range w.of(r) {
 			if c.cls == cNumber {
 				return true
 			}
@@ -453,7 +688,7 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 	}
 	headerLike := func(r sniffRec) bool {
 		text := 0
-		for _, c := range r.cells {
+		for _, c := range w.of(r) {
 			switch c.cls {
 			case cNumber:
 				return false
@@ -467,7 +702,7 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 	if whole && len(nonEmpty) == 1 && lay.sep != 0 {
 		r := recs[nonEmpty[0]]
 		nums := 0
-		for _, c := range r.cells {
+		for _, c := range w.of(r) {
 			if c.cls == cNumber {
 				nums++
 			}
@@ -477,16 +712,21 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 			s.tab.Format.Transposed = true
 			lay.dataStart = r.row
 			name, unit, header := "Column 1", "", ""
-			if r.cells[0].cls == cText {
+			cells := w.of(r)
+			if cells[0].cls == cText {
 				lay.transposeName = true
-				header = strings.Clone(r.cells[0].text)
+				header = strings.Clone(w.text(&cells[0]))
 				name, unit = headerName(header)
 			}
-			cells := r.cells
 			if lay.transposeName {
 				cells = cells[1:]
 			}
-			c := s.newColumn(colPlan{name: name, unit: unit, header: header}, 1, cells, markHint(lay.sep, [][]sniffCell{cells}))
+			tl := make([]colTally, 1)
+			for k := range cells {
+				x := w.cell(&cells[k])
+				tl[0].add(&x)
+			}
+			c := s.newColumn(colPlan{name: name, unit: unit, header: header}, 1, &tl[0], markHint(lay.sep, tl))
 			s.cols = []*Column{c}
 			return
 		}
@@ -495,7 +735,7 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 	if lay.sep != 0 {
 		freq := map[int]int{}
 		for _, i := range nonEmpty[len(nonEmpty)/2:] {
-			freq[len(recs[i].cells)]++
+			freq[int(recs[i].n)]++
 		}
 		best := 0
 		for c, f := range freq {
@@ -507,7 +747,7 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 	first := -1
 	for _, i := range nonEmpty {
 		r := recs[i]
-		if hasNumber(r) && (lay.sep == 0 || len(r.cells) == m) {
+		if hasNumber(r) && (lay.sep == 0 || int(r.n) == m) {
 			first = i
 			break
 		}
@@ -525,7 +765,7 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 		for k := len(nonEmpty) - 1; k >= 0; k-- {
 			if nonEmpty[k] < first {
 				r := recs[nonEmpty[k]]
-				if headerLike(r) && (m == 1 || len(r.cells) >= 2) {
+				if headerLike(r) && (m == 1 || r.n >= 2) {
 					header = nonEmpty[k]
 				}
 				break
@@ -544,7 +784,7 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 		}
 		header = start
 		for k := start; k < first; k++ {
-			if noteLike(recs[k].cells[0].text) {
+			if noteLike(w.text(&w.of(recs[k])[0])) {
 				header = min(k+1, first-1)
 			}
 		}
@@ -558,8 +798,8 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 		lay.dataStart = recs[first].row
 	}
 	ncols := m
-	if header >= 0 && len(recs[header].cells) > ncols {
-		ncols = len(recs[header].cells)
+	if header >= 0 && int(recs[header].n) > ncols {
+		ncols = int(recs[header].n)
 	}
 	if lay.sep == 0 {
 		ncols = 1
@@ -569,8 +809,8 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 	seen := map[string]bool{}
 	for j := range plans {
 		p := &plans[j]
-		if header >= 0 && j < len(recs[header].cells) {
-			p.header = strings.Clone(recs[header].cells[j].text)
+		if header >= 0 && j < int(recs[header].n) {
+			p.header = strings.Clone(w.text(&w.of(recs[header])[j]))
 			p.name, p.unit = headerName(p.header)
 		}
 		if p.name == "" {
@@ -588,34 +828,45 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 		}
 		seen[p.name] = true
 	}
-	// cells of each column in the window
-	colCells := make([][]sniffCell, ncols)
+	// what the cells of each column in the window say, in cell order
+	tallies := make([]colTally, ncols)
 	dataRecs := 0
-	counts := make([]int, ncols)
 	for _, r := range recs {
 		if r.row < lay.dataStart || r.blank {
 			continue
 		}
 		dataRecs++
-		for j := 0; j < ncols && j < len(r.cells); j++ {
-			counts[j]++
-		}
-	}
-	for j := range colCells {
-		colCells[j] = make([]sniffCell, 0, counts[j])
-	}
-	for _, r := range recs {
-		if r.row < lay.dataStart || r.blank {
-			continue
-		}
-		for j := 0; j < ncols && j < len(r.cells); j++ {
-			colCells[j] = append(colCells[j], r.cells[j])
+		cells := w.of(r)
+		for j := 0; j < ncols && j < len(cells); j++ {
+			if c := &cells[j]; c.aux == 0 && c.cls != cNumber {
+				// neither unit nor date nor text: what add counts
+				switch c.cls {
+				case cTime:
+					tallies[j].nTime++
+				case cText:
+					tallies[j].nText++
+				}
+			} else if c.aux == 0 && c.ev != evAmbig {
+				t := &tallies[j] // a number without unit: what add counts
+				t.nNum++
+				switch c.ev {
+				case evComma:
+					t.comma++
+				case evPoint:
+					t.point++
+				case evAmbigP:
+					t.ambigP++
+				}
+			} else {
+				x := w.cell(c)
+				tallies[j].add(&x)
+			}
 		}
 	}
 	s.cols = make([]*Column, ncols)
-	hint := markHint(lay.sep, colCells)
+	hint := markHint(lay.sep, tallies)
 	for j := range plans {
-		s.cols[j] = s.newColumn(plans[j], j+1, colCells[j], hint)
+		s.cols[j] = s.newColumn(plans[j], j+1, &tallies[j], hint)
 	}
 	// size the columns once when the input size is known
 	if h := s.opt.SizeHint; h > int64(winBytes) && dataRecs >= 64 && winBytes >= 4096 {
@@ -630,49 +881,68 @@ func (s *Stream) plan(recs []sniffRec, whole bool, winBytes int) {
 	}
 }
 
-// newColumn decides a column's kind, decimal mark, unit and date order from
-// its cells in the window.
-func (s *Stream) newColumn(p colPlan, pos int, cells []sniffCell, hint byte) *Column {
-	c := &Column{ColumnInfo: ColumnInfo{Name: p.name, Unit: p.unit, Position: pos, Header: p.header}, mark: '.'}
-	var nNum, nTime, nText int
-	var comma, point, ambig, ambigP int
-	units := map[string]int{}
-	var unitOrder []string
-	dayEv, monthEv := 0, 0
-	for _, x := range cells {
-		switch x.cls {
-		case cNumber:
-			nNum++
-			switch x.ev {
-			case evComma:
-				comma++
-			case evPoint:
-				point++
-			case evAmbig:
-				ambig++
-			case evAmbigP:
-				ambigP++
+// colTally is what a column's cells in the window say about its kind,
+// decimal mark, unit and date order, added up cell by cell in order.
+type colTally struct {
+	nNum, nTime, nText          int
+	comma, point, ambig, ambigP int
+	units                       map[string]int
+	unitOrder                   []string // in order of first appearance
+	dayEv, monthEv              int
+	slash                       bool   // a date like 03/04/2026
+	firstAmbig                  string // the first cell like "1,234"
+}
+
+func (t *colTally) add(x *sniffCell) {
+	switch x.cls {
+	case cNumber:
+		t.nNum++
+		switch x.ev {
+		case evComma:
+			t.comma++
+		case evPoint:
+			t.point++
+		case evAmbig:
+			if t.ambig == 0 {
+				t.firstAmbig = x.text
 			}
-			if x.unit != "" {
-				if units[x.unit] == 0 {
-					unitOrder = append(unitOrder, x.unit)
-				}
-				units[x.unit]++
-			}
-		case cTime:
-			nTime++
-			if x.date.form == dfSlash {
-				if x.date.a > 12 {
-					dayEv++
-				}
-				if x.date.b > 12 {
-					monthEv++
-				}
-			}
-		case cText:
-			nText++
+			t.ambig++
+		case evAmbigP:
+			t.ambigP++
 		}
+		if x.unit != "" {
+			if t.units == nil {
+				t.units = map[string]int{}
+			}
+			if t.units[x.unit] == 0 {
+				t.unitOrder = append(t.unitOrder, x.unit)
+			}
+			t.units[x.unit]++
+		}
+	case cTime:
+		t.nTime++
+		if x.date.form == dfSlash {
+			t.slash = true
+			if x.date.a > 12 {
+				t.dayEv++
+			}
+			if x.date.b > 12 {
+				t.monthEv++
+			}
+		}
+	case cText:
+		t.nText++
 	}
+}
+
+// newColumn decides a column's kind, decimal mark, unit and date order from
+// what its cells in the window say.
+func (s *Stream) newColumn(p colPlan, pos int, t *colTally, hint byte) *Column {
+	c := &Column{ColumnInfo: ColumnInfo{Name: p.name, Unit: p.unit, Position: pos, Header: p.header}, mark: '.'}
+	nNum, nTime, nText := t.nNum, t.nTime, t.nText
+	comma, point, ambig, ambigP := t.comma, t.point, t.ambig, t.ambigP
+	units, unitOrder := t.units, t.unitOrder
+	dayEv, monthEv := t.dayEv, t.monthEv
 	nonMissing := nNum + nTime + nText
 	switch {
 	case nonMissing == 0:
@@ -718,7 +988,7 @@ func (s *Stream) newColumn(p colPlan, pos int, cells []sniffCell, hint byte) *Co
 				c.mark = '.'
 			}
 			s.problem(Problem{Column: c.Name, Col: pos, Kind: KindAmbiguous,
-				Reason: fmt.Sprintf("in column %q a value like %q can mean %s", c.Name, firstAmbig(cells), ambigMeaning(firstAmbig(cells))),
+				Reason: fmt.Sprintf("in column %q a value like %q can mean %s", c.Name, t.firstAmbig, ambigMeaning(t.firstAmbig)),
 				Action: "read with the decimal " + markName(c.mark) + "; choose the decimal mark if this is wrong"})
 		}
 		c.DecimalComma = c.mark == ','
@@ -732,7 +1002,7 @@ func (s *Stream) newColumn(p colPlan, pos int, cells []sniffCell, hint byte) *Co
 			c.Unit = strings.Clone(best) // cells' texts alias the input
 		}
 	}
-	if c.Kind == "time" && (dayEv > 0 || monthEv > 0 || hasSlash(cells)) {
+	if c.Kind == "time" && (dayEv > 0 || monthEv > 0 || t.slash) {
 		switch {
 		case dayEv > 0 && monthEv == 0:
 			c.DateOrder = "day-first"
@@ -756,29 +1026,11 @@ func (s *Stream) newColumn(p colPlan, pos int, cells []sniffCell, hint byte) *Co
 	return c
 }
 
-func hasSlash(cells []sniffCell) bool {
-	for _, x := range cells {
-		if x.cls == cTime && x.date.form == dfSlash {
-			return true
-		}
-	}
-	return false
-}
-
 func markName(m byte) string {
 	if m == ',' {
 		return "comma"
 	}
 	return "point"
-}
-
-func firstAmbig(cells []sniffCell) string {
-	for _, x := range cells {
-		if x.cls == cNumber && x.ev == evAmbig {
-			return x.text
-		}
-	}
-	return ""
 }
 
 func ambigMeaning(s string) string {
@@ -1061,23 +1313,14 @@ func numberRole(c *Column) string {
 // markHint is the decimal mark the whole file shows: semicolon-separated
 // files come from decimal-comma locales; otherwise unambiguous cells in any
 // column decide, when they agree. 0 when nothing decides.
-func markHint(sep byte, cols [][]sniffCell) byte {
+func markHint(sep byte, cols []colTally) byte {
 	if sep == ';' {
 		return ','
 	}
 	comma, point := 0, 0
-	for _, cells := range cols {
-		for _, x := range cells {
-			if x.cls != cNumber {
-				continue
-			}
-			switch x.ev {
-			case evComma:
-				comma++
-			case evPoint:
-				point++
-			}
-		}
+	for _, t := range cols {
+		comma += t.comma
+		point += t.point
 	}
 	switch {
 	case comma > 0 && point == 0:

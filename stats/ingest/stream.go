@@ -2,11 +2,13 @@ package ingest
 
 import (
 	"bytes"
+	"encoding/binary"
 	"encoding/csv"
 	"errors"
 	"fmt"
 	"io"
 	"math"
+	"math/bits"
 	"strings"
 	"unicode/utf8"
 	"unsafe"
@@ -869,8 +871,20 @@ func (s *Stream) fastLines(data []byte) int {
 	if s.lay.sep == 0 && len(s.cols) == 1 {
 		one = s.cols[0]
 	}
+	// several columns of numbers apart by a character: decimalRows
+	wide := s.lay.sep != 0 && s.lay.sep != ' ' && len(s.cols) >= 1 && len(s.cols) <= maxWide
+	for _, c := range s.cols {
+		wide = wide && c.num
+	}
 	pos := 0
 	for {
+		if len(s.pend) == 0 && s.row >= HeadRows && !generalPaths {
+			if one != nil && one.num {
+				pos += s.decimalLines(one, data[pos:])
+			} else if wide {
+				pos += s.decimalRows(data[pos:])
+			}
+		}
 		rest := data[pos:]
 		i := 0
 		for i < len(rest) {
@@ -911,4 +925,255 @@ func (s *Stream) fastLines(data []byte) int {
 		}
 		pos += next
 	}
+}
+
+// decimalLines is fastLines' inner loop for one column of numbers: it takes
+// the lines from the start of data that are plain decimals in the column's
+// form (what fastDecimal accepts, in canonical form) ended by LF or CRLF,
+// parses each in the same pass that finds its end, and returns the bytes
+// it consumed. The result is what fastLines would do with each line (no
+// head row, no pending empty rows, nothing kept as text).
+//
+// Go's WebAssembly code spills values to memory and takes every branch
+// through a dispatch table, so the loop keeps few values live (the rows
+// are appended after it; s.longest is left alone: it only serves inputs of
+// one or two rows, and this runs from row HeadRows+1 on lines of at most
+// 17 bytes) and reads the digits 8 bytes at a time (digits8) where it can.
+func (s *Stream) decimalLines(c *Column, data []byte) int {
+	const ones, highs = 0x0101010101010101, 0x8080808080808080
+	vals, decs := c.Values, c.Dec
+	n0 := len(vals)
+	mark := c.mark
+	pos := 0
+	for pos < len(data) {
+		var m uint64
+		dec, next := 0, 0
+		done := false // the 8-byte step decided the line
+		if pos+18 <= len(data) {
+			p := pos
+			if data[p] == '-' {
+				p++
+			}
+			// x holds digits as 0..9; k counts the leading ones (8: all)
+			x := binary.LittleEndian.Uint64(data[p:]) ^ (0x30 * ones)
+			k := bits.TrailingZeros64((((x&(0x7f*ones))+(0x76*ones))|x)&highs) >> 3
+			if k == 0 || (k > 1 && byte(x) == 0) {
+				break // no digit, or a leading zero
+			}
+			if k < 8 {
+				m = digits8(x << (64 - 8*k))
+				q := p + k
+				fracOK := true
+				if data[q] == mark {
+					x = binary.LittleEndian.Uint64(data[q+1:]) ^ (0x30 * ones)
+					f := bits.TrailingZeros64((((x&(0x7f*ones))+(0x76*ones))|x)&highs) >> 3
+					if f == 0 {
+						break // a mark without decimals
+					}
+					fracOK = f < 8
+					if fracOK {
+						m = m*uint64(pow10[f]) + digits8(x<<(64-8*f))
+						dec = f
+						q += 1 + f
+					}
+				}
+				if fracOK {
+					if data[q] == '\n' {
+						next = q + 1
+					} else if data[q] == '\r' && data[q+1] == '\n' {
+						next = q + 2
+					} else {
+						break
+					}
+					done = true
+				}
+			}
+		}
+		if !done {
+			m = 0
+			i := pos
+			if data[i] == '-' {
+				i++
+			}
+			start := i
+			for i < len(data) {
+				d := data[i] - '0'
+				if d >= 10 {
+					break
+				}
+				m = m*10 + uint64(d)
+				i++
+			}
+			intDigits := i - start
+			// fastDecimal's canonical form: digits, no leading zero
+			if intDigits == 0 || (intDigits > 1 && data[start] == '0') {
+				break
+			}
+			if i < len(data) && data[i] == mark {
+				i++
+				fs := i
+				for i < len(data) {
+					d := data[i] - '0'
+					if d >= 10 {
+						break
+					}
+					m = m*10 + uint64(d)
+					i++
+				}
+				dec = i - fs
+				if dec == 0 {
+					break
+				}
+			}
+			// fastDecimal's limit (its limit of 17 bytes follows from it)
+			if intDigits+dec > 15 || i >= len(data) {
+				break
+			}
+			next = i + 1
+			if data[i] != '\n' {
+				if data[i] != '\r' || i+1 >= len(data) || data[i+1] != '\n' {
+					break
+				}
+				next = i + 2
+			}
+		}
+		v := float64(m)
+		if dec > 0 {
+			v /= pow10[dec]
+		}
+		if data[pos] == '-' {
+			v = -v
+		}
+		vals = append(vals, v)
+		decs = append(decs, int8(dec))
+		pos = next
+	}
+	k := len(vals) - n0
+	rows := s.rows
+	for j := 1; j <= k; j++ {
+		rows = append(rows, int32(s.row+j))
+	}
+	c.Numbers += k
+	c.Values, c.Dec, s.rows = vals, decs, rows
+	s.row += k
+	return pos
+}
+
+// digits8 is the number written by the 8 digits (0..9, not ASCII) of x,
+// the first digit in the lowest byte (a little-endian load of the text,
+// shifted so that missing leading digits are zeros): pairs, then quads,
+// then the whole, by multiplications (the SWAR method, as in Lemire 2018,
+// "Faster integer parsing", with 64-bit wraparound).
+func digits8(x uint64) uint64 {
+	x = x*10 + x>>8
+	x = ((x&0x000000ff000000ff)*(100+1000000<<32) + (x>>16&0x000000ff000000ff)*(1+10000<<32)) >> 32
+	return x & 0xffffffff
+}
+
+// generalPaths, set by tests, turns the fast paths off (plainRecords and
+// plainCells in the sniffing, decimalLines and decimalRows): the window is
+// cut by the splitter and every cell goes through cell, the general path
+// they are compared with.
+var generalPaths bool
+
+// maxWide is the most columns decimalRows reads.
+const maxWide = 16
+
+// decimalRows is decimalLines for the columns of numbers of a table apart
+// by a character (tab, comma, semicolon, pipe): it takes the lines from the
+// start of data that hold exactly one plain decimal per column, each in its
+// column's form (what fastDecimal accepts, in canonical form; a decimal
+// comma never in a comma-separated line, where the comma ends the cell),
+// ended by LF or CRLF, and returns the bytes it consumed. The result is
+// what fastLines, data and cell would do with each line.
+func (s *Stream) decimalRows(data []byte) int {
+	cols := s.cols
+	nc := len(cols)
+	if nc > maxWide {
+		return 0
+	}
+	var vs [maxWide]float64
+	var ds [maxWide]int8
+	sep := s.lay.sep
+	rows := 0
+	pos := 0
+	for pos < len(data) {
+		i := pos
+		j := 0
+		for ; j < nc; j++ {
+			mark := cols[j].mark
+			neg := i < len(data) && data[i] == '-'
+			if neg {
+				i++
+			}
+			start := i
+			var m uint64
+			for i < len(data) {
+				d := data[i] - '0'
+				if d >= 10 {
+					break
+				}
+				m = m*10 + uint64(d)
+				i++
+			}
+			intDigits := i - start
+			if intDigits == 0 || (intDigits > 1 && data[start] == '0') {
+				break
+			}
+			dec := 0
+			if i < len(data) && data[i] == mark && mark != sep {
+				i++
+				fs := i
+				for i < len(data) {
+					d := data[i] - '0'
+					if d >= 10 {
+						break
+					}
+					m = m*10 + uint64(d)
+					i++
+				}
+				dec = i - fs
+				if dec == 0 {
+					break
+				}
+			}
+			if intDigits+dec > 15 {
+				break
+			}
+			if j < nc-1 {
+				if i >= len(data) || data[i] != sep {
+					break
+				}
+				i++
+			}
+			v := float64(m)
+			if dec > 0 {
+				v /= pow10[dec]
+			}
+			if neg {
+				v = -v
+			}
+			vs[j], ds[j] = v, int8(dec)
+		}
+		if j < nc || i >= len(data) {
+			break
+		}
+		next := i + 1
+		if data[i] != '\n' {
+			if data[i] != '\r' || i+1 >= len(data) || data[i+1] != '\n' {
+				break
+			}
+			next = i + 2
+		}
+		rows++
+		s.rows = append(s.rows, int32(s.row+rows))
+		for k, c := range cols {
+			c.Values = append(c.Values, vs[k])
+			c.Dec = append(c.Dec, ds[k])
+			c.Numbers++
+		}
+		pos = next
+	}
+	s.row += rows
+	return pos
 }
