@@ -218,27 +218,31 @@ window.addEventListener("afterprint", () => {
 });
 // warmRender draws every card of a report of invented data off screen (the
 // engine's warm-up report) and throws them away, so that the first real
-// report does not pay for compiling the page's rendering code. One card per
-// idle moment: a paste that comes meanwhile waits for one card at most, not
-// for all of them (about 50 ms here). Only while the page shows no report
-// and nothing runs (it stops for good then); the state is put back.
+// report does not pay for compiling the page's rendering code. It works in
+// idle moments, card by card, while the moment lasts: a paste that comes
+// meanwhile waits for one card at most, not for all of them (about 50 ms
+// here). Only while the page shows no report and nothing runs (it stops for
+// good then); the state is put back.
 export function warmRender(json, svg) {
   const cards = cardList();
   let report = null, i = 0;
-  const later = (f) => { if ("requestIdleCallback" in window) requestIdleCallback(f, { timeout: 2000 }); else setTimeout(f, 50); };
-  const step = () => {
-    if (state.report || state.busy || i >= cards.length) return;
-    const keep = { report: state.report, svg: state.svg, full: state.full, allSuspects: state.allSuspects };
-    try {
-      if (!report) report = JSON.parse(json);
-      state.report = report; state.svg = svg;
-      cards[i].build(report);
-    } catch (e) { /* warm-up only */ } finally {
-      Object.assign(state, keep);
-    }
-    i++;
-    later(step);
+  const idle = "requestIdleCallback" in window;
+  const later = () => { if (idle) requestIdleCallback(step, { timeout: 2000 }); else setTimeout(step, 50); };
+  const step = (deadline) => {
+    do {
+      if (state.report || state.busy || i >= cards.length) return;
+      const keep = { report: state.report, svg: state.svg, full: state.full, allSuspects: state.allSuspects };
+      try {
+        if (!report) report = JSON.parse(json);
+        state.report = report; state.svg = svg;
+        cards[i].build(report);
+      } catch (e) { /* warm-up only */ } finally {
+        Object.assign(state, keep);
+      }
+      i++;
+    } while (deadline && !deadline.didTimeout && deadline.timeRemaining() > 5);
+    later();
   };
-  later(step);
+  later();
 }
 export function refreshPrintHead() { if (state.report) $("print-head").replaceChildren(...printHead(state.report)); }
