@@ -69,15 +69,39 @@ func Constants(n int) (ChartConstants, error) {
 	if ok {
 		return c, nil
 	}
-	c = ctlComputeConstants(n)
+	if sd, ok := ctlSeed[n]; ok {
+		c = ctlConstantsOf(n, sd[0], sd[1], sd[2])
+	} else {
+		c = ctlComputeConstants(n)
+	}
 	ctlConstMu.Lock()
 	ctlConstCache[n] = c
 	ctlConstMu.Unlock()
 	return c, nil
 }
 
+// ctlSeed holds d2, d3 and d4 for the smallest subgroups, as
+// ctlRangeMoments and ctlRangeMedian compute them: n = 2 is the moving
+// range that every analysis of single readings uses, and 3 to 5 the usual
+// subgroup sizes. Their integrals took about 50-115 ms natively and were
+// the largest single cost of a first analysis in the browser (a fifth of
+// it in Node's WebAssembly). TestConstantsSeed recomputes each one, bit for
+// bit: the seed cannot go stale.
+var ctlSeed = map[int][3]float64{
+	2: {1.1283791670955123, 0.8525024664274177, 0.9538725524089399},
+	3: {1.6925687506432694, 0.8883680040451981, 1.587787750446347},
+	4: {2.0587507460079286, 0.8798082028249812, 1.9783204855397127},
+	5: {2.3259289472810387, 0.8640819410995016, 2.2568824930261933},
+}
+
 func ctlComputeConstants(n int) ChartConstants {
 	d2, d3 := ctlRangeMoments(n)
+	return ctlConstantsOf(n, d2, d3, ctlRangeMedian(n))
+}
+
+// ctlConstantsOf completes the constants from the range's mean d2,
+// standard deviation d3 and median d4 for subgroups of n.
+func ctlConstantsOf(n int, d2, d3, d4 float64) ChartConstants {
 	c4 := C4(n)
 	c5 := math.Sqrt(math.Max(0, 1-c4*c4))
 	rn := math.Sqrt(float64(n))
@@ -85,7 +109,7 @@ func ctlComputeConstants(n int) ChartConstants {
 		N:       n,
 		SmallD2: d2,
 		SmallD3: d3,
-		SmallD4: ctlRangeMedian(n),
+		SmallD4: d4,
 		C4:      c4,
 		C5:      c5,
 		A:       3 / rn,

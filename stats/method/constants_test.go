@@ -189,3 +189,21 @@ func TestConstantsRelationsLargeN(t *testing.T) {
 		t.Error("C4(1) not NaN")
 	}
 }
+
+// The seeded range figures are what the integrals give, bit for bit, so a
+// change in the integration shows here rather than as a silent mismatch
+// between seeded and computed subgroup sizes.
+func TestConstantsSeed(t *testing.T) {
+	if len(ctlSeed) == 0 {
+		t.Fatal("no seed")
+	}
+	for n, sd := range ctlSeed {
+		want := ctlComputeConstants(n)
+		if got := ctlConstantsOf(n, sd[0], sd[1], sd[2]); got != want {
+			t.Errorf("n %d: seeded constants %+v, computed %+v", n, got, want)
+		}
+		if got, err := Constants(n); err != nil || got != want {
+			t.Errorf("n %d: Constants %+v (%v), computed %+v", n, got, err, want)
+		}
+	}
+}
