@@ -7,6 +7,8 @@ import (
 	"math"
 	"strconv"
 	"unicode/utf8"
+
+	"lotlens/stats/decimal"
 )
 
 // The report's JSON is encoding/json's, byte for byte; only the long point
@@ -336,7 +338,8 @@ func appendTypedFloat(b []byte, f float64) ([]byte, bool) {
 	if !(abs >= 1e-6 && abs < 1e9) {
 		return appendJSONFloat(b, f)
 	}
-	for d, p := range pow10 {
+	for d := 0; d <= 6; d++ {
+		p := decimal.Pow10(d)
 		n := math.Round(abs * p)
 		if n/p != abs {
 			continue
@@ -344,23 +347,10 @@ func appendTypedFloat(b []byte, f float64) ([]byte, bool) {
 		if f < 0 {
 			b = append(b, '-')
 		}
-		u := uint64(n)
-		unit := uint64(p)
-		b = strconv.AppendUint(b, u/unit, 10)
-		if d > 0 {
-			b = append(b, '.')
-			frac := u % unit
-			for unit /= 10; unit > frac && unit > 1; unit /= 10 {
-				b = append(b, '0') // leading zeros of the places
-			}
-			b = strconv.AppendUint(b, frac, 10)
-		}
-		return b, true
+		return decimal.AppendPlaces(b, uint64(n), d), true
 	}
 	return appendJSONFloat(b, f)
 }
-
-var pow10 = [...]float64{1, 10, 100, 1e3, 1e4, 1e5, 1e6}
 
 // appendJSONString writes s as encoding/json writes a string (with its
 // HTML-safe escapes). Text that needs no escape is copied; anything else

@@ -17,6 +17,8 @@ import (
 	"strconv"
 	"strings"
 	"unsafe"
+
+	"lotlens/stats/decimal"
 )
 
 // Okabe-Ito colours (Okabe and Ito 2008).
@@ -76,7 +78,7 @@ func appendFixed(b []byte, v float64, d int) []byte {
 	if d > 6 || !(abs < 1e9) {
 		return strconv.AppendFloat(b, v, 'f', d, 64)
 	}
-	p := pow10[d]
+	p := decimal.Pow10(d)
 	n := math.Round(abs * p)
 	if n/p != abs {
 		return strconv.AppendFloat(b, v, 'f', d, 64)
@@ -84,20 +86,8 @@ func appendFixed(b []byte, v float64, d int) []byte {
 	if math.Signbit(v) {
 		b = append(b, '-')
 	}
-	u, unit := uint64(n), uint64(p)
-	b = strconv.AppendUint(b, u/unit, 10)
-	if d > 0 {
-		b = append(b, '.')
-		frac := u % unit
-		for unit /= 10; unit > frac && unit > 1; unit /= 10 {
-			b = append(b, '0') // leading zeros of the places
-		}
-		b = strconv.AppendUint(b, frac, 10)
-	}
-	return b
+	return decimal.AppendPlaces(b, uint64(n), d)
 }
-
-var pow10 = [...]float64{1, 10, 100, 1e3, 1e4, 1e5, 1e6}
 
 func allZeros(s []byte) bool {
 	for _, c := range s {

@@ -52,6 +52,28 @@ var pow10 = func() [MaxScale + 1]float64 {
 // Pow10 is 10^d as a float64 (exact) for 0 <= d <= MaxScale.
 func Pow10(d int) float64 { return pow10[d] }
 
+// AppendPlaces appends n·10⁻ᵈ written with exactly d decimal places (0 <=
+// d <= 19): the integer part, then for d > 0 a point and d digits, leading
+// zeros included ("1.05" for n 105, d 2; "0.007" for n 7, d 3). The
+// writers of charts and of the report's JSON use it for a value written
+// from its digits.
+func AppendPlaces(b []byte, n uint64, d int) []byte {
+	unit := uint64(1)
+	for i := 0; i < d; i++ {
+		unit *= 10
+	}
+	b = strconv.AppendUint(b, n/unit, 10)
+	if d > 0 {
+		b = append(b, '.')
+		frac := n % unit
+		for unit /= 10; unit > frac && unit > 1; unit /= 10 {
+			b = append(b, '0') // leading zeros of the places
+		}
+		b = strconv.AppendUint(b, frac, 10)
+	}
+	return b
+}
+
 // Mantissa returns m with x = m/10^d exactly as typed, or ok = false when x
 // with d decimals is not a plain decimal the exact path can hold.
 func Mantissa(x float64, d int) (m int64, ok bool) {

@@ -135,3 +135,29 @@ func TestInterpolate(t *testing.T) {
 		t.Errorf("%v", r)
 	}
 }
+
+// AppendPlaces writes n·10⁻ᵈ with exactly d places. Expected texts: the
+// definition (the mantissa's digits with a point d places from the right,
+// zeros in front as needed); the random cases against strconv's own 'f'
+// formatting of the same decimal, which is exact for these sizes.
+func TestAppendPlaces(t *testing.T) {
+	for _, c := range []struct {
+		n    uint64
+		d    int
+		want string
+	}{{0, 0, "0"}, {0, 2, "0.00"}, {105, 2, "1.05"}, {7, 3, "0.007"}, {100, 2, "1.00"},
+		{123456, 6, "0.123456"}, {1, 19, "0.0000000000000000001"}, {18446744073709551615, 0, "18446744073709551615"}} {
+		if got := string(AppendPlaces([]byte("x"), c.n, c.d)); got != "x"+c.want {
+			t.Errorf("AppendPlaces(%d, %d) = %q, want %q", c.n, c.d, got[1:], c.want)
+		}
+	}
+	r := rand.New(rand.NewPCG(5, 6))
+	for i := 0; i < 20000; i++ {
+		d := r.IntN(7)
+		n := r.Uint64N(1 << 40)
+		want := strconv.FormatFloat(float64(n)/Pow10(d), 'f', d, 64)
+		if got := string(AppendPlaces(nil, n, d)); got != want {
+			t.Fatalf("AppendPlaces(%d, %d) = %q, strconv %q", n, d, got, want)
+		}
+	}
+}
