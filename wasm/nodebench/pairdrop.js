@@ -1,0 +1,49 @@
+// pairdrop.js A.wasm B.wasm [reps]: two builds of the engine in one Node
+// process, taking turns on a file of 1,000,000 invented readings read in
+// 64 KB chunks (lotlensBegin/Chunk/End) and analysed (lotlensRun on the
+// kept table); prints the read and analysis times of each and says when
+// the JSON differs. DIGEST=<64 hex digits> hands B a fingerprint as the
+// page does (Web Crypto), so B's read leaves out the hashing; the
+// fingerprint in B's JSON then differs, as it must.
+const { execSync } = require("child_process");
+const path = require("path");
+require(process.env.WASM_EXEC || path.join(execSync("go env GOROOT").toString().trim(), "lib", "wasm", "wasm_exec.js"));
+const fs = require("fs");
+const reps = +(process.argv[4] || 4);
+function text(n, s) { const a = new Array(n); let x = s; for (let i = 0; i < n; i++) { x = (x * 16807) % 2147483647; a[i] = (5 + (x / 2147483647 - 0.5) * 0.4).toFixed(3); } return a.join("\n") + "\n"; }
+async function load(path) {
+  const go = new Go();
+  let ready; const rp = new Promise((r) => (ready = r));
+  globalThis.postMessage = (m) => { if (m.type === "ready") ready(); };
+  const inst = await WebAssembly.instantiate(await WebAssembly.compile(fs.readFileSync(path)), go.importObject);
+  go.run(inst); await rp;
+  const f = {}; for (const k of ["lotlensBegin", "lotlensChunk", "lotlensEnd", "lotlensRun", "lotlensForget"]) f[k] = globalThis[k];
+  return f;
+}
+function drop(f, bytes, digest) {
+  const t0 = performance.now();
+  f.lotlensBegin("d.txt", bytes.length);
+  for (let i = 0; i < bytes.length; i += 65536) f.lotlensChunk(bytes.subarray(i, Math.min(bytes.length, i + 65536)));
+  f.lotlensEnd(digest);
+  const t1 = performance.now();
+  const r = f.lotlensRun(JSON.stringify({ options: {} }), true);
+  const t2 = performance.now();
+  f.lotlensForget();
+  return { read: t1 - t0, run: t2 - t1, json: r.json };
+}
+(async () => {
+  const E = [await load(process.argv[2]), await load(process.argv[3])];
+  const warm = new TextEncoder().encode(text(21000, 3));
+  for (const f of E) drop(f, warm, "");
+  const bytes = new TextEncoder().encode(text(1000000, 1));
+  const digest = process.env.DIGEST || "";
+  const res = [[], []];
+  for (let rep = 0; rep < reps; rep++) {
+    const order = rep % 2 ? [1, 0] : [0, 1];
+    const out = [];
+    for (const k of order) { out[k] = drop(E[k], bytes, k === 1 ? digest : ""); res[k].push(out[k]); }
+    if (out[0].json !== out[1].json) console.log("JSON differs at rep", rep);
+  }
+  for (const k of [0, 1]) console.log(k ? "B" : "A", res[k].map((r) => `read ${r.read.toFixed(0)} run ${r.run.toFixed(0)}`).join(" | "));
+  process.exit(0);
+})();
