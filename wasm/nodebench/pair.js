@@ -5,22 +5,10 @@
 // and the median of B/A over the calls after the first warm ones. Taking
 // turns in one process keeps a shared, noisy machine's load the same for
 // both. See DEVELOPERS.md ("Comparing two engine builds").
-const { execSync } = require("child_process");
-const path = require("path");
-require(process.env.WASM_EXEC || path.join(execSync("go env GOROOT").toString().trim(), "lib", "wasm", "wasm_exec.js"));
-const fs = require("fs");
+const { text, load } = require("./engines.js");
 const reps = +(process.argv[4] || 60), warm = +(process.argv[5] || 20);
-function text(n, s) { const a = new Array(n); let x = s; for (let i = 0; i < n; i++) { x = (x * 16807) % 2147483647; a[i] = (5 + (x / 2147483647 - 0.5) * 0.4).toFixed(3); } return a.join("\n") + "\n"; }
-async function load(path) {
-  const go = new Go();
-  let ready; const rp = new Promise((r) => (ready = r));
-  globalThis.postMessage = (m) => { if (m.type === "ready") ready(); };
-  const inst = await WebAssembly.instantiate(await WebAssembly.compile(fs.readFileSync(path)), go.importObject);
-  go.run(inst); await rp;
-  return globalThis.lotlensRun;
-}
 (async () => {
-  const runs = [await load(process.argv[2]), await load(process.argv[3])];
+  const runs = [(await load(process.argv[2])).lotlensRun, (await load(process.argv[3])).lotlensRun];
   const ts = [[], []];
   const firsts = [];
   for (let rep = 0; rep < reps; rep++) {

@@ -5,21 +5,8 @@
 // the JSON differs. DIGEST=<64 hex digits> hands B a fingerprint as the
 // page does (Web Crypto), so B's read leaves out the hashing; the
 // fingerprint in B's JSON then differs, as it must.
-const { execSync } = require("child_process");
-const path = require("path");
-require(process.env.WASM_EXEC || path.join(execSync("go env GOROOT").toString().trim(), "lib", "wasm", "wasm_exec.js"));
-const fs = require("fs");
+const { text, load } = require("./engines.js");
 const reps = +(process.argv[4] || 4);
-function text(n, s) { const a = new Array(n); let x = s; for (let i = 0; i < n; i++) { x = (x * 16807) % 2147483647; a[i] = (5 + (x / 2147483647 - 0.5) * 0.4).toFixed(3); } return a.join("\n") + "\n"; }
-async function load(path) {
-  const go = new Go();
-  let ready; const rp = new Promise((r) => (ready = r));
-  globalThis.postMessage = (m) => { if (m.type === "ready") ready(); };
-  const inst = await WebAssembly.instantiate(await WebAssembly.compile(fs.readFileSync(path)), go.importObject);
-  go.run(inst); await rp;
-  const f = {}; for (const k of ["lotlensBegin", "lotlensChunk", "lotlensEnd", "lotlensRun", "lotlensForget"]) f[k] = globalThis[k];
-  return f;
-}
 function drop(f, bytes, digest) {
   const t0 = performance.now();
   f.lotlensBegin("d.txt", bytes.length);
