@@ -254,6 +254,16 @@ func TestPasteShowsEngineNumbers(t *testing.T) {
 	}
 }
 
+// dropJS is JavaScript that drops each file (a JavaScript expression that
+// makes a File) on the input panel in turn, as dragging it there does.
+func dropJS(files ...string) string {
+	return `(() => { const t = document.getElementById("input");
+		for (const f of [` + strings.Join(files, ", ") + `]) { const dt = new DataTransfer(); dt.items.add(f);
+			t.dispatchEvent(new DragEvent("dragover", {bubbles: true, cancelable: true, dataTransfer: dt}));
+			t.dispatchEvent(new DragEvent("drop", {bubbles: true, cancelable: true, dataTransfer: dt})); }
+		return true })()`
+}
+
 // TestDropSupersedes drops a second file while the first (1 MB) is still
 // being read: the report is the second file's alone (its readings, its
 // fingerprint), and the first one's end does not undo it. Before, the first
@@ -272,13 +282,8 @@ func TestDropSupersedes(t *testing.T) {
 	js, _ := json.Marshal(second)
 	s.open(t)
 	err = chromedp.Run(s.ctx,
-		chromedp.Evaluate(`(() => { const drop = (f) => { const dt = new DataTransfer(); dt.items.add(f);
-			const t = document.getElementById("input");
-			t.dispatchEvent(new DragEvent("dragover", {bubbles: true, cancelable: true, dataTransfer: dt}));
-			t.dispatchEvent(new DragEvent("drop", {bubbles: true, cancelable: true, dataTransfer: dt})); };
-			drop(new File([`+values(150000)+`], "first.txt", {type: "text/plain"}));
-			drop(new File([`+string(js)+`], "second.csv", {type: "text/csv"}));
-			return true })()`, nil),
+		chromedp.Evaluate(dropJS(`new File([`+values(150000)+`], "first.txt", {type: "text/plain"})`,
+			`new File([`+string(js)+`], "second.csv", {type: "text/csv"})`), nil),
 		analysed(1))
 	if err != nil {
 		t.Fatal(err)
@@ -323,12 +328,7 @@ func TestDropFile(t *testing.T) {
 	js, _ := json.Marshal(text)
 	s.open(t)
 	err = chromedp.Run(s.ctx,
-		chromedp.Evaluate(`(() => { const dt = new DataTransfer();
-			dt.items.add(new File([`+string(js)+`], "fill-weights.csv", {type: "text/csv"}));
-			const t = document.getElementById("input");
-			t.dispatchEvent(new DragEvent("dragover", {bubbles: true, cancelable: true, dataTransfer: dt}));
-			t.dispatchEvent(new DragEvent("drop", {bubbles: true, cancelable: true, dataTransfer: dt}));
-			return true })()`, nil),
+		chromedp.Evaluate(dropJS(`new File([`+string(js)+`], "fill-weights.csv", {type: "text/csv"})`), nil),
 		analysed(1))
 	if err != nil {
 		t.Fatal(err)
