@@ -3,6 +3,8 @@ package method
 import (
 	"lotlens/stats/internal/rref"
 	"math"
+	"reflect"
+	"runtime"
 	"sort"
 	"strconv"
 	"strings"
@@ -190,20 +192,39 @@ func TestConstantsRelationsLargeN(t *testing.T) {
 	}
 }
 
-// The seeded range figures are what the integrals give, bit for bit, so a
-// change in the integration shows here rather than as a silent mismatch
-// between seeded and computed subgroup sizes.
+// The seeded range figures are what the integrals give: bit for bit on
+// amd64, where they were computed; elsewhere within 1e-14 relative (js/wasm
+// has no assembly math functions, and its integrals differ in the last
+// digits, e.g. d3(2) 0.8525024664274142 against 0.8525024664274177; the
+// exact value is sqrt(2 - 4/π) = 0.8525024664274218). A change in the
+// integration shows here rather than as a silent mismatch between seeded
+// and computed subgroup sizes.
 func TestConstantsSeed(t *testing.T) {
 	if len(ctlSeed) == 0 {
 		t.Fatal("no seed")
 	}
+	exact := runtime.GOARCH == "amd64"
 	for n, sd := range ctlSeed {
 		want := ctlComputeConstants(n)
-		if got := ctlConstantsOf(n, sd[0], sd[1], sd[2]); got != want {
-			t.Errorf("n %d: seeded constants %+v, computed %+v", n, got, want)
+		got := ctlConstantsOf(n, sd[0], sd[1], sd[2])
+		if c, err := Constants(n); err != nil || c != got {
+			t.Errorf("n %d: Constants %+v (%v), seeded %+v", n, c, err, got)
 		}
-		if got, err := Constants(n); err != nil || got != want {
-			t.Errorf("n %d: Constants %+v (%v), computed %+v", n, got, err, want)
+		if exact {
+			if got != want {
+				t.Errorf("n %d: seeded constants %+v, computed %+v", n, got, want)
+			}
+			continue
+		}
+		g, w := reflect.ValueOf(got), reflect.ValueOf(want)
+		for i := 0; i < g.NumField(); i++ {
+			if g.Field(i).Kind() != reflect.Float64 {
+				continue
+			}
+			a, b := g.Field(i).Float(), w.Field(i).Float()
+			if math.Abs(a-b) > 1e-14*math.Max(1, math.Abs(b)) {
+				t.Errorf("n %d: %s seeded %v, computed %v", n, g.Type().Field(i).Name, a, b)
+			}
 		}
 	}
 }
