@@ -504,40 +504,39 @@ func ctlLast5(M, P uint64, j int) uint64 {
 
 // carry moves the state over a word of masks m.
 func (st *ctlState) carry(m *ctlMasks) {
-	top := func(M uint64) uint64 { return uint64(bits.LeadingZeros64(^M)) } // ones ending at bit 63
-	switch {
-	case m.above>>63 != 0:
-		st.r = top(m.above) + ctlIf(top(m.above) == 64 && st.prevSide == 1, st.r)
-		st.prevSide = 1
-	case m.below>>63 != 0:
-		st.r = top(m.below) + ctlIf(top(m.below) == 64 && st.prevSide == -1, st.r)
-		st.prevSide = -1
-	default:
-		st.r, st.prevSide = 0, 0
-	}
-	st.rIn = top(m.in1) + ctlIf(top(m.in1) == 64, st.rIn)
-	st.rOut = top(m.o1) + ctlIf(top(m.o1) == 64, st.rOut)
+	st.r, st.prevSide = ctlCarryPair(m.above, m.below, st.r, st.prevSide)
+	st.rIn = ctlTop(m.in1) + ctlIf(ctlTop(m.in1) == 64, st.rIn)
+	st.rOut = ctlTop(m.o1) + ctlIf(ctlTop(m.o1) == 64, st.rOut)
 	// alternations: step j the opposite of step j − 1 (bit 0 against the
 	// last step of the word before, known from prevStep)
 	prevUp, prevDown := ctlU(st.prevStep == 1), ctlU(st.prevStep == -1)
 	alt := m.up&(m.down<<1|prevDown) | m.down&(m.up<<1|prevUp)
-	switch {
-	case m.up>>63 != 0:
-		st.t = top(m.up) + ctlIf(top(m.up) == 64 && st.prevStep == 1, st.t)
-		st.prevStep = 1
-	case m.down>>63 != 0:
-		st.t = top(m.down) + ctlIf(top(m.down) == 64 && st.prevStep == -1, st.t)
-		st.prevStep = -1
-	default:
-		st.t, st.prevStep = 0, 0
-	}
+	st.t, st.prevStep = ctlCarryPair(m.up, m.down, st.t, st.prevStep)
 	if st.prevStep == 0 {
 		st.tAlt = 0
-	} else if a := top(alt); a == 64 {
+	} else if a := ctlTop(alt); a == 64 {
 		st.tAlt += 64
 	} else {
 		st.tAlt = a + 1
 	}
+}
+
+// ctlTop is the length of the run of ones that ends at bit 63 of M.
+func ctlTop(M uint64) uint64 { return uint64(bits.LeadingZeros64(^M)) }
+
+// ctlCarryPair carries a run over a word for a pair of opposite kinds of
+// point, a and b (above and below the centre; a step up and a step down):
+// r is the length of the run that ends the word and prev its kind (1 for a,
+// −1 for b, 0 when the word's last point is of neither). A run that fills
+// the whole word adds to the run carried in when that was of the same kind.
+func ctlCarryPair(a, b, r uint64, prev int) (uint64, int) {
+	switch {
+	case a>>63 != 0:
+		return ctlTop(a) + ctlIf(ctlTop(a) == 64 && prev == 1, r), 1
+	case b>>63 != 0:
+		return ctlTop(b) + ctlIf(ctlTop(b) == 64 && prev == -1, r), -1
+	}
+	return 0, 0
 }
 
 func ctlIf(cond bool, v uint64) uint64 {
