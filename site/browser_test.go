@@ -307,6 +307,34 @@ func TestDropSupersedes(t *testing.T) {
 	}
 }
 
+// TestDropCancel cancels the reading of a large file (3,000,000 values,
+// about 21 MB) once the bar has moved: the reading stops where it is (the
+// engine hears the cancel between the slices it parses, not only at the
+// end), nothing is analysed, and the page says so.
+func TestDropCancel(t *testing.T) {
+	s := browser(t)
+	s.open(t)
+	var got map[string]any
+	err := chromedp.Run(s.ctx,
+		chromedp.Evaluate(dropJS(`new File([`+values(3000000)+`], "big.txt", {type: "text/plain"})`), nil),
+		chromedp.Poll(`document.getElementById("progress").value > 0`, nil, chromedp.WithPollingTimeout(20*time.Second)),
+		chromedp.Click("#cancel", chromedp.ByID),
+		chromedp.Poll(`document.body.dataset.state === "cancelled" || document.body.dataset.state === "error" || (document.body.dataset.analysed|0) > 0`, nil,
+			chromedp.WithPollingTimeout(20*time.Second)),
+		chromedp.Evaluate(`({state: document.body.dataset.state, status: document.getElementById("status").textContent,
+			read: document.getElementById("progress").value, total: document.getElementById("progress").max,
+			report: !document.getElementById("report").hidden})`, &got))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got["state"] != "cancelled" || !strings.HasPrefix(got["status"].(string), "Reading cancelled.") || got["report"] == true {
+		t.Errorf("after the cancel: %v; want the state cancelled, the status \"Reading cancelled...\" and no report", got)
+	}
+	if read, total := got["read"].(float64), got["total"].(float64); !(read > 0 && read < total) {
+		t.Errorf("the reading went on to %v of %v bytes after the cancel", read, total)
+	}
+}
+
 // TestDropFile drops a file (made in the page) and checks the report, the
 // fingerprint of the bytes and the problem rows in the preview.
 func TestDropFile(t *testing.T) {

@@ -107,20 +107,50 @@ load()
 
 let reading = null; // {id, cancelled}
 
-// The file's fingerprint (SHA-256 of its bytes) is computed by the
-// browser's Web Crypto, on a thread of its own, while the engine parses the
-// chunks: done by the engine (Go's SHA-256 in WebAssembly) it was about a
-// third of the reading time. Above DIGEST_MAX (the 64 MiB the engine keeps
-// for sharing) the engine hashes as it reads: Web Crypto needs the whole
-// file in memory at once. "" (no Web Crypto, or it failed) leaves it to the
-// engine too.
-const DIGEST_MAX = 64 * 1024 * 1024;
-function digestOf(file) {
-  if (file.size > DIGEST_MAX || !(self.crypto && crypto.subtle)) return Promise.resolve("");
-  return file.arrayBuffer()
-    .then((b) => crypto.subtle.digest("SHA-256", b))
-    .then((d) => Array.from(new Uint8Array(d), (x) => x.toString(16).padStart(2, "0")).join(""))
-    .catch(() => "");
+// A file up to WHOLE_MAX (the 64 MiB the engine keeps for sharing) is read
+// from the browser once, whole: the engine parses it in slices of SLICE
+// bytes, and the browser's Web Crypto computes its fingerprint (SHA-256 of
+// its bytes) from the same buffer on a thread of its own meanwhile. Read as
+// a stream for the engine and whole again for the fingerprint, as before,
+// the file crossed from the browser twice, in 64 KB steps. A larger file is
+// read as a stream and the engine hashes it as it reads (Web Crypto needs
+// the whole file in memory at once); so it does when Web Crypto is missing
+// or fails (the fingerprint "").
+const WHOLE_MAX = 64 * 1024 * 1024;
+const SLICE = 512 * 1024;
+function hex(d) { return Array.from(new Uint8Array(d), (x) => x.toString(16).padStart(2, "0")).join(""); }
+
+// Between slices the worker lets its queued messages in (a cancel, a newer
+// file) through a message to itself: setTimeout in a worker waits at least
+// 4 ms once nested.
+const yieldChan = new MessageChannel();
+const yielded = [];
+yieldChan.port1.onmessage = () => { const f = yielded.shift(); if (f) f(); };
+function letMessagesIn() { return new Promise((r) => { yielded.push(r); yieldChan.port2.postMessage(0); }); }
+
+// chunksOf yields the file's bytes in steps and, once done, its
+// fingerprint (a promise of the hex digest, or of "").
+function chunksOf(file) {
+  const whole = file.size <= WHOLE_MAX && self.crypto && crypto.subtle;
+  if (!whole) {
+    const rd = file.stream().getReader();
+    return { digest: Promise.resolve(""), next: () => rd.read(), stop: () => rd.cancel().catch(() => {}) };
+  }
+  const buf = file.arrayBuffer();
+  const digest = buf.then((b) => crypto.subtle.digest("SHA-256", b)).then(hex).catch(() => "");
+  let at = 0, bytes = null;
+  return {
+    digest,
+    async next() {
+      if (bytes === null) bytes = new Uint8Array(await buf);
+      else await letMessagesIn();
+      if (at >= bytes.length) return { done: true };
+      const value = bytes.subarray(at, Math.min(bytes.length, at + SLICE));
+      at += value.length;
+      return { done: false, value };
+    },
+    stop() {},
+  };
 }
 
 // The engine reads one file at a time: lotlensBegin drops a read in
@@ -134,21 +164,20 @@ async function readFile(id, file) {
   if (reading) reading.superseded = true;
   const job = { id, cancelled: false, superseded: false };
   reading = job;
-  const digest = digestOf(file);
+  const src = chunksOf(file);
   self.lotlensBegin(file.name || "file", file.size);
   const total = file.size;
   let read = 0, last = 0;
-  const rd = file.stream().getReader();
   try {
     for (;;) {
-      const { done, value } = await rd.read();
+      const { done, value } = await src.next();
       if (job.superseded) {
-        rd.cancel().catch(() => {});
+        src.stop();
         postMessage({ type: "file-read", id, json: SUPERSEDED });
         return;
       }
       if (job.cancelled) {
-        rd.cancel().catch(() => {});
+        src.stop();
         postMessage({ type: "file-read", id, json: self.lotlensCancel() });
         return;
       }
@@ -166,7 +195,7 @@ async function readFile(id, file) {
       }
     }
     postMessage({ type: "progress", id, read, total });
-    const fp = await digest;
+    const fp = await src.digest;
     if (job.superseded) {
       postMessage({ type: "file-read", id, json: SUPERSEDED });
       return;
