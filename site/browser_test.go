@@ -335,6 +335,65 @@ func TestDropCancel(t *testing.T) {
 	}
 }
 
+// TestChartsDrawnAfter: the large charts of a report of 5,000 readings are
+// drawn just after the rest. At the moment the report is put on the page a
+// large chart holds a placeholder of its size (so nothing moves when it
+// comes); a chart that a key press needs is drawn at once; and by the time
+// the page counts the report as analysed, every chart is drawn, each the
+// height of its placeholder.
+func TestChartsDrawnAfter(t *testing.T) {
+	s := browser(t)
+	s.open(t)
+	var at map[string]any
+	err := chromedp.Run(s.ctx,
+		chromedp.Evaluate(`window.__at = null; new MutationObserver((_, obs) => {
+			if (window.__at || !document.querySelector("#cards .chart-fig")) return;
+			obs.disconnect();
+			const figs = [...document.querySelectorAll("#cards .chart-fig")];
+			const waiting = figs.filter((f) => f.querySelector(".chart-wait"));
+			const h = {};
+			for (const f of waiting) h[f.dataset.chart] = f.querySelector(".chart-wait").getBoundingClientRect().height;
+			const r = {charts: figs.length, waiting: waiting.map((f) => f.dataset.chart), heights: h};
+			const f = waiting.find((f) => f.dataset.chart === "control");
+			if (f) { f.focus(); f.dispatchEvent(new KeyboardEvent("keydown", {key: "ArrowRight", bubbles: true}));
+				r.keyDrew = !!f.querySelector("svg") && !f.querySelector(".chart-wait"); r.tip = !document.getElementById("tip").hidden; }
+			window.__at = r;
+		}).observe(document.getElementById("cards"), {childList: true}); true`, nil),
+		paste(values5000()),
+		analysed(1),
+		chromedp.Evaluate(`(() => { const r = window.__at; r.after = {}; r.left = document.querySelectorAll("#cards .chart-wait").length;
+			for (const f of document.querySelectorAll("#cards .chart-fig")) { const g = f.querySelector("svg"); r.after[f.dataset.chart] = g ? g.getBoundingClientRect().height : -1; }
+			return r })()`, &at))
+	if err != nil {
+		t.Fatal(err)
+	}
+	waiting, _ := at["waiting"].([]any)
+	if len(waiting) == 0 || len(waiting) == int(at["charts"].(float64)) {
+		t.Fatalf("charts waiting when the report was put on the page: %v of %v; want the large ones only", waiting, at["charts"])
+	}
+	if at["keyDrew"] != true || at["tip"] != true {
+		t.Errorf("an arrow key on the waiting control chart: drawn %v, tip shown %v; want both", at["keyDrew"], at["tip"])
+	}
+	if at["left"].(float64) != 0 {
+		t.Errorf("%v placeholders left once analysed", at["left"])
+	}
+	after := at["after"].(map[string]any)
+	for k, h := range at["heights"].(map[string]any) {
+		if a := after[k].(float64); math.Abs(a-h.(float64)) > 1 {
+			t.Errorf("chart %s: placeholder %.1f px high, the chart %.1f px", k, h, a)
+		}
+	}
+}
+
+// values5000 is 5,000 invented readings, one a line.
+func values5000() string {
+	var b strings.Builder
+	for i := 0; i < 5000; i++ {
+		fmt.Fprintf(&b, "%.3f\n", 10+0.02*float64(i%97)-0.015*float64(i%61))
+	}
+	return b.String()
+}
+
 // TestDropFile drops a file (made in the page) and checks the report, the
 // fingerprint of the bytes and the problem rows in the preview.
 func TestDropFile(t *testing.T) {

@@ -32,24 +32,85 @@ export function testRows(tests) {
   return tests.filter(Boolean).map((t) => [t.name, num(t.statistic, 3), t.df !== undefined && t.df !== null ? num(t.df, 0) : "\u2013", fmtP(t.p), t.method || ""]);
 }
 
-// chartFigure: the engine's SVG text parsed by the HTML parser of an inert
+// parseChart: the engine's SVG text parsed by the HTML parser of an inert
 // <template> (no script runs, nothing loads; the text in it is escaped by
 // the Go chart package): several times faster than DOMParser's XML parser
-// plus importNode, which took most of the page's rendering time. The Save
-// button comes before the keyboard hint, and the hint shows only while the
-// figure itself has keyboard focus, so nothing moves under a click.
-export function chartFigure(key, caption) {
-  const src = state.svg && state.svg[key];
-  if (!src) return el("p", { class: "missing", text: "No chart: the report has no data for it." });
+// plus importNode, which took most of the page's rendering time.
+function parseChart(src) {
   const tpl = document.createElement("template");
   tpl.innerHTML = src;
   const svg = tpl.content.firstElementChild;
-  if (!svg || svg.nodeName !== "svg" || tpl.content.childElementCount !== 1) return el("p", { class: "missing", text: "The chart could not be drawn." });
+  return svg && svg.nodeName === "svg" && tpl.content.childElementCount === 1 ? svg : null;
+}
+const NOT_DRAWN = "The chart could not be drawn.";
+
+// Large charts wait (the SVG of a long series: about 400 KB and 3,000
+// elements for a control chart of 1,000,000 readings). While render() draws
+// a report (drawLater), a chart of more than LATER characters gets a
+// placeholder of its size, and chartsDrawn() parses it just after the report
+// has been painted, one chart per task: the verdict and the figures come on
+// screen without waiting for the charts below them (parsing and laying out
+// the charts of a 1M-value file took 20-50 ms). A chart is drawn at once
+// whenever something needs it: a tap, a key, focus (pointsOf in
+// chart-tips.js), print.
+const LATER = 16384;
+const waiting = new Map(); // figure -> its SVG text, not drawn yet
+let later = false;
+export function drawLater(on) {
+  if (on) waiting.clear(); // a new report: the old figures are gone
+  later = on;
+}
+export function drawChart(fig) {
+  const src = waiting.get(fig);
+  if (src === undefined) return;
+  waiting.delete(fig);
+  const wait = fig.querySelector(".chart-wait");
+  if (!wait) return;
+  const svg = parseChart(src);
+  if (svg) wait.replaceWith(svg);
+  else fig.replaceWith(el("p", { class: "missing", text: NOT_DRAWN }));
+}
+export function drawCharts() { for (const fig of [...waiting.keys()]) drawChart(fig); }
+// chartsDrawn resolves once no chart waits: it draws them one per task,
+// starting after the next frame (or 100 ms, should frames not come: a
+// hidden tab).
+export function chartsDrawn() {
+  return new Promise((resolve) => {
+    let started = false;
+    const step = () => {
+      const next = waiting.keys().next();
+      if (next.done) { resolve(); return; }
+      drawChart(next.value);
+      setTimeout(step, 0);
+    };
+    const start = () => { if (!started) { started = true; step(); } };
+    requestAnimationFrame(() => setTimeout(start, 0));
+    setTimeout(start, 100);
+  });
+}
+window.addEventListener("beforeprint", drawCharts);
+
+// chartFigure: a chart with its caption and Save button. The Save button
+// comes before the keyboard hint, and the hint shows only while the figure
+// itself has keyboard focus, so nothing moves under a click.
+export function chartFigure(key, caption) {
+  const src = state.svg && state.svg[key];
+  if (!src) return el("p", { class: "missing", text: "No chart: the report has no data for it." });
+  let body;
+  if (later && src.length > LATER) {
+    body = el("div", { class: "chart-wait" });
+    const vb = /viewBox="0 0 ([0-9.]+) ([0-9.]+)"/.exec(src.slice(0, 300));
+    if (vb) body.style.aspectRatio = vb[1] + " / " + vb[2];
+  } else {
+    body = parseChart(src);
+    if (!body) return el("p", { class: "missing", text: NOT_DRAWN });
+  }
   const fig = el("figure", { class: "chart-fig", "data-chart": key, tabindex: "0",
     "aria-describedby": "kbd-" + key });
-  fig.append(svg);
+  fig.append(body);
   const save = el("button", { type: "button", class: "small save-svg", text: "Save SVG", onclick: () => download(fileBase() + "-" + key + ".svg", src, "image/svg+xml") });
   fig.append(el("figcaption", null, el("span", { class: "cap", text: caption + " " }), save,
     el("span", { id: "kbd-" + key, class: "kbd-hint", text: "Tap or hover a point for its row; with the keyboard, arrow keys step through the points and Enter leaves one out or puts it back." })));
+  if (body.classList.contains("chart-wait")) waiting.set(fig, src);
   return fig;
 }

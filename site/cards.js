@@ -5,7 +5,7 @@
 // engine reports is shown; nothing is computed here.
 import { $, state, actions } from "./state.js";
 import { unit, el, settingsLines, sourceText, reasonText, excludedLine, whenText, count } from "./dom.js";
-import { cardList } from "./card-kit.js";
+import { cardList, drawLater, chartsDrawn } from "./card-kit.js";
 import { hideTip, showTip, pointsOf } from "./chart-tips.js";
 // The cards, in report order: one line each.
 import "./card-verdict.js";
@@ -168,15 +168,22 @@ function reveal() {
 // ---------- report ----------
 // render draws the report. opts.focus: where focus was (captureFocus) before
 // the analysis; opts.reveal: the user asked for this analysis (Analyse,
-// paste, file, demo, link), so the verdict is brought into view.
+// paste, file, demo, link), so the verdict is brought into view. It returns
+// a promise that resolves once the large charts, drawn just after the rest,
+// are drawn too (chartsDrawn, card-kit.js).
 export function render(opts) {
   opts = opts || {};
   const rep = state.report;
   hideTip();
   const cards = [];
-  for (const c of cardList()) {
-    const e = c.build(rep);
-    if (e) cards.push(e);
+  drawLater(true);
+  try {
+    for (const c of cardList()) {
+      const e = c.build(rep);
+      if (e) cards.push(e);
+    }
+  } finally {
+    drawLater(false);
   }
   $("cards").replaceChildren(...cards);
   const v = $("card-verdict");
@@ -190,6 +197,7 @@ export function render(opts) {
   $("share-box").hidden = true;
   if (opts.focus) restoreFocus(opts.focus);
   else if (opts.reveal) reveal();
+  return chartsDrawn();
 }
 actions.render = () => render({ focus: captureFocus() });
 

@@ -3,10 +3,12 @@
 // the point's drawn size); the tip opens beside the point, never over it.
 import { $, state, actions } from "./state.js";
 import { el } from "./dom.js";
+import { drawChart } from "./card-kit.js";
 
 const tip = $("tip");
 export const HIT = 22; // px from a point's centre: a 44 px target
-export function pointsOf(fig) { return Array.from(fig.querySelectorAll("[data-row]")); }
+// pointsOf draws a chart still waiting (card-kit.js) before it is used
+export function pointsOf(fig) { drawChart(fig); return Array.from(fig.querySelectorAll("[data-row]")); }
 
 // nearestPoint is the point of fig whose centre is nearest (x, y) in
 // client coordinates, within HIT px; null when none is that close.

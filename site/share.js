@@ -174,12 +174,13 @@ function apply(sh, rep, svg, how) {
   state.report = rep;
   state.svg = svg;
   state.when = new Date();
-  render();
+  const drawn = render();
   banner();
   state.analyses++;
   setStatus("Opened a shared analysis: " + rep.counts.used + " values" + (rep.counts.excluded ? " (" + rep.counts.excluded + " left out by the sender)" : "") + ". " + rep.input.summary);
   document.body.dataset.state = "report";
-  document.body.dataset.analysed = String(state.analyses);
+  const n = state.analyses;
+  drawn.then(() => { if (state.analyses === n) document.body.dataset.analysed = String(n); });
 }
 
 function banner() {
