@@ -197,7 +197,7 @@ func BenchmarkPaste10kFirst(b *testing.B) {
 		delay time.Duration
 	}{{"at-ready", 0}, {"after-2s", 2 * time.Second}, {"after-warm-up", -1}} {
 		b.Run(c.name, func(b *testing.B) {
-			var first, eng, ren, jsBase, native, warm, before, to, wrk float64
+			var first, eng, ren, jsBase, native, warm, before, to, wrk, paint, charts float64
 			for i := 0; i < b.N; i++ {
 				s := browser(b)
 				s.open(b)
@@ -240,10 +240,15 @@ func BenchmarkPaste10kFirst(b *testing.B) {
 				before += tm["beforeSendMs"]
 				to += tm["toWorkerMs"]
 				wrk += tm["workerMs"]
+				paint += tm["paintMs"]
+				charts += tm["chartsMs"]
 				jsBase += jsMs
 			}
 			n := float64(b.N)
 			b.ReportMetric(first/n, "first-paste-ms")
+			// the frame that shows the report; the last large chart drawn
+			b.ReportMetric(paint/n, "paint-ms")
+			b.ReportMetric(charts/n, "charts-ms")
 			b.ReportMetric(eng/n, "engine-ms")
 			b.ReportMetric(ren/n, "render-ms")
 			// the engine's part split: the page before posting, the post
