@@ -94,8 +94,8 @@ func Constants(n int) (ChartConstants, error) {
 // It is a list, laid out by the compiler, so that nothing runs at start;
 // ctlSeedOf looks a size up.
 var ctlSeed = [...]struct {
-	n  int
-	d2 [3]float64 // d2, d3, d4
+	n int
+	d [3]float64 // d2, d3, d4
 }{
 	{2, [3]float64{1.1283791670955123, 0.8525024664274177, 0.9538725524089399}},
 	{3, [3]float64{1.6925687506432694, 0.8883680040451981, 1.587787750446347}},
@@ -107,7 +107,7 @@ var ctlSeed = [...]struct {
 func ctlSeedOf(n int) ([3]float64, bool) {
 	for _, s := range ctlSeed {
 		if s.n == n {
-			return s.d2, true
+			return s.d, true
 		}
 	}
 	return [3]float64{}, false

@@ -205,7 +205,7 @@ func TestConstantsSeed(t *testing.T) {
 	}
 	exact := runtime.GOARCH == "amd64"
 	for _, s := range ctlSeed {
-		n, sd := s.n, s.d2
+		n, sd := s.n, s.d
 		want := ctlComputeConstants(n)
 		got := ctlConstantsOf(n, sd[0], sd[1], sd[2])
 		if c, err := Constants(n); err != nil || c != got {
