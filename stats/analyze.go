@@ -186,8 +186,10 @@ type colView struct {
 // maxIncompleteListed bounds the incomplete rows listed per optional column.
 const maxIncompleteListed = 200
 
-// errNoData is the error for input without any cell.
-var errNoData = errorf(CodeNoData, "text", "no data: paste or drop a column of measurements")
+// errNoData is the error for input without any cell: a literal, laid out
+// by the compiler (errorf would run fmt at start; see "Start-up" in
+// DEVELOPERS.md).
+var errNoData = &Error{Code: CodeNoData, Field: "text", Msg: "no data: paste or drop a column of measurements"}
 
 func checkSchema(s string) error {
 	if s != "" && s != RequestSchema {
@@ -377,12 +379,9 @@ func ParseRequest(in []byte) (Request, error) {
 	return req, nil
 }
 
-// requestKeys and optionKeys are the keys a request may hold, for messages.
-var (
-	requestKeys = jsonKeys(reflect.TypeOf(Request{}))
-	optionKeys  = jsonKeys(reflect.TypeOf(Options{}))
-)
-
+// jsonKeys lists the JSON keys of a struct type, for messages about the
+// keys a request and its options may hold (made when a message needs them,
+// not at start).
 func jsonKeys(t reflect.Type) string {
 	var ks []string
 	for i := 0; i < t.NumField(); i++ {
@@ -414,7 +413,7 @@ func requestError(err error) error {
 		return errorf(CodeBadRequest, "", "the request is not valid JSON (at byte %d): %v", se.Offset, err)
 	case strings.HasPrefix(msg, "json: unknown field "):
 		key := strings.Trim(strings.TrimPrefix(msg, "json: unknown field "), `"`)
-		return errorf(CodeBadRequest, key, "unknown key %q in the request: a request has %s; its options are %s (check the spelling)", key, requestKeys, optionKeys)
+		return errorf(CodeBadRequest, key, "unknown key %q in the request: a request has %s; its options are %s (check the spelling)", key, jsonKeys(reflect.TypeOf(Request{})), jsonKeys(reflect.TypeOf(Options{})))
 	case errors.Is(err, io.EOF):
 		return errorf(CodeBadRequest, "", "the request is empty: send a JSON object such as {\"text\": \"5.1\\n5.2\"}")
 	}

@@ -20,10 +20,26 @@ import (
 // columnReaders. A column the request names but no section of this version
 // reads is refused with CodeUnused, never ignored. Adding a section that
 // reads a column: add its name here.
-var columnReaders = map[string][]string{
-	"order":    {"over time (run chart, control charts)"},
-	"subgroup": {"over time (control charts)", "against the spec (within-process sigma)"},
-	"group":    {"groups"},
+//
+// A list, not a map, so that the compiler lays it out and nothing runs at
+// start (see "Start-up" in DEVELOPERS.md).
+var columnReaders = [...]struct {
+	key      string
+	sections []string
+}{
+	{"order", []string{"over time (run chart, control charts)"}},
+	{"subgroup", []string{"over time (control charts)", "against the spec (within-process sigma)"}},
+	{"group", []string{"groups"}},
+}
+
+// readersOf lists the sections that read the column of role key.
+func readersOf(key string) []string {
+	for _, r := range columnReaders {
+		if r.key == key {
+			return r.sections
+		}
+	}
+	return nil
 }
 
 // KindIncomplete is the Problem kind of a row whose value is used but whose
@@ -68,7 +84,7 @@ func pickColumns(tab *ingest.Table, req Request) (*columnSet, error) {
 		if c == val {
 			return nil, errorf(CodeColumn, r.key, "the %s column %q is also the value column: choose another column for %s, or none", r.key, c.Name, r.key)
 		}
-		if len(columnReaders[r.key]) == 0 {
+		if len(readersOf(r.key)) == 0 {
 			return nil, errorf(CodeUnused, r.key, "no section of this version reads a %s column, so %q would be ignored: leave the %s choice empty (comparing %s is planned)",
 				r.key, c.Name, r.key, map[string]string{"subgroup": "subgroups", "group": "groups"}[r.key])
 		}
@@ -191,7 +207,7 @@ func (cs *columnSet) incompleteRows(w words, limit int) (probs []ingest.Problem,
 			}
 			counts[r.key]++
 			if counts[r.key] <= limit {
-				why, action := w.incomplete(v.Text(i), r.key, columnReaders[r.key])
+				why, action := w.incomplete(v.Text(i), r.key, readersOf(r.key))
 				probs = append(probs, ingest.Problem{
 					Row: int(v.Rows[i]), Col: r.c.Position, Column: r.c.Name, Text: r.c.Text(i), Kind: KindIncomplete,
 					Reason: why, Action: action,

@@ -391,10 +391,18 @@ var (
 	checkOrder = []string{method.SignalBeyondLimits, method.SignalTwoOfThree, method.SignalFourOfFive,
 		method.SignalRunSameSide, method.SignalTrend, method.SignalAlternating, method.SignalHuggingCentre,
 		method.SignalAvoidCentre, SignalEWMA, SignalCUSUM}
-	defaultOn = map[string]bool{method.SignalBeyondLimits: true, method.SignalTwoOfThree: true,
-		method.SignalFourOfFive: true, method.SignalRunSameSide: true, method.SignalTrend: true,
-		SignalEWMA: true, SignalCUSUM: true}
 )
+
+// defaultOn says whether check c is on when the request switches none (a
+// switch, not a map: nothing to build at start).
+func defaultOn(c string) bool {
+	switch c {
+	case method.SignalBeyondLimits, method.SignalTwoOfThree, method.SignalFourOfFive,
+		method.SignalRunSameSide, method.SignalTrend, SignalEWMA, SignalCUSUM:
+		return true
+	}
+	return false
+}
 
 // rowRanges parses Options.Baseline ("2-61, 80, 90-99") into sorted
 // inclusive ranges of spreadsheet rows.
@@ -713,7 +721,7 @@ func signalSwitches(sw map[string]bool) (method.SignalSettings, map[string]bool)
 	on := map[string]bool{}
 	for _, c := range checkOrder {
 		v, given := sw[c]
-		on[c] = defaultOn[c]
+		on[c] = defaultOn(c)
 		if given {
 			on[c] = v
 		}
@@ -1889,10 +1897,10 @@ func roundedConstants(n int) method.ChartConstants {
 // arlCache keeps the run lengths by chart and settings: each is a linear
 // solve of 301 states (tens of milliseconds), and the page re-runs the
 // analysis on every change of a setting; it starts with the default
-// settings' figures (arlSeed).
+// settings' figures (arlSeed), made on first use rather than at start.
 var (
 	arlMu    sync.Mutex
-	arlCache = seededARLCache()
+	arlCache map[[4]float64]*float64
 )
 
 func cachedARL(chart string, a, b, shift float64) *float64 {
@@ -1901,6 +1909,9 @@ func cachedARL(chart string, a, b, shift float64) *float64 {
 		key[3] = 1
 	}
 	arlMu.Lock()
+	if arlCache == nil {
+		arlCache = seededARLCache()
+	}
 	v, ok := arlCache[key]
 	arlMu.Unlock()
 	if ok {

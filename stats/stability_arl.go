@@ -9,18 +9,24 @@ package stats
 // cost of the first analysis in the browser, before the engine's code is
 // optimised (about half of a first 10,000-reading analysis in Node's
 // WebAssembly). TestARLSeed recomputes each one: the seed cannot go stale.
-var arlSeed = map[[4]float64]float64{
-	{defaultLambda, defaultL, 0, 0}: 559.75,
-	{defaultLambda, defaultL, 1, 0}: 10.836,
-	{defaultK, defaultH, 0, 1}:      465.412,
-	{defaultK, defaultH, 1, 1}:      10.376,
+// The key is cachedARL's: λ and L (or k and h), the shift, 0 for EWMA and
+// 1 for CUSUM. A list, laid out by the compiler: nothing runs at start.
+var arlSeed = [...]struct {
+	key [4]float64
+	arl float64
+}{
+	{[4]float64{defaultLambda, defaultL, 0, 0}, 559.75},
+	{[4]float64{defaultLambda, defaultL, 1, 0}, 10.836},
+	{[4]float64{defaultK, defaultH, 0, 1}, 465.412},
+	{[4]float64{defaultK, defaultH, 1, 1}, 10.376},
 }
 
 // seededARLCache is the run-length cache to start from: the seed.
 func seededARLCache() map[[4]float64]*float64 {
 	c := make(map[[4]float64]*float64, len(arlSeed))
-	for k, v := range arlSeed {
-		c[k] = &v
+	for _, s := range arlSeed {
+		v := s.arl
+		c[s.key] = &v
 	}
 	return c
 }

@@ -14,7 +14,8 @@ func TestARLSeed(t *testing.T) {
 	if len(arlSeed) == 0 {
 		t.Fatal("no seeded run lengths")
 	}
-	for key, want := range arlSeed {
+	for _, s := range arlSeed {
+		key, want := s.key, s.arl
 		var got float64
 		var err error
 		if key[3] == 1 {

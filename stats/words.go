@@ -459,27 +459,41 @@ func (w words) cvOmitted() string {
 
 // ---- Quantiles ------------------------------------------------------------
 
-// quantileNames are the plain names shown beside each definition.
-var quantileNames = map[string]string{
-	"hf1":   "Hyndman-Fan type 1: inverse of the empirical distribution function",
-	"hf2":   "Hyndman-Fan type 2: inverse of the empirical distribution function, averaged at discontinuities",
-	"hf3":   "Hyndman-Fan type 3: nearest even order statistic",
-	"hf4":   "Hyndman-Fan type 4: linear interpolation of the empirical distribution function, p = k/n",
-	"hf5":   "Hyndman-Fan type 5: piecewise linear, p = (k - 1/2)/n",
-	"hf6":   "Hyndman-Fan type 6: p = k/(n + 1)",
-	"hf7":   "Hyndman-Fan type 7: p = (k - 1)/(n - 1)",
-	"hf8":   "Hyndman-Fan type 8: median-unbiased, p = (k - 1/3)/(n + 1/3)",
-	"hf9":   "Hyndman-Fan type 9: normal-unbiased, p = (k - 3/8)/(n + 1/4)",
-	"tukey": "Tukey's hinges (quartiles only; other percentiles by type 7)",
+// quantileNames are the plain names shown beside each definition (a
+// switch, not a map: nothing to build at start).
+func quantileNames(code string) string {
+	switch code {
+	case "hf1":
+		return "Hyndman-Fan type 1: inverse of the empirical distribution function"
+	case "hf2":
+		return "Hyndman-Fan type 2: inverse of the empirical distribution function, averaged at discontinuities"
+	case "hf3":
+		return "Hyndman-Fan type 3: nearest even order statistic"
+	case "hf4":
+		return "Hyndman-Fan type 4: linear interpolation of the empirical distribution function, p = k/n"
+	case "hf5":
+		return "Hyndman-Fan type 5: piecewise linear, p = (k - 1/2)/n"
+	case "hf6":
+		return "Hyndman-Fan type 6: p = k/(n + 1)"
+	case "hf7":
+		return "Hyndman-Fan type 7: p = (k - 1)/(n - 1)"
+	case "hf8":
+		return "Hyndman-Fan type 8: median-unbiased, p = (k - 1/3)/(n + 1/3)"
+	case "hf9":
+		return "Hyndman-Fan type 9: normal-unbiased, p = (k - 3/8)/(n + 1/4)"
+	case "tukey":
+		return "Tukey's hinges (quartiles only; other percentiles by type 7)"
+	}
+	return ""
 }
 
 // quantileName is the plain name of a quantile definition.
-func (w words) quantileName(code string) string { return quantileNames[code] }
+func (w words) quantileName(code string) string { return quantileNames(code) }
 
 // quartileCaption names the definition behind the quartile-based figures
 // (IQR, fences, box plot) of a report.
 func (w words) quartileCaption(code string) string {
-	return "quartiles by " + code + " (" + quantileNames[code] + ")"
+	return "quartiles by " + code + " (" + quantileNames(code) + ")"
 }
 
 // quantileMedian: the quantile section's median (under code) differs from
@@ -540,27 +554,38 @@ func (w words) shapeConstant() string {
 	return "Shape statistics are not defined: all values are equal."
 }
 
-// shapeSubjects name the figure of each shape note's field.
-var shapeSubjects = map[string]string{
-	"shape.skewness":        "The skewness",
-	"shape.skewness.test":   "The skewness test",
-	"shape.kurtosis":        "The kurtosis",
-	"shape.kurtosis.test":   "The kurtosis test",
-	"shape.omnibus":         "The K² omnibus test",
-	"shape.shapiroWilk":     "Shapiro-Wilk",
-	"shape.andersonDarling": "Anderson-Darling",
+// shapeSubjects name the figure of each shape note's field (a switch, not
+// a map: nothing to build at start).
+func shapeSubjects(field string) string {
+	switch field {
+	case "shape.skewness":
+		return "The skewness"
+	case "shape.skewness.test":
+		return "The skewness test"
+	case "shape.kurtosis":
+		return "The kurtosis"
+	case "shape.kurtosis.test":
+		return "The kurtosis test"
+	case "shape.omnibus":
+		return "The K² omnibus test"
+	case "shape.shapiroWilk":
+		return "Shapiro-Wilk"
+	case "shape.andersonDarling":
+		return "Anderson-Darling"
+	}
+	return ""
 }
 
 // notComputed: the figure at field (a key of shapeSubjects) could not be
 // computed for these values.
 func (w words) notComputed(field string) string {
-	return shapeSubjects[field] + " could not be computed for these values."
+	return shapeSubjects(field) + " could not be computed for these values."
 }
 
 // needsN: the figure at field (a key of shapeSubjects) needs at least min
 // values; there are n.
 func (w words) needsN(field string, min, n int) string {
-	return fmt.Sprintf("%s needs at least %d values; there are %d.", shapeSubjects[field], min, n)
+	return fmt.Sprintf("%s needs at least %d values; there are %d.", shapeSubjects(field), min, n)
 }
 
 func (w words) noLargeTest() string {

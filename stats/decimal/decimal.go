@@ -39,15 +39,10 @@ const MaxScale = 22
 // MaxMantissa bounds |m| on a grid: 2^51.
 const MaxMantissa = 1 << 51
 
-var pow10 = func() [MaxScale + 1]float64 {
-	var t [MaxScale + 1]float64
-	p := 1.0
-	for i := range t {
-		t[i] = p
-		p *= 10
-	}
-	return t
-}()
+// pow10 holds 10^0 .. 10^MaxScale, each exact in float64; written out so
+// that the compiler lays it out and nothing runs at start.
+var pow10 = [MaxScale + 1]float64{1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10,
+	1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22}
 
 // Pow10 is 10^d as a float64 (exact) for 0 <= d <= MaxScale.
 func Pow10(d int) float64 { return pow10[d] }

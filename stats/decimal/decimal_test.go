@@ -161,3 +161,15 @@ func TestAppendPlaces(t *testing.T) {
 		}
 	}
 }
+
+// The written-out powers of ten are the exact ones: each equals the
+// float64 that strconv reads from "1e<d>" (correctly rounded, and exact up
+// to 1e22; definition), and none was left out of the literal.
+func TestPow10Table(t *testing.T) {
+	for d := 0; d <= MaxScale; d++ {
+		want, err := strconv.ParseFloat("1e"+strconv.Itoa(d), 64)
+		if err != nil || Pow10(d) != want {
+			t.Errorf("Pow10(%d) = %g, want %g (%v)", d, Pow10(d), want, err)
+		}
+	}
+}

@@ -4,6 +4,7 @@ import (
 	"math"
 	"strconv"
 	"strings"
+	"sync"
 	"unicode/utf8"
 	"unsafe"
 )
@@ -420,8 +421,11 @@ func missingToken(s string) (reason string, ok bool) {
 }
 
 // knownUnits lists units accepted after a number or in a header after '/'.
-// Keys are lower case; the value is the spelling reported.
-var knownUnits = func() map[string]string {
+// Keys are lower case; the value is the spelling reported. Built on first
+// use, not at start: the engine says "ready" sooner (package inits run
+// before the worker's first message, and in the browser this map cost
+// 4-12 ms there).
+var knownUnits = sync.OnceValue(func() map[string]string {
 	m := map[string]string{}
 	for _, u := range strings.Fields(`g kg mg µg μg ug t lb lbs oz ct gr
 		mm cm dm m km µm μm um nm in ft yd mil thou
@@ -443,14 +447,14 @@ var knownUnits = func() map[string]string {
 		m[strings.ToLower(u)] = u
 	}
 	return m
-}()
+})
 
 // unitOf accepts a known unit (case-insensitive) and returns it as typed.
 func unitOf(s string) (string, bool) {
 	if len(s) > 12 {
 		return "", false
 	}
-	if _, ok := knownUnits[strings.ToLower(s)]; ok {
+	if _, ok := knownUnits()[strings.ToLower(s)]; ok {
 		return s, true
 	}
 	return "", false

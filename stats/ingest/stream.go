@@ -814,7 +814,8 @@ func strictMixed(s string, mark byte) bool {
 }
 
 func sameUnit(a, b string) bool {
-	la, lb := knownUnits[strings.ToLower(a)], knownUnits[strings.ToLower(b)]
+	units := knownUnits()
+	la, lb := units[strings.ToLower(a)], units[strings.ToLower(b)]
 	return a == b || (la != "" && la == lb)
 }
 

@@ -37,8 +37,9 @@ type ChartConstants struct {
 // range of 10⁵ normals is far inside the integration interval).
 const ctlMaxN = 100000
 
+// ctlConstCache is made on first use, not at start.
 var (
-	ctlConstCache = map[int]ChartConstants{}
+	ctlConstCache map[int]ChartConstants
 	ctlConstMu    sync.Mutex
 )
 
@@ -69,12 +70,15 @@ func Constants(n int) (ChartConstants, error) {
 	if ok {
 		return c, nil
 	}
-	if sd, ok := ctlSeed[n]; ok {
+	if sd, ok := ctlSeedOf(n); ok {
 		c = ctlConstantsOf(n, sd[0], sd[1], sd[2])
 	} else {
 		c = ctlComputeConstants(n)
 	}
 	ctlConstMu.Lock()
+	if ctlConstCache == nil {
+		ctlConstCache = map[int]ChartConstants{}
+	}
 	ctlConstCache[n] = c
 	ctlConstMu.Unlock()
 	return c, nil
@@ -87,11 +91,26 @@ func Constants(n int) (ChartConstants, error) {
 // the largest single cost of a first analysis in the browser (a fifth of
 // it in Node's WebAssembly). TestConstantsSeed recomputes each one, bit for
 // bit: the seed cannot go stale.
-var ctlSeed = map[int][3]float64{
-	2: {1.1283791670955123, 0.8525024664274177, 0.9538725524089399},
-	3: {1.6925687506432694, 0.8883680040451981, 1.587787750446347},
-	4: {2.0587507460079286, 0.8798082028249812, 1.9783204855397127},
-	5: {2.3259289472810387, 0.8640819410995016, 2.2568824930261933},
+// It is a list, laid out by the compiler, so that nothing runs at start;
+// ctlSeedOf looks a size up.
+var ctlSeed = [...]struct {
+	n int
+	d [3]float64 // d2, d3, d4
+}{
+	{2, [3]float64{1.1283791670955123, 0.8525024664274177, 0.9538725524089399}},
+	{3, [3]float64{1.6925687506432694, 0.8883680040451981, 1.587787750446347}},
+	{4, [3]float64{2.0587507460079286, 0.8798082028249812, 1.9783204855397127}},
+	{5, [3]float64{2.3259289472810387, 0.8640819410995016, 2.2568824930261933}},
+}
+
+// ctlSeedOf returns the seeded d2, d3 and d4 for subgroups of n, if any.
+func ctlSeedOf(n int) ([3]float64, bool) {
+	for _, s := range ctlSeed {
+		if s.n == n {
+			return s.d, true
+		}
+	}
+	return [3]float64{}, false
 }
 
 func ctlComputeConstants(n int) ChartConstants {
@@ -140,11 +159,12 @@ func C4(n int) float64 {
 	return math.Sqrt(2/float64(n-1)) * math.Exp(a-b)
 }
 
-// ctlGL holds the 20-point Gauss-Legendre nodes and weights on [-1, 1].
-var ctlGL = func() (r struct{ x, w [20]float64 }) {
+// ctlGL gives the 20-point Gauss-Legendre nodes and weights on [-1, 1],
+// computed on first use (not at start).
+var ctlGL = sync.OnceValue(func() (r struct{ x, w [20]float64 }) {
 	quad.Legendre{}.FixedLocations(r.x[:], r.w[:], -1, 1)
 	return r
-}()
+})
 
 // ctlPanels integrates f over [a, b] by the 20-point rule on panels of
 // width at most 1 (the integrands vary on the scale of the normal density).
@@ -158,12 +178,13 @@ func ctlPanels(f func(float64) float64, a, b float64) float64 {
 	}
 	h := (b - a) / float64(np)
 	s := 0.0
+	gl := ctlGL()
 	for p := 0; p < np; p++ {
 		lo := a + float64(p)*h
 		mid, half := lo+h/2, h/2
 		ps := 0.0
-		for k := range ctlGL.x {
-			ps += ctlGL.w[k] * f(mid+half*ctlGL.x[k])
+		for k := range gl.x {
+			ps += gl.w[k] * f(mid+half*gl.x[k])
 		}
 		s += ps * half
 	}

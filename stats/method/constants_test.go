@@ -204,7 +204,8 @@ func TestConstantsSeed(t *testing.T) {
 		t.Fatal("no seed")
 	}
 	exact := runtime.GOARCH == "amd64"
-	for n, sd := range ctlSeed {
+	for _, s := range ctlSeed {
+		n, sd := s.n, s.d
 		want := ctlComputeConstants(n)
 		got := ctlConstantsOf(n, sd[0], sd[1], sd[2])
 		if c, err := Constants(n); err != nil || c != got {

@@ -3,6 +3,7 @@ package method
 import (
 	"errors"
 	"math"
+	"sync"
 )
 
 // The studentized range distribution: the range of k independent standard
@@ -24,7 +25,8 @@ var errGrpTukeyArgs = errors.New("method: studentized range needs k >= 2 groups,
 // grpLegendre returns the non-negative nodes (descending) and weights of
 // the n-point Gauss-Legendre rule on [-1, 1], n even, by Newton's method
 // on the Legendre polynomial (the classical construction, as in Golub and
-// Welsch 1969's reference values). Computed once at start-up.
+// Welsch 1969's reference values). Computed on first use (grpLeg12,
+// grpLeg16), not at start.
 func grpLegendre(n int) (x, w []float64) {
 	h := n / 2
 	x = make([]float64, h)
@@ -56,9 +58,12 @@ func grpLegendre(n int) (x, w []float64) {
 	return x, w
 }
 
+// grpRule is a Gauss-Legendre rule from grpLegendre.
+type grpRule struct{ x, w []float64 }
+
 var (
-	grpLeg12x, grpLeg12w = grpLegendre(12)
-	grpLeg16x, grpLeg16w = grpLegendre(16)
+	grpLeg12 = sync.OnceValue(func() grpRule { x, w := grpLegendre(12); return grpRule{x, w} })
+	grpLeg16 = sync.OnceValue(func() grpRule { x, w := grpLegendre(16); return grpRule{x, w} })
 )
 
 func grpPhi(x float64) float64 { return 0.5 * math.Erfc(-x/math.Sqrt2) }
@@ -93,6 +98,8 @@ func grpWProb(w, cc float64) float64 {
 	bub := blb + binc
 	einsum := 0.0
 	cc1 := cc - 1
+	leg := grpLeg12()
+	grpLeg12x, grpLeg12w := leg.x, leg.w
 	for wi := 1.0; wi <= wincr; wi++ {
 		elsum := 0.0
 		a := 0.5 * (bub + blb)
@@ -171,6 +178,8 @@ func PTukey(q float64, k int, df float64) (float64, error) {
 	f2lf += math.Log(ulen)
 	ans := 0.0
 	otsum := 0.0
+	leg := grpLeg16()
+	grpLeg16x, grpLeg16w := leg.x, leg.w
 	for i := 1; i <= 50; i++ {
 		otsum = 0
 		twa1 := float64(2*i-1) * ulen

@@ -100,7 +100,7 @@ func TestGrpLegendre(t *testing.T) {
 	for _, r := range []struct {
 		n    int
 		x, w []float64
-	}{{12, grpLeg12x, grpLeg12w}, {16, grpLeg16x, grpLeg16w}} {
+	}{{12, grpLeg12().x, grpLeg12().w}, {16, grpLeg16().x, grpLeg16().w}} {
 		for d := 0; d < 2*r.n; d += 2 {
 			s := 0.0
 			for i := range r.x {

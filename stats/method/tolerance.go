@@ -2,6 +2,7 @@ package method
 
 import (
 	"math"
+	"sync"
 
 	"gonum.org/v1/gonum/integrate/quad"
 	"gonum.org/v1/gonum/mathext"
@@ -62,12 +63,13 @@ func NormalToleranceFactors(n int, df, coverage, confidence float64) (NormalTole
 	return r, nil
 }
 
-// tolNodes are Gauss-Legendre nodes and weights on [0, 1] (gonum quad).
-var tolNodes, tolWeights = func() ([]float64, []float64) {
-	x, w := make([]float64, 24), make([]float64, 24)
-	quad.Legendre{}.FixedLocations(x, w, 0, 1)
-	return x, w
-}()
+// tolRule gives Gauss-Legendre nodes and weights on [0, 1] (gonum quad),
+// computed on first use (not at start).
+var tolRule = sync.OnceValue(func() (r struct{ x, w []float64 }) {
+	r.x, r.w = make([]float64, 24), make([]float64, 24)
+	quad.Legendre{}.FixedLocations(r.x, r.w, 0, 1)
+	return r
+})
 
 // tolTwoSidedExact solves the Odeh-Owen integral for k (see
 // NormalToleranceFactors). The substitution u = x√n makes the weight
@@ -75,6 +77,8 @@ var tolNodes, tolWeights = func() ([]float64, []float64) {
 // (the integrand's tail beyond 12 is below e^-72).
 func tolTwoSidedExact(n, df, p, conf, guess float64) float64 {
 	const panels, width = 48, 0.25
+	rule := tolRule()
+	tolNodes, tolWeights := rule.x, rule.w
 	m := panels * len(tolNodes)
 	r2 := make([]float64, m) // ν r(x)², independent of k
 	wt := make([]float64, m) // quadrature weight × √(2/π) e^(-u²/2)

@@ -24,13 +24,10 @@ const maxDigits = 18
 // valueLimit bounds scaled values so that any difference of two fits an int64.
 const valueLimit = 1 << 62
 
-var pow10 = func() (p [maxDigits + 1]int64) {
-	p[0] = 1
-	for i := 1; i < len(p); i++ {
-		p[i] = p[i-1] * 10
-	}
-	return
-}()
+// pow10 holds 10^0 .. 10^maxDigits, written out so that the compiler lays
+// it out and nothing runs at start.
+var pow10 = [maxDigits + 1]int64{1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10,
+	1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18}
 
 // Line ends.
 const (
