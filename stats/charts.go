@@ -265,6 +265,18 @@ func series(cv *colView, excl map[int32]bool, n int) ([]SeriesPt, bool) {
 	if cv.seq != nil {
 		m = len(cv.seq)
 	}
+	if excl == nil {
+		// the block's readings in a loop without calls (in WebAssembly a
+		// loop in a long function with calls costs several times more)
+		for j := 0; j < m; {
+			flush()
+			blk := int(int64(k) * int64(blocks) / int64(n))
+			end = int((int64(blk+1)*int64(n) + int64(blocks) - 1) / int64(blocks))
+			j, k, lo, hi, klo, khi = seriesBlock(cv.vals, cv.seq, j, k, end)
+		}
+		flush()
+		return out, true
+	}
 	for j := 0; j < m; j++ {
 		i := j
 		if cv.seq != nil {
@@ -291,6 +303,42 @@ func series(cv *colView, excl map[int32]bool, n int) ([]SeriesPt, bool) {
 	}
 	flush()
 	return out, true
+}
+
+// seriesBlock scans the cells from position j (of seq, or the cells
+// themselves when seq is nil) until k, counting the finite readings, reaches
+// end or the cells run out: it returns where it stopped and the cells and
+// counts of the block's first lowest and first highest reading (lo < 0 for
+// none).
+func seriesBlock(vals []float64, seq []int32, j, k, end int) (next, nextK, lo, hi, klo, khi int) {
+	lo, hi = -1, -1
+	ylo, yhi := 0.0, 0.0
+	m := len(vals)
+	if seq != nil {
+		m = len(seq)
+	}
+	for ; j < m && k < end; j++ {
+		i := j
+		if seq != nil {
+			i = int(seq[j])
+		}
+		x := vals[i]
+		if x != x || math.IsInf(x, 0) {
+			continue
+		}
+		if lo < 0 {
+			lo, hi, klo, khi, ylo, yhi = i, i, k, k, x, x
+		} else {
+			if x < ylo {
+				lo, klo, ylo = i, k, x
+			}
+			if x > yhi {
+				hi, khi, yhi = i, k, x
+			}
+		}
+		k++
+	}
+	return j, k, lo, hi, klo, khi
 }
 
 // inOrder yields the cell indices in the order of the series over time.

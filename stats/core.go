@@ -34,7 +34,16 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	maxD := int8(0)
 	allFixed := true
 	found := map[int32]bool{}
-	for i, x := range vals {
+	for i := 0; i < len(vals); i++ {
+		if excl == nil {
+			// the finite readings up to the next infinite one, in a loop
+			// without calls (WebAssembly runs it several times faster)
+			i, xs, maxD, allFixed, onGrid = finiteReadings(vals, dec, i, xs, maxD, allFixed, onGrid)
+			if i == len(vals) {
+				break
+			}
+		}
+		x := vals[i]
 		if x != x {
 			continue
 		}
@@ -193,6 +202,33 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	verdict(rep, w, opts, n, s.constant, maxRun, distinct, step, inner, outer, restSkewOf(s))
 	decimalMarkWarnings(rep, w, cv, n)
 	guardFinite(rep)
+}
+
+// finiteReadings appends to xs the finite readings of vals from cell i on,
+// up to the first infinite one (returned, or len(vals)), and updates with
+// their decimals dec the most decimals, whether all were fixed and whether
+// all are plain decimals held exactly, as analyzeColumn's loop does for
+// each. xs has room for every cell.
+func finiteReadings(vals []float64, dec []int8, i int, xs []float64, maxD int8, allFixed, onGrid bool) (int, []float64, int8, bool, bool) {
+	dec = dec[:len(vals)]
+	for ; i < len(vals); i++ {
+		x := vals[i]
+		if x-x != 0 { // not finite
+			if x == x {
+				break // infinite: the caller reports it
+			}
+			continue
+		}
+		xs = xs[:len(xs)+1]
+		xs[len(xs)-1] = x
+		d := dec[i]
+		allFixed = allFixed && d >= 0
+		maxD = max(maxD, d)
+		if onGrid {
+			_, onGrid = decimal.Mantissa(x, int(d))
+		}
+	}
+	return i, xs, maxD, allFixed, onGrid
 }
 
 // maxChartPoints bounds the points of each chart series in a report. A
