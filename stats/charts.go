@@ -311,30 +311,38 @@ func series(cv *colView, excl map[int32]bool, n int) ([]SeriesPt, bool) {
 // counts of the block's first lowest and first highest reading (lo < 0 for
 // none).
 func seriesBlock(vals []float64, seq []int32, j, k, end int) (next, nextK, lo, hi, klo, khi int) {
+	// few branches per cell: each costs a jump through a table in
+	// WebAssembly; x-x != 0 is true for NaN and the infinities, and the
+	// first finite reading is below +Inf and above -Inf
 	lo, hi = -1, -1
-	ylo, yhi := 0.0, 0.0
-	m := len(vals)
-	if seq != nil {
-		m = len(seq)
-	}
-	for ; j < m && k < end; j++ {
-		i := j
-		if seq != nil {
-			i = int(seq[j])
-		}
-		x := vals[i]
-		if x != x || math.IsInf(x, 0) {
-			continue
-		}
-		if lo < 0 {
-			lo, hi, klo, khi, ylo, yhi = i, i, k, k, x, x
-		} else {
+	ylo, yhi := math.Inf(1), math.Inf(-1)
+	if seq == nil {
+		for ; j < len(vals) && k < end; j++ {
+			x := vals[j]
+			if x-x != 0 {
+				continue
+			}
 			if x < ylo {
-				lo, klo, ylo = i, k, x
+				lo, klo, ylo = j, k, x
 			}
 			if x > yhi {
-				hi, khi, yhi = i, k, x
+				hi, khi, yhi = j, k, x
 			}
+			k++
+		}
+		return j, k, lo, hi, klo, khi
+	}
+	for ; j < len(seq) && k < end; j++ {
+		i := int(seq[j])
+		x := vals[i]
+		if x-x != 0 {
+			continue
+		}
+		if x < ylo {
+			lo, klo, ylo = i, k, x
+		}
+		if x > yhi {
+			hi, khi, yhi = i, k, x
 		}
 		k++
 	}

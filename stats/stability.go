@@ -1614,8 +1614,8 @@ func (b *stabBuild) spreadAndBlocks(x []float64, up float64, on bool) {
 		if !on {
 			return
 		}
-		for j := max(lo, 1); j < hi; j++ {
-			if math.Abs(x[j]-x[j-1]) > cut && b.diff(j, j-1) > up {
+		for j := wideStep(x, max(lo, 1), hi, cut); j < hi; j = wideStep(x, j+1, hi, cut) {
+			if b.diff(j, j-1) > up {
 				b.addSignal(sigSpread, 0, j-1, j, nil)
 			}
 		}
@@ -1632,8 +1632,26 @@ func (b *stabBuild) spreadAndBlocks(x []float64, up float64, on bool) {
 	}
 }
 
+// wideStep returns the first j in [from, to) (from >= 1) whose moving
+// range |x[j] − x[j−1]| is above cut, or to. It and blockMinMax are kept
+// out of line: in WebAssembly a loop in a small function of its own runs
+// faster than the same loop inlined into a long function that calls.
+//
+//go:noinline
+func wideStep(x []float64, from, to int, cut float64) int {
+	x = x[:to]
+	for j := from; j < len(x); j++ {
+		if math.Abs(x[j]-x[j-1]) > cut {
+			return j
+		}
+	}
+	return to
+}
+
 // blockMinMax gives the positions of the first lowest and the first
 // highest of ys (not empty).
+//
+//go:noinline
 func blockMinMax(ys []float64) (lo, hi int) {
 	ylo, yhi := ys[0], ys[0]
 	for p, v := range ys {
