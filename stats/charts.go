@@ -317,18 +317,22 @@ func seriesBlock(vals []float64, seq []int32, j, k, end int) (next, nextK, lo, h
 	lo, hi = -1, -1
 	ylo, yhi := math.Inf(1), math.Inf(-1)
 	if seq == nil {
-		for ; j < len(vals) && k < end; j++ {
-			x := vals[j]
-			if x-x != 0 {
-				continue
+		for j < len(vals) && k < end {
+			// at most end-k finite readings among the next end-k cells
+			stop := min(len(vals), j+end-k)
+			for p, x := range vals[j:stop] {
+				if x-x != 0 {
+					continue
+				}
+				if x < ylo {
+					lo, klo, ylo = j+p, k, x
+				}
+				if x > yhi {
+					hi, khi, yhi = j+p, k, x
+				}
+				k++
 			}
-			if x < ylo {
-				lo, klo, ylo = j, k, x
-			}
-			if x > yhi {
-				hi, khi, yhi = j, k, x
-			}
-			k++
+			j = stop
 		}
 		return j, k, lo, hi, klo, khi
 	}
