@@ -3,6 +3,7 @@ package stats
 import (
 	"iter"
 	"math"
+	"sort"
 
 	"lotlens/stats/method"
 )
@@ -156,17 +157,20 @@ func histogram(sorted []float64, iqr, step float64) Histogram {
 }
 
 // binCounts counts the sorted values in the bins of edges (the last bin
-// holds its upper edge): one walk over the edges.
+// holds its upper edge): a value moves past edge j when it is at least
+// edges[j], so the values of bin j−1 end at the first value from there
+// on that is at least edges[j], found by bisection (a search per edge,
+// not a step per value).
 func binCounts(sorted []float64, edges []float64) []int {
 	k := len(edges) - 1
 	counts := make([]int, k)
-	b := 0
-	for _, x := range sorted {
-		for b < k-1 && x >= edges[b+1] {
-			b++
-		}
-		counts[b]++
+	pos := 0
+	for j := 1; j < k; j++ {
+		next := pos + sort.SearchFloat64s(sorted[pos:], edges[j])
+		counts[j-1] = next - pos
+		pos = next
 	}
+	counts[k-1] = len(sorted) - pos
 	return counts
 }
 

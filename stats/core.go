@@ -247,19 +247,15 @@ func modes(c *Centre, w words, sorted []float64, maxRun int, cv *colView) {
 	const maxListed = 10
 	tied := 0
 	var vals []float64
-	run := 1
-	for i := 1; i <= len(sorted); i++ {
-		if i < len(sorted) && sorted[i] == sorted[i-1] {
-			run++
-			continue
-		}
-		if run == maxRun {
+	for i := 0; i < len(sorted); {
+		j := runEnd(sorted, i)
+		if j-i == maxRun {
 			tied++
 			if len(vals) < maxListed {
-				vals = append(vals, sorted[i-1])
+				vals = append(vals, sorted[j-1])
 			}
 		}
-		run = 1
+		i = j
 	}
 	texts := textsOf(w, vals, cv)
 	for k, v := range vals {
@@ -532,15 +528,33 @@ func prepareSample(xs []float64, grid decimal.Grid, code string) (s *sample, ps 
 // runs counts the distinct values of sorted data and the longest run of
 // one value (1 for empty data).
 func runs(sorted []float64) (distinct, maxRun int) {
-	distinct, maxRun = 1, 1
-	run := 1
-	for i := 1; i < len(sorted); i++ {
-		if sorted[i] != sorted[i-1] {
-			distinct++
-			run = 1
-		} else if run++; run > maxRun {
-			maxRun = run
-		}
+	if len(sorted) == 0 {
+		return 1, 1
+	}
+	distinct, maxRun = 0, 1
+	for i := 0; i < len(sorted); {
+		j := runEnd(sorted, i)
+		distinct++
+		maxRun = max(maxRun, j-i)
+		i = j
 	}
 	return distinct, maxRun
+}
+
+// runEnd returns the end (exclusive) of the run of values equal to
+// sorted[i] in ascending data: a run of one costs one comparison, a long
+// run (readings to a few decimals repeat) a few, by doubling steps and
+// bisection, not one per value.
+func runEnd(sorted []float64, i int) int {
+	v := sorted[i]
+	if i+1 >= len(sorted) || sorted[i+1] != v {
+		return i + 1
+	}
+	// sorted[a] == v; b past it, doubling its distance from i
+	a, b := i+1, i+2
+	for b < len(sorted) && sorted[b] == v {
+		a, b = b, i+2*(b-i)
+	}
+	b = min(b, len(sorted))
+	return a + 1 + sort.Search(b-a-1, func(k int) bool { return sorted[a+1+k] != v })
 }
