@@ -248,7 +248,7 @@ func modes(c *Centre, w words, sorted []float64, maxRun int, cv *colView) {
 	tied := 0
 	var vals []float64
 	for i := 0; i < len(sorted); {
-		j := runEnd(sorted, i)
+		j := decimal.RunEnd(sorted, i)
 		if j-i == maxRun {
 			tied++
 			if len(vals) < maxListed {
@@ -533,28 +533,10 @@ func runs(sorted []float64) (distinct, maxRun int) {
 	}
 	distinct, maxRun = 0, 1
 	for i := 0; i < len(sorted); {
-		j := runEnd(sorted, i)
+		j := decimal.RunEnd(sorted, i)
 		distinct++
 		maxRun = max(maxRun, j-i)
 		i = j
 	}
 	return distinct, maxRun
-}
-
-// runEnd returns the end (exclusive) of the run of values equal to
-// sorted[i] in ascending data: a run of one costs one comparison, a long
-// run (readings to a few decimals repeat) a few, by doubling steps and
-// bisection, not one per value.
-func runEnd(sorted []float64, i int) int {
-	v := sorted[i]
-	if i+1 >= len(sorted) || sorted[i+1] != v {
-		return i + 1
-	}
-	// sorted[a] == v; b past it, doubling its distance from i
-	a, b := i+1, i+2
-	for b < len(sorted) && sorted[b] == v {
-		a, b = b, i+2*(b-i)
-	}
-	b = min(b, len(sorted))
-	return a + 1 + sort.Search(b-a-1, func(k int) bool { return sorted[a+1+k] != v })
 }

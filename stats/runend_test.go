@@ -5,10 +5,12 @@ import (
 	"math/rand/v2"
 	"slices"
 	"testing"
+
+	"lotlens/stats/decimal"
 )
 
 // runsWalk is runs as first written (a comparison per value), the
-// reference for the galloping runEnd; bounds lists where each run ends.
+// reference for the galloping decimal.RunEnd; bounds lists where each run ends.
 func runsWalk(sorted []float64) (distinct, maxRun int, bounds []int) {
 	distinct, maxRun = 1, 1
 	run := 1
@@ -27,7 +29,7 @@ func runsWalk(sorted []float64) (distinct, maxRun int, bounds []int) {
 	return distinct, maxRun, bounds
 }
 
-// runs and runEnd give the walk's counts and run ends on sorted data
+// runs and decimal.RunEnd give the walk's counts and run ends on sorted data
 // with runs of every length from 1 to a few hundred, zeros of both signs,
 // and empty data.
 func TestRunEndWalk(t *testing.T) {
@@ -51,8 +53,13 @@ func TestRunEndWalk(t *testing.T) {
 		d, m := runs(x)
 		var bounds []int
 		for i := 0; i < len(x); {
-			i = runEnd(x, i)
+			i = decimal.RunEnd(x, i)
 			bounds = append(bounds, i)
+		}
+		for i := range x {
+			if s := decimal.RunStart(x, i); (s > 0 && x[s-1] == x[i]) || slices.ContainsFunc(x[s:i], func(v float64) bool { return v != x[i] }) {
+				t.Fatalf("trial %d: %v: run of %d starts at %d", trial, x, i, s)
+			}
 		}
 		if d != wd || m != wm || !slices.Equal(bounds, wb) {
 			t.Fatalf("trial %d: %v: runs %d %d ends %v, want %d %d %v", trial, x, d, m, bounds, wd, wm, wb)
