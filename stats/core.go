@@ -70,6 +70,12 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 			_, onGrid = decimal.Mantissa(x, int(d))
 		}
 	}
+	if excl == nil { // every finite cell was kept
+		cv.finite = -1
+		if len(xs) == len(vals) {
+			cv.finite = 1
+		}
+	}
 	for r := range excl {
 		if !found[r] {
 			rep.Notes = append(rep.Notes, Note{Field: "settings.excluded", Text: w.excludeNoNumber(int(r), cv.name)})
