@@ -37,10 +37,14 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	for i := 0; i < len(vals); i++ {
 		if excl == nil {
 			// the finite readings up to the next infinite one, in a loop
-			// without calls (WebAssembly runs it several times faster)
-			i, xs, maxD, allFixed, onGrid = finiteReadings(vals, dec, i, xs, maxD, allFixed, onGrid)
-			if i == len(vals) {
-				break
+			// without calls (WebAssembly runs it several times faster),
+			// a slice of cells at a time: V8 first runs a wasm function
+			// unoptimised and swaps in the optimised code between calls
+			end := min(len(vals), i+finiteSlice)
+			i, xs, maxD, allFixed, onGrid = finiteReadings(vals[:end], dec, i, xs, maxD, allFixed, onGrid)
+			if i == end { // no infinite reading in the slice: the next
+				i--
+				continue
 			}
 		}
 		x := vals[i]
@@ -209,6 +213,9 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	decimalMarkWarnings(rep, w, cv, n)
 	guardFinite(rep)
 }
+
+// finiteSlice is the most cells finiteReadings takes in one call.
+const finiteSlice = 1 << 14
 
 // finiteReadings appends to xs the finite readings of vals from cell i on,
 // up to the first infinite one (returned, or len(vals)), and updates with

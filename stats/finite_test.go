@@ -35,8 +35,8 @@ func finiteRef(vals []float64, dec []int8) (xs []float64, infs []int, maxD int8,
 	return
 }
 
-// finiteReadings, called as analyzeColumn calls it (again after each
-// infinite reading), gives the reference's readings and flags on random
+// finiteReadings, called as analyzeColumn calls it (a slice of cells at a
+// time, again after each infinite reading), gives the reference's readings and flags on random
 // cells: missing, infinite, decimals from none (-1) to 8, values on and
 // off their decimals.
 func TestFiniteReadingsRef(t *testing.T) {
@@ -70,11 +70,15 @@ func TestFiniteReadingsRef(t *testing.T) {
 		xs := make([]float64, 0, n)
 		var infs []int
 		maxD, allFixed, onGrid := int8(0), true, true
+		slice := 1 + r.IntN(9) // as finiteSlice, smaller
 		for i := 0; i < n; i++ {
-			i, xs, maxD, allFixed, onGrid = finiteReadings(vals, dec, i, xs, maxD, allFixed, onGrid)
-			if i < n {
-				infs = append(infs, i)
+			end := min(n, i+slice)
+			i, xs, maxD, allFixed, onGrid = finiteReadings(vals[:end], dec, i, xs, maxD, allFixed, onGrid)
+			if i == end {
+				i--
+				continue
 			}
+			infs = append(infs, i)
 		}
 		if !slices.Equal(xs, wantX) || !slices.Equal(infs, wantInf) || maxD != wantD || allFixed != wantFixed || onGrid != wantGrid {
 			t.Fatalf("trial %d: got %v %v %d %v %v, want %v %v %d %v %v", trial, xs, infs, maxD, allFixed, onGrid, wantX, wantInf, wantD, wantFixed, wantGrid)
