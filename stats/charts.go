@@ -276,7 +276,14 @@ func series(cv *colView, excl map[int32]bool, n int) ([]SeriesPt, bool) {
 			flush()
 			blk := int(int64(k) * int64(blocks) / int64(n))
 			end = int((int64(blk+1)*int64(n) + int64(blocks) - 1) / int64(blocks))
-			j, k, lo, hi, klo, khi = seriesBlock(cv.vals, cv.seq, j, k, end)
+			if cv.finite > 0 && cv.seq == nil {
+				// every cell a reading: reading k is cell k
+				lo, hi = blockMinMax(cv.vals[j:end])
+				lo, hi = lo+j, hi+j
+				klo, khi, j, k = lo, hi, end, end
+			} else {
+				j, k, lo, hi, klo, khi = seriesBlock(cv.vals, cv.seq, j, k, end)
+			}
 		}
 		flush()
 		return out, true
