@@ -181,6 +181,9 @@ type colView struct {
 	// a groups section.
 	group *ingest.Column
 	wide  []*ingest.Column
+	// finite is 1 when every cell of vals is a finite number, -1 when
+	// not, 0 while not known (analyzeColumn's first pass sets it)
+	finite int8
 }
 
 // maxIncompleteListed bounds the incomplete rows listed per optional column.

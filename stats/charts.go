@@ -3,6 +3,7 @@ package stats
 import (
 	"iter"
 	"math"
+	"sort"
 
 	"lotlens/stats/method"
 )
@@ -156,17 +157,20 @@ func histogram(sorted []float64, iqr, step float64) Histogram {
 }
 
 // binCounts counts the sorted values in the bins of edges (the last bin
-// holds its upper edge): one walk over the edges.
+// holds its upper edge): a value moves past edge j when it is at least
+// edges[j], so the values of bin j−1 end at the first value from there
+// on that is at least edges[j], found by bisection (a search per edge,
+// not a step per value).
 func binCounts(sorted []float64, edges []float64) []int {
 	k := len(edges) - 1
 	counts := make([]int, k)
-	b := 0
-	for _, x := range sorted {
-		for b < k-1 && x >= edges[b+1] {
-			b++
-		}
-		counts[b]++
+	pos := 0
+	for j := 1; j < k; j++ {
+		next := pos + sort.SearchFloat64s(sorted[pos:], edges[j])
+		counts[j-1] = next - pos
+		pos = next
 	}
+	counts[k-1] = len(sorted) - pos
 	return counts
 }
 
@@ -265,6 +269,25 @@ func series(cv *colView, excl map[int32]bool, n int) ([]SeriesPt, bool) {
 	if cv.seq != nil {
 		m = len(cv.seq)
 	}
+	if excl == nil {
+		// the block's readings in a loop without calls (in WebAssembly a
+		// loop in a long function with calls costs several times more)
+		for j := 0; j < m; {
+			flush()
+			blk := int(int64(k) * int64(blocks) / int64(n))
+			end = int((int64(blk+1)*int64(n) + int64(blocks) - 1) / int64(blocks))
+			if cv.finite > 0 && cv.seq == nil {
+				// every cell a reading: reading k is cell k
+				lo, hi = blockMinMax(cv.vals[j:end])
+				lo, hi = lo+j, hi+j
+				klo, khi, j, k = lo, hi, end, end
+			} else {
+				j, k, lo, hi, klo, khi = seriesBlock(cv.vals, cv.seq, j, k, end)
+			}
+		}
+		flush()
+		return out, true
+	}
 	for j := 0; j < m; j++ {
 		i := j
 		if cv.seq != nil {
@@ -291,6 +314,54 @@ func series(cv *colView, excl map[int32]bool, n int) ([]SeriesPt, bool) {
 	}
 	flush()
 	return out, true
+}
+
+// seriesBlock scans the cells from position j (of seq, or the cells
+// themselves when seq is nil) until k, counting the finite readings, reaches
+// end or the cells run out: it returns where it stopped and the cells and
+// counts of the block's first lowest and first highest reading (lo < 0 for
+// none).
+func seriesBlock(vals []float64, seq []int32, j, k, end int) (next, nextK, lo, hi, klo, khi int) {
+	// few branches per cell: each costs a jump through a table in
+	// WebAssembly; x-x != 0 is true for NaN and the infinities, and the
+	// first finite reading is below +Inf and above -Inf
+	lo, hi = -1, -1
+	ylo, yhi := math.Inf(1), math.Inf(-1)
+	if seq == nil {
+		for j < len(vals) && k < end {
+			// at most end-k finite readings among the next end-k cells
+			stop := min(len(vals), j+end-k)
+			for p, x := range vals[j:stop] {
+				if x-x != 0 {
+					continue
+				}
+				if x < ylo {
+					lo, klo, ylo = j+p, k, x
+				}
+				if x > yhi {
+					hi, khi, yhi = j+p, k, x
+				}
+				k++
+			}
+			j = stop
+		}
+		return j, k, lo, hi, klo, khi
+	}
+	for ; j < len(seq) && k < end; j++ {
+		i := int(seq[j])
+		x := vals[i]
+		if x-x != 0 {
+			continue
+		}
+		if x < ylo {
+			lo, klo, ylo = i, k, x
+		}
+		if x > yhi {
+			hi, khi, yhi = i, k, x
+		}
+		k++
+	}
+	return j, k, lo, hi, klo, khi
 }
 
 // inOrder yields the cell indices in the order of the series over time.

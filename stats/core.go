@@ -34,7 +34,20 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	maxD := int8(0)
 	allFixed := true
 	found := map[int32]bool{}
-	for i, x := range vals {
+	for i := 0; i < len(vals); i++ {
+		if excl == nil {
+			// the finite readings up to the next infinite one, in a loop
+			// without calls (WebAssembly runs it several times faster),
+			// a slice of cells at a time: V8 first runs a wasm function
+			// unoptimised and swaps in the optimised code between calls
+			end := min(len(vals), i+finiteSlice)
+			i, xs, maxD, allFixed, onGrid = finiteReadings(vals[:end], dec, i, xs, maxD, allFixed, onGrid)
+			if i == end { // no infinite reading in the slice: the next
+				i--
+				continue
+			}
+		}
+		x := vals[i]
 		if x != x {
 			continue
 		}
@@ -59,6 +72,12 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 		}
 		if onGrid {
 			_, onGrid = decimal.Mantissa(x, int(d))
+		}
+	}
+	if excl == nil { // every finite cell was kept
+		cv.finite = -1
+		if len(xs) == len(vals) {
+			cv.finite = 1
 		}
 	}
 	for r := range excl {
@@ -195,6 +214,36 @@ func analyzeColumn(rep *Report, cv *colView, opts Options) {
 	guardFinite(rep)
 }
 
+// finiteSlice is the most cells finiteReadings takes in one call.
+const finiteSlice = 1 << 14
+
+// finiteReadings appends to xs the finite readings of vals from cell i on,
+// up to the first infinite one (returned, or len(vals)), and updates with
+// their decimals dec the most decimals, whether all were fixed and whether
+// all are plain decimals held exactly, as analyzeColumn's loop does for
+// each. xs has room for every cell.
+func finiteReadings(vals []float64, dec []int8, i int, xs []float64, maxD int8, allFixed, onGrid bool) (int, []float64, int8, bool, bool) {
+	dec = dec[:len(vals)]
+	for ; i < len(vals); i++ {
+		x := vals[i]
+		if x-x != 0 { // not finite
+			if x == x {
+				break // infinite: the caller reports it
+			}
+			continue
+		}
+		xs = xs[:len(xs)+1]
+		xs[len(xs)-1] = x
+		d := dec[i]
+		allFixed = allFixed && d >= 0
+		maxD = max(maxD, d)
+		if onGrid {
+			_, onGrid = decimal.Mantissa(x, int(d))
+		}
+	}
+	return i, xs, maxD, allFixed, onGrid
+}
+
 // maxChartPoints bounds the points of each chart series in a report. A
 // chart's plot is about 560 units wide (stats/chart), so 600 blocks, each
 // drawn by its lowest and highest point, keep every peak and dip at the
@@ -211,19 +260,15 @@ func modes(c *Centre, w words, sorted []float64, maxRun int, cv *colView) {
 	const maxListed = 10
 	tied := 0
 	var vals []float64
-	run := 1
-	for i := 1; i <= len(sorted); i++ {
-		if i < len(sorted) && sorted[i] == sorted[i-1] {
-			run++
-			continue
-		}
-		if run == maxRun {
+	for i := 0; i < len(sorted); {
+		j := decimal.RunEnd(sorted, i)
+		if j-i == maxRun {
 			tied++
 			if len(vals) < maxListed {
-				vals = append(vals, sorted[i-1])
+				vals = append(vals, sorted[j-1])
 			}
 		}
-		run = 1
+		i = j
 	}
 	texts := textsOf(w, vals, cv)
 	for k, v := range vals {
@@ -496,15 +541,15 @@ func prepareSample(xs []float64, grid decimal.Grid, code string) (s *sample, ps 
 // runs counts the distinct values of sorted data and the longest run of
 // one value (1 for empty data).
 func runs(sorted []float64) (distinct, maxRun int) {
-	distinct, maxRun = 1, 1
-	run := 1
-	for i := 1; i < len(sorted); i++ {
-		if sorted[i] != sorted[i-1] {
-			distinct++
-			run = 1
-		} else if run++; run > maxRun {
-			maxRun = run
-		}
+	if len(sorted) == 0 {
+		return 1, 1
+	}
+	distinct, maxRun = 0, 1
+	for i := 0; i < len(sorted); {
+		j := decimal.RunEnd(sorted, i)
+		distinct++
+		maxRun = max(maxRun, j-i)
+		i = j
 	}
 	return distinct, maxRun
 }

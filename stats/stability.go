@@ -1362,15 +1362,7 @@ func (b *stabBuild) drift() {
 	// keys: mantissas (or their block sums) on the exact path, else the
 	// readings (or block means); toValue turns a key into a data value
 	if b.exact && size < 1024 { // block sums below 2^61
-		keys := make([]int64, blocks)
-		for k := range keys {
-			var sum int64
-			for _, x := range ws.series[k*size : (k+1)*size] {
-				sum += b.grid.M(x)
-			}
-			keys[k] = sum
-		}
-		driftOn(b, d, keys, b.grid.Float(1)/float64(size), size)
+		driftOn(b, d, blockSums(b.grid, ws.series, size), b.grid.Float(1)/float64(size), size)
 		return
 	}
 	d.Exact = false
@@ -1386,6 +1378,21 @@ func (b *stabBuild) drift() {
 		}
 	}
 	driftOn(b, d, keys, 1, size)
+}
+
+// blockSums returns the sums of the mantissas on g of the blocks of size
+// consecutive readings of x (a last partial block left out), in a small
+// function of its own (WebAssembly runs such a loop faster).
+func blockSums(g decimal.Grid, x []float64, size int) []int64 {
+	keys := make([]int64, len(x)/size)
+	for k := range keys {
+		var sum int64
+		for _, v := range x[k*size : (k+1)*size] {
+			sum += g.M(v)
+		}
+		keys[k] = sum
+	}
+	return keys
 }
 
 // driftOn runs the rank tests and Sen's slope on keys (one a block of size
@@ -1612,36 +1619,62 @@ func (b *stabBuild) thin(limit int) {
 // highest of each of thin's blocks (b.blockKeep), in one pass.
 func (b *stabBuild) spreadAndBlocks(x []float64, up float64, on bool) {
 	n := len(x)
-	blocks := 0
-	if n > maxChartPoints && len(b.leftPos) == 0 {
+	blocks, thin := 1, n > maxChartPoints && len(b.leftPos) == 0
+	if thin {
 		blocks = maxChartPoints / 2
 		b.blockKeep = make([]int32, 0, 2*blocks)
 	}
-	cut := up * (1 - 1e-12) // a cheap test before the exact one
-	judge := func(lo, hi int) {
-		if !on {
-			return
-		}
-		for j := max(lo, 1); j < hi; j++ {
-			if math.Abs(x[j]-x[j-1]) > cut && b.diff(j, j-1) > up {
-				b.addSignal(sigSpread, 0, j-1, j, nil)
-			}
-		}
+	cut := math.Inf(1) // no moving range is judged when off
+	if on {
+		cut = up * (1 - 1e-12) // a cheap test before the exact one
 	}
-	if blocks == 0 {
-		judge(0, n)
-		return
-	}
+	var wide []int32
 	for k := range blocks {
 		a, e := k*n/blocks, (k+1)*n/blocks
-		judge(a, e)
-		lo, hi := blockMinMax(x[a:e])
-		b.blockKeep = append(b.blockKeep, int32(lo+a), int32(hi+a))
+		var lo, hi int
+		lo, hi, wide = minMaxWide(x, a, e, cut, wide[:0])
+		for _, j := range wide {
+			if b.diff(int(j), int(j)-1) > up {
+				b.addSignal(sigSpread, 0, int(j)-1, int(j), nil)
+			}
+		}
+		if thin {
+			b.blockKeep = append(b.blockKeep, int32(lo), int32(hi))
+		}
 	}
+}
+
+// minMaxWide goes once through the points a..e−1 of x (a < e): it returns
+// the positions of the first lowest and the first highest, and appends to
+// wide the points j ≥ 1 whose moving range |x[j] − x[j−1]| is above cut.
+// It and blockMinMax are kept out of line: in WebAssembly a loop in a
+// small function of its own runs faster than the same loop inlined into a
+// long function that calls.
+//
+//go:noinline
+func minMaxWide(x []float64, a, e int, cut float64, wide []int32) (lo, hi int, _ []int32) {
+	lo, hi = a, a
+	ylo, yhi := x[a], x[a]
+	x = x[:e]
+	for j := max(a, 1); j < len(x); j++ {
+		v := x[j]
+		if math.Abs(v-x[j-1]) > cut {
+			wide = append(wide, int32(j))
+		}
+		if v < ylo {
+			lo, ylo = j, v
+		}
+		if v > yhi {
+			hi, yhi = j, v
+		}
+	}
+	return lo, hi, wide
 }
 
 // blockMinMax gives the positions of the first lowest and the first
 // highest of ys (not empty).
+//
+//go:noinline
 func blockMinMax(ys []float64) (lo, hi int) {
 	ylo, yhi := ys[0], ys[0]
 	for p, v := range ys {

@@ -47,10 +47,11 @@ func (g Grid) CountSort(xs []float64) bool {
 			continue
 		}
 		v := float64(lo+int64(j)) / p
-		for range c {
-			xs[i] = v
-			i++
+		run := xs[i : i+int(c)]
+		for k := range run {
+			run[k] = v
 		}
+		i += int(c)
 	}
 	return true
 }

@@ -149,10 +149,7 @@ func (g Grid) PowerSums(sorted []float64) PowerSums {
 	// each run's powers are computed once and multiplied by its length.
 	for i := 0; i < n; {
 		x := sorted[i]
-		j := i + 1
-		for j < n && sorted[j] == x {
-			j++
-		}
+		j := RunEnd(sorted, i)
 		cnt := uint64(j - i)
 		d := g.M(x) - c
 		u := uint64(d)

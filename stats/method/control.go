@@ -103,8 +103,10 @@ func SigmaMovingRange(x []float64, w int, keep []bool) (SigmaEstimate, error) {
 	sum, m := 0.0, len(x)-1
 	if w == 2 && keep == nil && m >= 1 {
 		// the usual case, summed without an array of ranges (long series)
-		for j := 1; j < len(x); j++ {
-			sum += math.Abs(x[j] - x[j-1])
+		prev := x[0]
+		for _, v := range x[1:] {
+			sum += math.Abs(v - prev)
+			prev = v
 		}
 	} else {
 		mr, mm, err := ctlKeptRanges(x, w, keep)

@@ -204,24 +204,45 @@ func (s *ctlEC) run(x []float64, from, next int) int {
 	lambda, q, kk, lsig, hi, low, decision, centre := s.lambda, s.q, s.kk, s.lsig, s.hi, s.low, s.decision, s.centre
 	i := from
 	beyondE, beyondC := false, false
-	for ; i < len(x); i++ {
+	stop := false
+	// while (1−λ)^(2(i+1)) is not below the rounding of 1, and at the
+	// point after one beyond: the full step (|z − centre| > hw is
+	// z − centre > hw || z − centre < −hw, NaN giving false)
+	for ; i < len(x) && (1-a != 1 || wasE || wasC); i++ {
 		v := x[i]
 		z = lambda*v + (1-lambda)*z
-		if 1-a != 1 { // once (1−λ)^(2(i+1)) is below the rounding of 1, hw stays
+		if 1-a != 1 {
 			a *= q
 			hw = lsig * math.Sqrt(kk*(1-a))
 		}
-		d := z - centre
-		beyondE = d > hw || d < -hw
+		beyondE = math.Abs(z-centre) > hw
 		up = ctlPos(v - hi + up)
 		lo = ctlPos(low - v + lo)
 		nu = (nu + 1) * int32(ctlU(up > 0))
 		nl = (nl + 1) * int32(ctlU(lo > 0))
 		beyondC = up > decision || lo > decision
 		if beyondE || wasE || beyondC || wasC || i == next {
+			stop = true
 			break
 		}
 		wasE, wasC = beyondE, beyondC
+	}
+	// then hw stays and nothing was beyond at the point before: the same
+	// step with fewer tests (most of a long series)
+	if !stop {
+		for ; i < len(x); i++ {
+			v := x[i]
+			z = lambda*v + (1-lambda)*z
+			beyondE = math.Abs(z-centre) > hw
+			up = ctlPos(v - hi + up)
+			lo = ctlPos(low - v + lo)
+			nu = (nu + 1) * int32(ctlU(up > 0))
+			nl = (nl + 1) * int32(ctlU(lo > 0))
+			beyondC = up > decision || lo > decision
+			if beyondE || beyondC || i == next {
+				break
+			}
+		}
 	}
 	s.z, s.a, s.hw, s.up, s.lo, s.nu, s.nl = z, a, hw, up, lo, nu, nl
 	s.beyondE, s.beyondC, s.wasE, s.wasC = beyondE, beyondC, wasE, wasC

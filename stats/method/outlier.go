@@ -101,43 +101,37 @@ func MedianAbsDevExact(sorted []float64, g decimal.Grid, med2 int64) *big.Rat {
 	}
 	// first index with 2m >= med2
 	lo := sort.Search(n, func(h int) bool { return 2*g.M(sorted[h]) >= med2 })
-	// di, dj: the next deviation of each run (-1 when the run is spent)
+	// the deviations in ascending order, from the two sides of the median
+	// (below: lo-1 down, above: lo up), a run of equal readings at a time
+	// (a long run costs a few comparisons, decimal.RunStart and RunEnd): a
+	// is the deviation at position (n-1)/2 of that order, b at the next
 	i, j := lo-1, lo
-	di, dj := int64(-1), int64(-1)
-	if i >= 0 {
-		di = med2 - 2*g.M(sorted[i])
-	}
-	if j < n {
-		dj = 2*g.M(sorted[j]) - med2
-	}
-	next := func() int64 {
-		if dj < 0 || (di >= 0 && di <= dj) {
-			d := di
-			i--
-			if i >= 0 {
-				di = med2 - 2*g.M(sorted[i])
-			} else {
-				di = -1
-			}
-			return d
-		}
-		d := dj
-		j++
-		if j < n {
-			dj = 2*g.M(sorted[j]) - med2
+	k := (n - 1) / 2
+	var a, b int64
+	for taken := 0; taken <= k+1 && (i >= 0 || j < n); {
+		var d int64
+		var cnt int
+		if j >= n || (i >= 0 && med2-2*g.M(sorted[i]) <= 2*g.M(sorted[j])-med2) {
+			d = med2 - 2*g.M(sorted[i])
+			s := decimal.RunStart(sorted, i)
+			cnt, i = i-s+1, s-1
 		} else {
-			dj = -1
+			d = 2*g.M(sorted[j]) - med2
+			e := decimal.RunEnd(sorted, j)
+			cnt, j = e-j, e
 		}
-		return d
-	}
-	var a int64
-	for k := 0; k <= (n-1)/2; k++ {
-		a = next()
+		if taken <= k && k < taken+cnt {
+			a = d
+		}
+		if taken <= k+1 && k+1 < taken+cnt {
+			b = d
+		}
+		taken += cnt
 	}
 	den := new(big.Int).Mul(big.NewInt(2), g.Denom())
 	num := big.NewInt(a)
 	if n%2 == 0 {
-		num.Add(num, big.NewInt(next()))
+		num.Add(num, big.NewInt(b))
 		den.Mul(den, big.NewInt(2))
 	}
 	return new(big.Rat).SetFrac(num, den)

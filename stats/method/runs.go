@@ -175,6 +175,11 @@ func ScanSignals(x []float64, centre float64, sigma []float64, s SignalSettings,
 		minSame: ctlDefaultI(s.SameSideRun, 9), minHug: ctlDefaultI(s.HuggingRun, 15),
 		minAvoid: ctlDefaultI(s.AvoidRun, 8), minTrend: ctlDefaultI(s.TrendRun, 6),
 		minAlt: ctlDefaultI(s.AlternatingRun, 14)}
+	if len(sigma) == 1 {
+		for j := range sc.flat {
+			sc.flat[j] = sigma[0]
+		}
+	}
 	sc.w23 = ctlWindow{rule: SignalTwoOfThree, m: 2, w: 3}
 	sc.w45 = ctlWindow{rule: SignalFourOfFive, m: 4, w: 5}
 	// a check switched off never fires: its limit or threshold is out of
@@ -294,20 +299,18 @@ type ctlMasks struct {
 
 // masks gathers the masks of the 64 points from base.
 func (sc *ctlScan) masks(base int) ctlMasks {
-	x := sc.x[base : base+64]
+	x := (*[64]float64)(sc.x[base : base+64])
 	prev := sc.x[max(0, base-1)] // no step at the first point
 	centre, lim := sc.centre, sc.lim
 	// the masks in local variables (registers), not in m's fields
 	var above, below, o1, o2, oL, in1, up, down uint64
-	sg := 0.0
-	perPoint := len(sc.sigma) > 1
-	if !perPoint {
-		sg = sc.sigma[0]
+	// the points' sigmas: one for all (sc.flat), or one per point
+	sgs := &sc.flat
+	if len(sc.sigma) > 1 {
+		sgs = (*[64]float64)(sc.sigma[base : base+64])
 	}
 	for j, v := range x {
-		if perPoint {
-			sg = sc.sigma[base+j]
-		}
+		sg := sgs[j]
 		d := v - centre
 		a := math.Abs(d)
 		above |= ctlU(d > 0) << j
@@ -646,6 +649,9 @@ type ctlScan struct {
 	t23, t45                                    [32]uint64
 	on23, on45                                  bool
 	thrSame, thrHug, thrAvoid, thrTrend, thrAlt uint64
+	// flat holds the one sigma 64 times (masks reads a sigma per point
+	// without a test per point)
+	flat [64]float64
 }
 
 func (sc *ctlScan) endRun(rule string, side, first, last int) {

@@ -47,14 +47,17 @@ func Lag1Autocorrelation(x []float64) (Autocorrelation, error) {
 		mean += v
 	}
 	mean /= float64(n)
+	// the same sums in the same order as d_i² over every i and
+	// d_i·d_(i+1) over i < n−1, with each d_i worked out once
 	den, num := 0.0, 0.0
-	for i, v := range x {
-		d := v - mean
+	d := x[0] - mean
+	for _, v := range x[1:] {
+		dn := v - mean
 		den += d * d
-		if i+1 < n {
-			num += d * (x[i+1] - mean)
-		}
+		num += d * dn
+		d = dn
 	}
+	den += d * d
 	if !(den > 0) {
 		return Autocorrelation{}, errors.New("all readings are equal: the autocorrelation is undefined")
 	}
