@@ -428,10 +428,9 @@ func SenSlopeEstimate[T int64 | float64](x []T, confidence float64) (SenSlope, e
 	// three order statistics of n(n−1)/2 slopes: by selection, O(n²)
 	// instead of a sort
 	np := float64(len(sl))
-	res := SenSlope{N: n, Confidence: confidence, Slope: ctlSelectStat(sl, (np+1)/2)}
 	c := distuv.UnitNormal.Quantile((1+confidence)/2) * math.Sqrt(mk.VarS)
-	res.Lower = ctlSelectStat(sl, (np-c)/2)
-	res.Upper = ctlSelectStat(sl, (np+c)/2+1)
+	st := ctlSelectStats(sl, (np+1)/2, (np-c)/2, (np+c)/2+1)
+	res := SenSlope{N: n, Confidence: confidence, Slope: st[0], Lower: st[1], Upper: st[2]}
 	r := make([]float64, n)
 	for i, v := range x {
 		r[i] = float64(v) - res.Slope*float64(i)
@@ -442,20 +441,92 @@ func SenSlopeEstimate[T int64 | float64](x []T, confidence float64) (SenSlope, e
 }
 
 // ctlSelectStat is ctlOrderStat on unsorted s (reordered): the values
-// of 0-based ranks i and i+1 by selection (Hoare 1961), the second the
-// smallest of what lies above the first.
-func ctlSelectStat(s []float64, k float64) float64 {
-	if k <= 1 {
-		return floatSelect(s, 0)
+// of 0-based ranks i and i+1 by selection (Hoare 1961), not a sort.
+func ctlSelectStat(s []float64, k float64) float64 { return ctlSelectStats(s, k)[0] }
+
+// ctlSelectStats is ctlSelectStat for several ranks ks of the same s at
+// once (s reordered; the same values): each order statistic needed is
+// selected within the part of s that the ones already placed leave to it
+// (ctlSelectRanks), so that s is partitioned about once in all, not once a
+// rank.
+func ctlSelectStats(s []float64, ks ...float64) []float64 {
+	n := len(s)
+	out := make([]float64, len(ks))
+	if n == 0 {
+		for j := range out {
+			out[j] = math.NaN()
+		}
+		return out
 	}
-	if k >= float64(len(s)) {
-		return floatSelect(s, len(s)-1)
+	pos := func(k float64) (i int, f float64) {
+		switch {
+		case k <= 1:
+			return 0, 0
+		case k >= float64(n):
+			return n - 1, 0
+		}
+		f = math.Floor(k)
+		return int(f) - 1, f
 	}
-	f := math.Floor(k)
-	i := int(f) - 1
-	lo := floatSelect(s, i)
-	hi := slices.Min(s[i+1:])
-	return lo + (k-f)*(hi-lo)
+	var ranks []int
+	for _, k := range ks {
+		i, f := pos(k)
+		ranks = append(ranks, i)
+		if f != 0 {
+			ranks = append(ranks, i+1)
+		}
+	}
+	slices.Sort(ranks)
+	ctlSelectRanks(s, slices.Compact(ranks))
+	for j, k := range ks {
+		i, f := pos(k)
+		if f == 0 {
+			out[j] = s[i]
+		} else {
+			out[j] = s[i] + (k-f)*(s[i+1]-s[i])
+		}
+	}
+	return out
+}
+
+// ctlSelectRanks reorders s so that s[r] holds the value of 0-based rank r
+// (as in sorted s) for every r of ranks (ascending, distinct, in range): it
+// selects the middle rank (floatSelect leaves the smaller values before it
+// and the larger after), then the ranks below it in the part before and
+// those above in the part after. A rank at either end of its part is that
+// part's least or greatest value: found by one scan.
+func ctlSelectRanks(s []float64, ranks []int) {
+	if len(ranks) == 0 {
+		return
+	}
+	m := len(ranks) / 2
+	r := ranks[m]
+	switch r {
+	case 0:
+		j := 0
+		for i, v := range s {
+			if v < s[j] {
+				j = i
+			}
+		}
+		s[0], s[j] = s[j], s[0]
+	case len(s) - 1:
+		j := 0
+		for i, v := range s {
+			if v > s[j] {
+				j = i
+			}
+		}
+		s[r], s[j] = s[j], s[r]
+	default:
+		floatSelect(s, r)
+	}
+	ctlSelectRanks(s[:r], ranks[:m])
+	above := ranks[m+1:]
+	for i := range above {
+		above[i] -= r + 1
+	}
+	ctlSelectRanks(s[r+1:], above)
 }
 
 // ctlOrderStat returns the order statistic of 1-based rank k of sorted s,

@@ -2,6 +2,7 @@ package method
 
 import (
 	"math"
+	"math/rand/v2"
 	"slices"
 	"testing"
 )
@@ -228,10 +229,31 @@ func TestSelectStat(t *testing.T) {
 		sorted := slices.Clone(x)
 		slices.Sort(sorted)
 		n := float64(len(x))
-		for _, k := range []float64{0, 1, 1.5, 2, n / 3, (n + 1) / 2, n/2 + 0.25, n - 1, n - 0.5, n, n + 2} {
+		ks := []float64{0, 1, 1.5, 2, n / 3, (n + 1) / 2, n/2 + 0.25, n - 1, n - 0.5, n, n + 2}
+		for _, k := range ks {
 			s := slices.Clone(x)
 			if got, want := ctlSelectStat(s, k), ctlOrderStat(sorted, k); got != want {
 				t.Fatalf("n=%d k=%g: %g, want %g", len(x), k, got, want)
+			}
+		}
+		// several ranks at once, as Sen's slope asks for them (the median,
+		// then the two bounds), and a few in any order, the same twice
+		r := rand.New(rand.NewPCG(seed, 7))
+		sets := [][]float64{{(n + 1) / 2, n/2 - 1.7, n/2 + 2.3}, {n - 0.5, 1.5}}
+		for j := 0; j < 5; j++ {
+			set := make([]float64, 1+r.IntN(5))
+			for i := range set {
+				set[i] = ks[r.IntN(len(ks))]
+			}
+			sets = append(sets, set)
+		}
+		for _, set := range sets {
+			s := slices.Clone(x)
+			got := ctlSelectStats(s, set...)
+			for i, k := range set {
+				if want := ctlOrderStat(sorted, k); got[i] != want {
+					t.Fatalf("n=%d ranks %v: at %g %g, want %g", len(x), set, k, got[i], want)
+				}
 			}
 		}
 	}
