@@ -55,6 +55,8 @@ window.lotlens = Object.freeze({
   // when the engine's worker started, its wasm response arrived and the
   // module was compiled (ms since navigation), for the speed checks
   loadPhases: () => state.loadPhases && Object.assign({}, state.loadPhases),
+  // the warm-up's stages, ms each: the longest is the most a first request waits
+  warmStages: () => state.warmStageMs && state.warmStageMs.slice(),
   // the report the page shows, as JSON text (null when none): for checks
   // that two pages show the very same report
   shownReport: () => state.report ? JSON.stringify(state.report) : null,

@@ -38,6 +38,7 @@ function onMessage(ev) {
   if (m.type === "error") { setStatus(m.error, true); return; }
   if (m.type === "warmed") {
     document.body.dataset.warmedMs = String(Math.round(performance.now()));
+    state.warmStageMs = m.stageMs || []; // for the speed checks
     if (m.json) for (const f of warmedListeners) f(m.json, m.svg || {});
     return;
   }

@@ -28,6 +28,7 @@ export const state = {
   analyses: 0,
   timing: null,
   loadPhases: null, // engine load phases (engine-client.js)
+  warmStageMs: null, // the engine's warm-up stages, ms each (engine-client.js)
   sentAt: 0,
   runToken: 0,      // the latest analysis; older answers are dropped
   lastKey: "",      // the last request sent (data version, settings, columns): not sent twice
