@@ -48,7 +48,7 @@ const NOT_DRAWN = "The chart could not be drawn.";
 // elements for a control chart of 1,000,000 readings). While render() draws
 // a report (drawLater), a chart of more than LATER characters gets a
 // placeholder of its size, and chartsDrawn() parses it just after the report
-// has been painted, one chart per task: the verdict and the figures come on
+// has been painted: the verdict and the figures come on
 // screen without waiting for the charts below them (parsing and laying out
 // the charts of a 1M-value file took 20-50 ms). A chart is drawn at once
 // whenever something needs it: a tap, a key, focus (pointsOf in
@@ -71,21 +71,24 @@ export function drawChart(fig) {
   else fig.replaceWith(el("p", { class: "missing", text: NOT_DRAWN }));
 }
 export function drawCharts() { for (const fig of [...waiting.keys()]) drawChart(fig); }
-// chartsDrawn resolves once no chart waits: it draws them one per task,
-// starting after the next frame (or 100 ms, should frames not come: a
-// hidden tab).
+// chartsDrawn resolves once no chart waits: it draws them all in one task
+// once the frame that shows the report has been painted (or after 100 ms,
+// should frames not come: a hidden tab). One task, not one a chart: each
+// chart drawn in a task of its own waited for a frame of its own. It
+// resolves with the two moments (performance.now()): painted, the start of
+// that task; drawn, its end.
 export function chartsDrawn() {
   return new Promise((resolve) => {
-    let started = false;
-    const step = () => {
-      const next = waiting.keys().next();
-      if (next.done) { resolve(); return; }
-      drawChart(next.value);
-      setTimeout(step, 0);
+    let done = false;
+    const draw = () => {
+      if (done) return;
+      done = true;
+      const painted = performance.now();
+      drawCharts();
+      resolve({ painted, drawn: performance.now() });
     };
-    const start = () => { if (!started) { started = true; step(); } };
-    requestAnimationFrame(() => setTimeout(start, 0));
-    setTimeout(start, 100);
+    requestAnimationFrame(() => setTimeout(draw, 0));
+    setTimeout(draw, 100);
   });
 }
 window.addEventListener("beforeprint", drawCharts);
