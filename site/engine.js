@@ -180,6 +180,14 @@ function chunksOf(file) {
 // "cancelled"; the page ignores that answer (input.js, analyseFile).
 const SUPERSEDED = JSON.stringify({ error: "reading stopped: another file was opened", code: "cancelled" });
 
+// stopped is the answer for a read that a newer file or a cancel stopped
+// (the engine's read ended for a cancel), or null while it goes on.
+function stopped(job) {
+  if (job.superseded) return SUPERSEDED;
+  if (job.cancelled) return self.lotlensCancel();
+  return null;
+}
+
 async function readFile(id, file) {
   if (reading) reading.superseded = true;
   const job = { id, cancelled: false, superseded: false };
@@ -188,25 +196,15 @@ async function readFile(id, file) {
   self.lotlensBegin(file.name || "file", file.size);
   const total = file.size;
   let read = 0, last = 0;
+  const answer = (json) => postMessage({ type: "file-read", id, json });
   try {
     for (;;) {
       const { done, value } = await src.next();
-      if (job.superseded) {
-        src.stop();
-        postMessage({ type: "file-read", id, json: SUPERSEDED });
-        return;
-      }
-      if (job.cancelled) {
-        src.stop();
-        postMessage({ type: "file-read", id, json: self.lotlensCancel() });
-        return;
-      }
+      const stop = stopped(job);
+      if (stop) { src.stop(); answer(stop); return; }
       if (done) break;
       const r = self.lotlensChunk(value);
-      if (typeof r === "string") { // the engine's error object
-        postMessage({ type: "file-read", id, json: r });
-        return;
-      }
+      if (typeof r === "string") { answer(r); return; } // the engine's error object
       read = r;
       const now = performance.now();
       if (now - last > 50) {
@@ -216,22 +214,11 @@ async function readFile(id, file) {
     }
     postMessage({ type: "progress", id, read, total });
     const fp = await src.digest;
-    if (job.superseded) {
-      postMessage({ type: "file-read", id, json: SUPERSEDED });
-      return;
-    }
-    if (job.cancelled) {
-      postMessage({ type: "file-read", id, json: self.lotlensCancel() });
-      return;
-    }
-    postMessage({ type: "file-read", id, json: self.lotlensEnd(fp) });
+    answer(stopped(job) || self.lotlensEnd(fp));
   } catch (e) {
-    if (job.superseded) {
-      postMessage({ type: "file-read", id, json: SUPERSEDED });
-      return;
-    }
+    if (job.superseded) { answer(SUPERSEDED); return; }
     self.lotlensCancel();
-    postMessage({ type: "file-read", id, json: JSON.stringify({ error: "Could not read " + file.name + ": " + e, code: "file-read" }) });
+    answer(JSON.stringify({ error: "Could not read " + file.name + ": " + e, code: "file-read" }));
   } finally {
     if (reading === job) reading = null;
   }

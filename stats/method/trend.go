@@ -440,12 +440,9 @@ func SenSlopeEstimate[T int64 | float64](x []T, confidence float64) (SenSlope, e
 	return res, nil
 }
 
-// ctlSelectStat is ctlOrderStat on unsorted s (reordered): the values
-// of 0-based ranks i and i+1 by selection (Hoare 1961), not a sort.
-func ctlSelectStat(s []float64, k float64) float64 { return ctlSelectStats(s, k)[0] }
-
-// ctlSelectStats is ctlSelectStat for several ranks ks of the same s at
-// once (s reordered; the same values): each order statistic needed is
+// ctlSelectStats is ctlOrderStat for the ranks ks on unsorted s
+// (reordered; the same values), by selection (Hoare 1961), not a sort:
+// each order statistic needed (0-based ranks i and i+1 of each k) is
 // selected within the part of s that the ones already placed leave to it
 // (ctlSelectRanks), so that s is partitioned about once in all, not once a
 // rank.

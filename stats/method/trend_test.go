@@ -232,7 +232,7 @@ func TestSelectStat(t *testing.T) {
 		ks := []float64{0, 1, 1.5, 2, n / 3, (n + 1) / 2, n/2 + 0.25, n - 1, n - 0.5, n, n + 2}
 		for _, k := range ks {
 			s := slices.Clone(x)
-			if got, want := ctlSelectStat(s, k), ctlOrderStat(sorted, k); got != want {
+			if got, want := ctlSelectStats(s, k)[0], ctlOrderStat(sorted, k); got != want {
 				t.Fatalf("n=%d k=%g: %g, want %g", len(x), k, got, want)
 			}
 		}
