@@ -6,6 +6,7 @@ require (
 	github.com/andybalholm/brotli v1.3.0
 	github.com/chromedp/cdproto v0.0.0-20250724212937-08a3db8b4327
 	github.com/chromedp/chromedp v0.14.2
+	github.com/evanw/esbuild v0.28.2
 	github.com/syumai/workers v0.31.0
 	github.com/yuin/goldmark v1.8.7
 	gonum.org/v1/gonum v0.17.0

@@ -15,7 +15,6 @@ export const state = {
   sourceName: "",   // shown beside the preview: the file's name, "demo", or a shared link's name
   hasTable: false,  // the engine keeps the file's table
   exclude: new Set(),
-  reasons: new Map(), // row -> the reason the user typed for leaving it out
   leaveOutRows: [], // rows typed in "Leave out rows"
   leaveOutText: "",
   allSuspects: false,

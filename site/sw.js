@@ -3,17 +3,15 @@
 // files (never a stored copy of a shared analysis) and never sends anything
 // anywhere.
 // The build replaces __LOTLENS_BUILD__ with a build id and the asset list
-// below with every file in dist/ (root-relative URLs).
+// below with every file in dist/ (root-relative URLs): the page's modules
+// are one bundle there (build/dist/bundle.go).
 "use strict";
 const BUILD = "__LOTLENS_BUILD__";
 const CACHE = "lotlens-" + BUILD;
 const LISTED = ["__LOTLENS_ASSETS__"];
-// Used only when the build did not fill in the list (e.g. serving site/ raw).
-const FALLBACK = ["./", "index.html", "boot.js", "app.js", "state.js", "dom.js", "engine-client.js", "input.js", "cards.js",
-  "export.js", "share.js", "stored.js", "card-kit.js", "chart-tips.js", "card-verdict.js", "card-data.js", "card-centre.js",
-  "card-spread.js", "card-suspects.js", "card-shape.js", "card-spec.js", "card-time.js", "card-groups.js", "card-notes.js", "engine.js", "wasm_exec.js", "lotlens.wasm", "style.css",
-  "manifest.webmanifest", "icon.svg", "icon-192.png", "icon-512.png", "demo/capsule-fill.tsv"];
-const ASSETS = LISTED.length === 1 && LISTED[0] === "__LOTLENS_" + "ASSETS__" ? FALLBACK : LISTED;
+// Only the build's dist/ can be served (the engine is compiled there), and
+// the build always fills the list in.
+const ASSETS = LISTED;
 
 self.addEventListener("install", (ev) => {
   ev.waitUntil(caches.open(CACHE).then(async (c) => {

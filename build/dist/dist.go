@@ -103,6 +103,9 @@ func Assemble(root string, o Options) (files, error) {
 		}
 		site["404.html"] = b
 	}
+	if err := bundleModules(site, "app.js"); err != nil {
+		return nil, err
+	}
 	if _, err := fingerprint(site); err != nil {
 		return nil, err
 	}
