@@ -3,11 +3,14 @@ package site
 // Page speed, measured in headless Chromium against dist/ (`make bench-page`).
 // These are benchmarks, not tests: they report figures and assert nothing
 // about time. Each reports its own in-page measurement (performance.now) as
-// custom metrics; compare them with the goals in README.md:
-//   cold load to interactive <= 1 s; 10,000 pasted values -> report <= 150 ms
-//   (the first paste in a fresh browser <= 120 ms, BenchmarkPaste10kFirst);
-//   1,000,000 values from a dropped file <= 2 s with the page responsive
-//   (largest gap between animation frames); compressed wasm <= 1.5 MB.
+// custom metrics, with baselines measured in the same run (the machine is
+// shared and noisy: compare ratios across runs). The goals the issues set:
+//   the engine ready after a cold load <= 400 ms (BenchmarkColdLoad);
+//   10,000 pasted values -> report <= 150 ms, the first paste in a fresh
+//   browser <= 120 ms (BenchmarkPaste10kFirst); 1,000,000 values from a
+//   dropped file: the first drop in a fresh browser painted <= 350 ms, the
+//   page responsive throughout (largest gap between animation frames);
+//   compressed wasm <= 1.5 MB.
 
 import (
 	"bytes"
@@ -16,6 +19,8 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"strconv"
+	"strings"
 	"testing"
 	"time"
 
@@ -72,7 +77,8 @@ func BenchmarkColdLoad(b *testing.B) {
 }
 
 func coldLoad(b *testing.B, settle time.Duration) {
-	var total, dom, start, resp, comp float64
+	var total, dom, start, resp, comp, native float64
+	text := goValues(10000)
 	for i := 0; i < b.N; i++ {
 		s := browser(b)
 		if settle > 0 {
@@ -93,6 +99,7 @@ func coldLoad(b *testing.B, settle time.Duration) {
 			b.Fatal(err)
 		}
 		s.close()
+		native += nativeMs(text)
 		total += ready
 		dom += domReady
 		start += ph["workerStart"]
@@ -101,6 +108,10 @@ func coldLoad(b *testing.B, settle time.Duration) {
 	}
 	n := float64(b.N)
 	b.ReportMetric(total/n, "ready-ms")
+	// baseline: the engine's analysis and charts of 10,000 values natively
+	// in Go, right after each load
+	b.ReportMetric(native/n, "native-go-ms")
+	b.ReportMetric(total/native, "x-native")
 	b.ReportMetric(dom/n, "dom-interactive-ms")
 	// the engine's load phases, ms since navigation: its worker started,
 	// the wasm's response arrived, the module was compiled (then the Go
@@ -108,6 +119,30 @@ func coldLoad(b *testing.B, settle time.Duration) {
 	b.ReportMetric(start/n, "worker-start-ms")
 	b.ReportMetric(resp/n, "wasm-response-ms")
 	b.ReportMetric(comp/n, "compiled-ms")
+}
+
+// goValues is the text values(n) builds in the page, made in Go (the same
+// digits: toFixed(3) and FormatFloat(..., 'f', 3, 64) both round the
+// double's exact value; TestGoValuesLikePage checks it).
+func goValues(n int) string {
+	var sb strings.Builder
+	x := int64(1)
+	for i := 0; i < n; i++ {
+		x = (x * 16807) % 2147483647
+		sb.WriteString(strconv.FormatFloat(5+(float64(x)/2147483647-0.5)*0.4, 'f', 3, 64))
+		sb.WriteByte('\n')
+	}
+	return sb.String()
+}
+
+// nativeMs times the engine's analysis and charts of text natively in Go:
+// the benchmarks' baseline for the machine's speed at that moment.
+func nativeMs(text string) float64 {
+	t0 := time.Now()
+	if rep, err := stats.Analyze(stats.Request{Text: text}); err == nil {
+		chart.All(rep)
+	}
+	return float64(time.Since(t0).Microseconds()) / 1000
 }
 
 // values returns JavaScript that builds n invented readings as text.
@@ -136,11 +171,7 @@ func BenchmarkPaste10k(b *testing.B) {
 		// Baselines in the same iteration (the machine is shared and noisy):
 		// the engine and charts natively in Go, and a plain JavaScript
 		// parse-and-sort of the same text in the page.
-		t0 := time.Now()
-		if rep, err := stats.Analyze(stats.Request{Text: text}); err == nil {
-			chart.All(rep)
-		}
-		native += float64(time.Since(t0).Microseconds()) / 1000
+		native += nativeMs(text)
 		var jsMs float64
 		if err := chromedp.Run(s.ctx, chromedp.Evaluate(`(() => { const t = performance.now();
 			const v = window.__text.split("\n").map(Number).filter((x) => !isNaN(x)); v.sort((a, b) => a - b);
@@ -229,11 +260,7 @@ func BenchmarkPaste10kFirst(b *testing.B) {
 					b.Fatal(err)
 				}
 				s.close()
-				t0 := time.Now()
-				if rep, err := stats.Analyze(stats.Request{Text: text}); err == nil {
-					chart.All(rep)
-				}
-				native += float64(time.Since(t0).Microseconds()) / 1000
+				native += nativeMs(text)
 				first += tm["totalMs"]
 				eng += tm["engineMs"]
 				ren += tm["renderMs"]
@@ -290,6 +317,8 @@ func BenchmarkDrop1M(b *testing.B) {
 	}
 	var total, gap, prog, read, first, page, eng, ren float64
 	var firstPage, firstRead, firstEng, firstRen, firstPaint, firstCharts float64
+	var jsBase, native float64
+	bigText := goValues(1000000)
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
 		var r map[string]float64
@@ -318,6 +347,16 @@ func BenchmarkDrop1M(b *testing.B) {
 			firstPage, firstRead, firstEng, firstRen = r["page"], r["read"], r["engine"], r["render"]
 			firstPaint, firstCharts = r["paint"], r["charts"]
 		}
+		// baselines in the same iteration: the page's plain JavaScript
+		// read, parse and sort of the same file, and the engine natively
+		var jsMs float64
+		if err := chromedp.Run(ctx, chromedp.Evaluate(`(() => { const t0 = performance.now(); return window.__big.text().then((t) => {
+			const v = Float64Array.from(t.split("\n").map(Number).filter((x) => !isNaN(x))); v.sort();
+			return performance.now() - t0 }) })()`, &jsMs, awaitPromise)); err != nil {
+			b.Fatal(err)
+		}
+		jsBase += jsMs
+		native += nativeMs(bigText)
 		total += r["total"]
 		gap = max(gap, r["gap"])
 		prog += r["progress"]
@@ -348,4 +387,25 @@ func BenchmarkDrop1M(b *testing.B) {
 	b.ReportMetric(prog/float64(b.N), "progress-updates")
 	b.ReportMetric(warm.Total, "warm-up-ms")
 	b.ReportMetric(warm.Stage, "warm-up-longest-stage-ms")
+	b.ReportMetric(jsBase/float64(b.N), "js-parse-sort-ms")
+	b.ReportMetric(firstPaint/(jsBase/float64(b.N)), "first-paint-x-js-parse-sort")
+	b.ReportMetric(native/float64(b.N), "native-go-ms")
+	b.ReportMetric(firstPaint/(native/float64(b.N)), "first-paint-x-native")
+}
+
+// TestGoValuesLikePage checks that goValues writes the text the page's
+// values(n) builds, so that the native baselines analyse the same data.
+func TestGoValuesLikePage(t *testing.T) {
+	s := browser(t)
+	var page string
+	if err := chromedp.Run(s.ctx, chromedp.Navigate(s.base+"/404.html"), chromedp.Evaluate(values(20000), &page)); err != nil {
+		t.Fatal(err)
+	}
+	if got := goValues(20000); got != page {
+		i := 0
+		for i < len(got) && i < len(page) && got[i] == page[i] {
+			i++
+		}
+		t.Fatalf("goValues differs from the page's text at byte %d: %q against %q", i, got[max(0, i-10):min(len(got), i+10)], page[max(0, i-10):min(len(page), i+10)])
+	}
 }
