@@ -1,9 +1,9 @@
 package stats
 
 import (
-	"crypto/sha256"
 	"encoding/hex"
 
+	"lotlens/stats/digest"
 	"lotlens/stats/ingest"
 )
 
@@ -18,11 +18,11 @@ func analyzeCells(req Request) (*Report, error) {
 		name = "value"
 	}
 	cells := make([]ingest.Cell, len(req.Cells))
-	h := sha256.New()
+	h := digest.New()
 	for i, c := range req.Cells {
 		cells[i] = ingest.Cell{Row: c.Row, Text: c.Text}
-		h.Write([]byte(c.Text))
-		h.Write([]byte{'\n'})
+		h.WriteString(c.Text)
+		h.WriteString("\n")
 	}
 	tab, err := ingest.ReadCells(name, cells, ingest.ReadOptions{DecimalMark: req.Options.DecimalMark})
 	if err != nil {

@@ -3,12 +3,13 @@ package share
 import (
 	"bytes"
 	"compress/flate"
-	"crypto/sha256"
 	"encoding/binary"
 	"errors"
 	"maps"
 	"math"
 	"slices"
+
+	"lotlens/stats/digest"
 )
 
 // Forms of the text in the body.
@@ -162,7 +163,7 @@ func encodeBody(p Payload, form []byte) []byte {
 		b = appendString(b, o.ExcludeReasons[r])
 	}
 	b = binary.AppendUvarint(b, uint64(len(p.Text)))
-	sum := sha256.Sum256([]byte(p.Text))
+	sum := digest.Sum256([]byte(p.Text))
 	b = append(b, sum[:]...)
 	return append(b, form...)
 }
@@ -308,7 +309,7 @@ func decodeBody(body []byte) (Payload, error) {
 	if tlen == 0 {
 		r.bad = true
 	}
-	sum := r.bytes(sha256.Size)
+	sum := r.bytes(digest.Size)
 	form := r.byte()
 	if r.bad {
 		return Payload{}, errBody
@@ -328,7 +329,7 @@ func decodeBody(body []byte) (Payload, error) {
 	default:
 		return Payload{}, errBody
 	}
-	if got := sha256.Sum256([]byte(p.Text)); string(got[:]) != string(sum) {
+	if got := digest.Sum256([]byte(p.Text)); string(got[:]) != string(sum) {
 		return Payload{}, errors.New("its data do not give back the fingerprint they were sent with")
 	}
 	return p, nil

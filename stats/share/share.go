@@ -2,7 +2,6 @@ package share
 
 import (
 	"bytes"
-	"crypto/sha256"
 	"encoding/base64"
 	"encoding/binary"
 	"encoding/hex"
@@ -13,6 +12,8 @@ import (
 	"sync"
 
 	"compress/flate"
+
+	"lotlens/stats/digest"
 )
 
 // Version is the format version this package writes, and the newest it reads.
@@ -101,7 +102,7 @@ type Options struct {
 // Fingerprint is the hex SHA-256 of Text: the fingerprint the engine reports
 // for this input.
 func (p Payload) Fingerprint() string {
-	h := sha256.Sum256([]byte(p.Text))
+	h := digest.Sum256([]byte(p.Text))
 	return hex.EncodeToString(h[:])
 }
 

@@ -5,7 +5,9 @@ import (
 	"os/exec"
 	"regexp"
 	"runtime"
+	"slices"
 	"strconv"
+	"strings"
 	"testing"
 )
 
@@ -49,5 +51,30 @@ func TestEnginePackageInitsAreSmall(t *testing.T) {
 	// (else the trace's format changed and this test sees nothing)
 	if seen == 0 {
 		t.Fatalf("no init lines for lotlens/stats packages in the trace:\n%s", out)
+	}
+}
+
+// TestEngineLeavesOutCryptoSHA256 keeps Go's crypto packages out of the
+// engine: crypto/sha256 brings the FIPS 140 module with it (239 KB of the
+// WebAssembly engine, 54 KB of its brotli download), and the engine's
+// fingerprints use stats/digest instead.
+func TestEngineLeavesOutCryptoSHA256(t *testing.T) {
+	if runtime.GOOS == "js" {
+		t.Skip("js/wasm cannot start a process; the check runs natively")
+	}
+	cmd := exec.Command("go", "list", "-deps", "lotlens/wasm")
+	cmd.Env = append(os.Environ(), "GOOS=js", "GOARCH=wasm")
+	out, err := cmd.CombinedOutput()
+	if err != nil {
+		t.Fatalf("go list: %v: %s", err, out)
+	}
+	deps := strings.Fields(string(out))
+	if !slices.Contains(deps, "lotlens/stats/digest") {
+		t.Fatalf("the engine's dependencies do not list lotlens/stats/digest: %v", deps)
+	}
+	for _, d := range deps {
+		if strings.HasPrefix(d, "crypto/") {
+			t.Errorf("the engine imports %s: use lotlens/stats/digest for SHA-256", d)
+		}
 	}
 }

@@ -1,10 +1,10 @@
 package bridge
 
 import (
-	"crypto/sha256"
 	"encoding/hex"
 	"hash"
 
+	"lotlens/stats/digest"
 	"lotlens/stats/ingest"
 )
 
@@ -31,7 +31,7 @@ type chunkReader struct {
 func newChunkReader(size int64, max int) *chunkReader {
 	r := &chunkReader{s: ingest.NewStream(ingest.ReadOptions{SizeHint: size}), max: max}
 	if size > int64(max) {
-		r.over, r.h = true, sha256.New()
+		r.over, r.h = true, digest.New()
 	} else if size > 0 {
 		r.raw = make([]byte, 0, size)
 	}
@@ -40,7 +40,7 @@ func newChunkReader(size int64, max int) *chunkReader {
 
 func (r *chunkReader) Write(p []byte) error {
 	if !r.over && len(r.raw)+len(p) > r.max {
-		r.over, r.h = true, sha256.New()
+		r.over, r.h = true, digest.New()
 		r.h.Write(r.raw)
 		r.raw = nil
 	}
@@ -56,23 +56,23 @@ func (r *chunkReader) Write(p []byte) error {
 func (r *chunkReader) Finish() (*ingest.Table, error) { return r.s.Finish() }
 
 // fingerprint is the SHA-256 of every byte written, as lowercase hex. A
-// digest the caller computed is taken as it is when the bytes were kept and
-// it has the form of one (64 lowercase hex digits); otherwise the reader
-// computes it (a malformed digest is the page's mistake, not the user's, so
-// it costs time, never the file).
-func (r *chunkReader) fingerprint(digest string) string {
+// digest the caller computed (given) is taken as it is when the bytes were
+// kept and it has the form of one (64 lowercase hex digits); otherwise the
+// reader computes it (a malformed digest is the page's mistake, not the
+// user's, so it costs time, never the file).
+func (r *chunkReader) fingerprint(given string) string {
 	if r.over {
 		return hex.EncodeToString(r.h.Sum(nil))
 	}
-	if isSHA256Hex(digest) {
-		return digest
+	if isSHA256Hex(given) {
+		return given
 	}
-	sum := sha256.Sum256(r.raw)
+	sum := digest.Sum256(r.raw)
 	return hex.EncodeToString(sum[:])
 }
 
 func isSHA256Hex(s string) bool {
-	if len(s) != 2*sha256.Size {
+	if len(s) != 2*digest.Size {
 		return false
 	}
 	for i := 0; i < len(s); i++ {
