@@ -131,6 +131,14 @@ func Sum256(p []byte) [Size]byte {
 	return d.finish()
 }
 
+// SumString is the SHA-256 of s, without copying s.
+func SumString(s string) [Size]byte {
+	var d Hash
+	d.Reset()
+	d.WriteString(s)
+	return d.finish()
+}
+
 // blocks runs the compression function (FIPS 180-4, 6.2.2) over each
 // 64-byte block of p (len(p) a multiple of 64).
 func blocks(h *[8]uint32, p []byte) {

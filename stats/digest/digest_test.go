@@ -46,6 +46,9 @@ func TestSum256LikeCrypto(t *testing.T) {
 		if got := Sum256(p); got != want {
 			t.Fatalf("Sum256 of %d bytes: %x, want %x", n, got, want)
 		}
+		if got := SumString(string(p)); got != want {
+			t.Fatalf("SumString of %d bytes: %x, want %x", n, got, want)
+		}
 		d, ref := New(), sha256.New()
 		for q := p; len(q) > 0; {
 			k := min(len(q), r.IntN(200))

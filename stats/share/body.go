@@ -163,7 +163,7 @@ func encodeBody(p Payload, form []byte) []byte {
 		b = appendString(b, o.ExcludeReasons[r])
 	}
 	b = binary.AppendUvarint(b, uint64(len(p.Text)))
-	sum := digest.Sum256([]byte(p.Text))
+	sum := digest.SumString(p.Text)
 	b = append(b, sum[:]...)
 	return append(b, form...)
 }
@@ -329,7 +329,7 @@ func decodeBody(body []byte) (Payload, error) {
 	default:
 		return Payload{}, errBody
 	}
-	if got := digest.Sum256([]byte(p.Text)); string(got[:]) != string(sum) {
+	if got := digest.SumString(p.Text); string(got[:]) != string(sum) {
 		return Payload{}, errors.New("its data do not give back the fingerprint they were sent with")
 	}
 	return p, nil

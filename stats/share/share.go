@@ -102,7 +102,7 @@ type Options struct {
 // Fingerprint is the hex SHA-256 of Text: the fingerprint the engine reports
 // for this input.
 func (p Payload) Fingerprint() string {
-	h := digest.Sum256([]byte(p.Text))
+	h := digest.SumString(p.Text)
 	return hex.EncodeToString(h[:])
 }
 
