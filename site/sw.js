@@ -8,10 +8,9 @@
 "use strict";
 const BUILD = "__LOTLENS_BUILD__";
 const CACHE = "lotlens-" + BUILD;
-const LISTED = ["__LOTLENS_ASSETS__"];
 // Only the build's dist/ can be served (the engine is compiled there), and
-// the build always fills the list in.
-const ASSETS = LISTED;
+// the build always fills this list in.
+const ASSETS = ["__LOTLENS_ASSETS__"];
 
 self.addEventListener("install", (ev) => {
   ev.waitUntil(caches.open(CACHE).then(async (c) => {
