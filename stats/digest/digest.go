@@ -6,7 +6,7 @@
 // brotli download, for one function of about a hundred lines. Nothing here
 // is a secret or a signature: a fingerprint tells two copies of the same
 // data apart from different data. TestSum256LikeCrypto holds it to
-// crypto/sha256 byte for byte; TestEngineLeavesOutCryptoSHA256 (wasm/bridge)
+// crypto/sha256 byte for byte; TestEngineLeavesOut (wasm/bridge)
 // keeps crypto/sha256 out of the engine. Speed, in Node's WebAssembly: 93
 // MB/s against crypto/sha256's 105 (BenchmarkSum256 and BenchmarkCryptoSHA256,
 // same run); the engine hashes pasted text (70 KB for 10,000 values) and

@@ -3,8 +3,6 @@ package method
 import (
 	"fmt"
 	"math"
-
-	"gonum.org/v1/gonum/stat/distuv"
 )
 
 // This file: the group methods' shared screening and errors, and the
@@ -168,7 +166,7 @@ func grpFSurvival(f, d1, d2 float64) float64 {
 	if f <= 0 {
 		return 1
 	}
-	return distuv.F{D1: d1, D2: d2}.Survival(f)
+	return fSurvival(d1, d2, f)
 }
 
 // OneWayANOVA is Fisher's one-way analysis of variance (Fisher 1925,
@@ -275,9 +273,8 @@ func WelchT(x, y []float64, level float64) (WelchTTest, error) {
 	df := (va + vb) * (va + vb) / (va*va/(a.n-1) + vb*vb/(b.n-1))
 	r := WelchTTest{Diff: a.mean - b.mean, SE: se, DF: df, Level: level}
 	r.T = r.Diff / se
-	st := distuv.StudentsT{Mu: 0, Sigma: 1, Nu: df}
-	r.P = math.Min(1, 2*st.Survival(math.Abs(r.T)))
-	q := st.Quantile(1 - (1-level)/2)
+	r.P = math.Min(1, 2*tSurvival(df, math.Abs(r.T)))
+	q := tQuantile(df, 1-(1-level)/2)
 	r.Lo, r.Hi = r.Diff-q*se, r.Diff+q*se
 	if !grpFinite(r.Diff, r.T, r.DF, r.P, r.Lo, r.Hi) {
 		return WelchTTest{}, grpErr(GroupsNotFinite, -1, 0)
@@ -318,7 +315,7 @@ func Hedges(x, y []float64, level float64) (HedgesG, error) {
 	h := HedgesG{D: (a.mean - b.mean) / sp, J: j, Level: level}
 	h.G = j * h.D
 	h.SE = math.Sqrt((a.n+b.n)/(a.n*b.n) + h.G*h.G/(2*(a.n+b.n)))
-	z := distuv.UnitNormal.Quantile(1 - (1-level)/2)
+	z := NormalQuantile(1 - (1-level)/2)
 	h.Lo, h.Hi = h.G-z*h.SE, h.G+z*h.SE
 	if !grpFinite(h.D, h.G, h.SE, h.Lo, h.Hi) {
 		return HedgesG{}, grpErr(GroupsNotFinite, -1, 0)

@@ -2,8 +2,6 @@ package method
 
 import (
 	"math"
-
-	"gonum.org/v1/gonum/stat/distuv"
 )
 
 // TwoSidedInterval is a two-sided confidence interval with the level it achieves.
@@ -18,7 +16,7 @@ func MeanInterval(mean, sd float64, n int, conf float64) (iv TwoSidedInterval, o
 	if n < 2 || !(sd > 0) || !normalFinite(sd) {
 		return iv, false
 	}
-	t := distuv.StudentsT{Mu: 0, Sigma: 1, Nu: float64(n - 1)}.Quantile(1 - (1-conf)/2)
+	t := tQuantile(float64(n-1), 1-(1-conf)/2)
 	h := t * (sd / math.Sqrt(float64(n)))
 	iv = TwoSidedInterval{Lo: mean - h, Hi: mean + h, Level: conf}
 	return iv, normalFinite(iv.Lo) && normalFinite(iv.Hi)
@@ -34,20 +32,13 @@ func SDInterval(sd float64, n int, conf float64) (iv TwoSidedInterval, ok bool) 
 	}
 	a := 1 - conf
 	k := float64(n - 1)
-	chi := distuv.ChiSquared{K: k}
-	hiQ := chi.Quantile(1 - a/2)
-	loQ := chi.Quantile(a / 2)
+	hiQ := chiSquaredQuantile(k, 1-a/2)
+	loQ := chiSquaredQuantile(k, a/2)
 	if !(loQ > 0) || !(hiQ > 0) {
 		return iv, false
 	}
 	iv = TwoSidedInterval{Lo: sd * math.Sqrt(k/hiQ), Hi: sd * math.Sqrt(k/loQ), Level: conf}
 	return iv, normalFinite(iv.Lo) && normalFinite(iv.Hi)
-}
-
-// BinomialHalfCDF is P(B <= k) for B ~ Binomial(n, 1/2), gonum's
-// distuv.Binomial (the regularized incomplete beta I_{1/2}(n-k, k+1)).
-func BinomialHalfCDF(k, n int) float64 {
-	return distuv.Binomial{N: float64(n), P: 0.5}.CDF(float64(k))
 }
 
 // MedianInterval is the distribution-free interval for the median from
@@ -80,8 +71,6 @@ func MedianInterval(n int, conf float64) (k int, level float64, reached bool) {
 	reached = 2*BinomialHalfCDF(k-1, n) <= a
 	return k, level, reached
 }
-
-func intervalStudentT(df float64) distuv.StudentsT { return distuv.StudentsT{Mu: 0, Sigma: 1, Nu: df} }
 
 // MedianIntervalInterpolated is the interpolated order-statistic interval
 // for the median of Hettmansperger and Sheather (1986), "Confidence

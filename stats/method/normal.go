@@ -3,28 +3,30 @@ package method
 import (
 	"math"
 
-	"gonum.org/v1/gonum/stat/distuv"
+	"gonum.org/v1/gonum/mathext"
 )
 
-// NormalCDF is the standard normal distribution function Φ(x), gonum's
-// distuv.UnitNormal (erfc(-x/√2)/2, which keeps full relative accuracy in
-// the lower tail far below 1e-16; Abramowitz and Stegun 1964, 26.2.29).
-func NormalCDF(x float64) float64 { return distuv.UnitNormal.CDF(x) }
+// NormalCDF is the standard normal distribution function Φ(x) =
+// erfc(-x/√2)/2, which keeps full relative accuracy in the lower tail far
+// below 1e-16 (Abramowitz and Stegun 1964, 26.2.29); gonum's
+// distuv.UnitNormal.CDF, bit for bit (see dist.go).
+func NormalCDF(x float64) float64 { return 0.5 * math.Erfc(-x/math.Sqrt2) }
 
 // NormalSF is the upper tail 1 - Φ(x) = Φ(-x). gonum's Survival computes
 // (1 - erf(x/√2))/2, which cancels to 0 beyond x ≈ 8.3 (TestNormalSFTail);
 // Φ(-x) keeps the tail.
-func NormalSF(x float64) float64 { return distuv.UnitNormal.CDF(-x) }
+func NormalSF(x float64) float64 { return NormalCDF(-x) }
 
 // NormalQuantile is the standard normal quantile Φ⁻¹(p), gonum's
-// distuv.UnitNormal.Quantile (algorithm AS 241 PPND16, Wichura 1988,
-// Applied Statistics 37, 477-484, accurate to about 1 part in 10^16). It
-// returns -Inf at 0, +Inf at 1 and NaN outside [0, 1] (gonum panics there).
+// mathext.NormalQuantile (algorithm AS 241 PPND16, Wichura 1988, Applied
+// Statistics 37, 477-484, accurate to about 1 part in 10^16), as
+// distuv.UnitNormal.Quantile gives it. It returns -Inf at 0, +Inf at 1 and
+// NaN outside [0, 1] (gonum panics there).
 func NormalQuantile(p float64) float64 {
 	if !(p >= 0 && p <= 1) {
 		return math.NaN()
 	}
-	return distuv.UnitNormal.Quantile(p)
+	return mathext.NormalQuantile(p) + 0
 }
 
 // TwoSidedNormalP is 2·P(Z > |z|), accurate in the far tail.

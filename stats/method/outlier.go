@@ -5,8 +5,6 @@ import (
 	"math/big"
 	"sort"
 
-	"gonum.org/v1/gonum/stat/distuv"
-
 	"lotlens/stats/decimal"
 )
 
@@ -201,7 +199,7 @@ func GESD(sorted []float64, alpha float64, r int) (steps []GESDStep, outliers in
 		}
 		R := dev / sd
 		p := 1 - alpha/(2*fn)
-		tq := distuv.StudentsT{Mu: 0, Sigma: 1, Nu: fn - 2}.Quantile(p)
+		tq := tQuantile(fn-2, p)
 		lam := (fn - 1) * tq / math.Sqrt((fn-2+tq*tq)*fn)
 		if !normalFinite(R) || !normalFinite(lam) {
 			break

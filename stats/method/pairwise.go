@@ -5,8 +5,6 @@ import (
 	"math/bits"
 	"slices"
 	"sort"
-
-	"gonum.org/v1/gonum/stat/distuv"
 )
 
 // This file: pairwise comparisons of groups (Tukey-Kramer, Games-Howell,
@@ -195,7 +193,7 @@ func grpDunn[T RankNumber](groups [][]T, rk grpRanks) ([]RankPair, error) {
 		for j := i + 1; j < k; j++ {
 			ni, nj := float64(len(groups[i])), float64(len(groups[j]))
 			z := (rk.sums[j]/nj - rk.sums[i]/ni) / math.Sqrt(v*(1/ni+1/nj))
-			p := math.Min(1, 2*distuv.UnitNormal.Survival(math.Abs(z)))
+			p := TwoSidedNormalP(z)
 			if !grpFinite(z, p) {
 				return nil, grpErr(GroupsNotFinite, -1, 0)
 			}

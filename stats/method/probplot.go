@@ -3,8 +3,6 @@ package method
 import (
 	"math"
 	"sort"
-
-	"gonum.org/v1/gonum/stat/distuv"
 )
 
 // BlomPosition is z_i = Φ⁻¹((i - 3/8)/(n + 1/4)) for the i-th smallest of
@@ -30,8 +28,8 @@ func BlomPosition(i, n int) float64 {
 func OrderStatBand(i, n int, conf float64) (zlo, zhi float64) {
 	k, fn := float64(i), float64(n)
 	a := 1 - conf
-	pl := distuv.Beta{Alpha: k, Beta: fn - k + 1}.Quantile(a / 2)
-	ph := distuv.Beta{Alpha: fn - k + 1, Beta: k}.Quantile(a / 2)
+	pl := betaQuantile(k, fn-k+1, a/2)
+	ph := betaQuantile(fn-k+1, k, a/2)
 	return NormalQuantile(pl), -NormalQuantile(ph)
 }
 

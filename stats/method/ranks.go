@@ -5,8 +5,6 @@ import (
 	"math/rand/v2"
 	"slices"
 	"sort"
-
-	"gonum.org/v1/gonum/stat/distuv"
 )
 
 // This file: rank tests of a difference in centre (Kruskal-Wallis, the
@@ -185,7 +183,7 @@ func grpKW[T RankNumber](groups [][]T, rk grpRanks) (KruskalWallisTest, error) {
 		h = 0
 	}
 	t := KruskalWallisTest{H: h, DF: float64(len(groups) - 1), TieFactor: c, MeanRanks: mr}
-	t.P = distuv.ChiSquared{K: t.DF}.Survival(h)
+	t.P = chiSquaredSurvival(t.DF, h)
 	if !grpFinite(t.H, t.P) {
 		return KruskalWallisTest{}, grpErr(GroupsNotFinite, -1, 0)
 	}
@@ -353,7 +351,7 @@ func grpRankSumP(w, tie float64, m, n int, exact bool, dist func() grpWilcoxDist
 		corr = -0.5
 	}
 	z = (d - corr) / sigma
-	p = math.Min(1, 2*math.Min(distuv.UnitNormal.CDF(z), distuv.UnitNormal.Survival(z)))
+	p = TwoSidedNormalP(z)
 	return p, z, nil
 }
 
@@ -437,11 +435,11 @@ func MannWhitney[T RankNumber](x, y []T, level float64) (MannWhitneyTest, error)
 		N := float64(m + n)
 		tieIn := grpSelfTie(xs) + grpSelfTie(ys)
 		sigma := math.Sqrt(float64(mn) / 12 * ((N + 1) - tieIn/(N*(N-1))))
-		zq := distuv.UnitNormal.Quantile(1 - alpha/2)
+		zq := NormalQuantile(1 - alpha/2)
 		k := math.Floor(float64(mn)/2-0.5-zq*sigma) + 1
 		if k < 1 {
 			k = 1
-			r.AchievedLevel = 2*distuv.UnitNormal.CDF((float64(mn)/2-0.5)/sigma) - 1
+			r.AchievedLevel = 2*NormalCDF((float64(mn)/2-0.5)/sigma) - 1
 		}
 		kLo = int64(k)
 		kHi = mn + 1 - kLo

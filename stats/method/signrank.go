@@ -286,9 +286,8 @@ func TTest(mean, sd float64, n int, mu, conf float64) (r OneSampleT, ok bool) {
 	if !normalFinite(r.T) {
 		return r, false
 	}
-	st := intervalStudentT(r.DF)
-	r.P = math.Min(1, 2*st.Survival(math.Abs(r.T)))
-	h := st.Quantile(1-(1-conf)/2) * se
+	r.P = math.Min(1, 2*tSurvival(r.DF, math.Abs(r.T)))
+	h := tQuantile(r.DF, 1-(1-conf)/2) * se
 	r.Lo, r.Hi = mean-h, mean+h
 	return r, normalFinite(r.P) && normalFinite(r.Lo) && normalFinite(r.Hi)
 }

@@ -2,8 +2,6 @@ package method
 
 import (
 	"math"
-
-	"gonum.org/v1/gonum/stat/distuv"
 )
 
 // This file: tests of a difference in spread among groups.
@@ -86,7 +84,7 @@ func Bartlett(groups [][]float64) (BartlettTest, error) {
 		stat = 0
 	}
 	b := BartlettTest{K2: stat, DF: k - 1}
-	b.P = distuv.ChiSquared{K: b.DF}.Survival(stat)
+	b.P = chiSquaredSurvival(b.DF, stat)
 	if !grpFinite(b.K2, b.P) {
 		return BartlettTest{}, grpErr(GroupsNotFinite, -1, 0)
 	}
@@ -137,13 +135,12 @@ func SDRatio(groups [][]float64, level float64) (SDRatioResult, error) {
 	r := SDRatioResult{Ratio: math.Sqrt(vr), Largest: lg, Smallest: sm}
 	if len(groups) == 2 {
 		d1, d2 := ms[lg].n-1, ms[sm].n-1
-		f := distuv.F{D1: d1, D2: d2}
 		a := (1 - level) / 2
 		r.HasCI, r.Level = true, level
-		r.Lo = math.Sqrt(vr / f.Quantile(1-a))
-		r.Hi = math.Sqrt(vr / f.Quantile(a))
+		r.Lo = math.Sqrt(vr / fQuantile(d1, d2, 1-a))
+		r.Hi = math.Sqrt(vr / fQuantile(d1, d2, a))
 		r.F, r.DF1, r.DF2 = vr, d1, d2
-		r.P = math.Min(1, 2*math.Min(f.CDF(vr), f.Survival(vr)))
+		r.P = math.Min(1, 2*math.Min(fCDF(d1, d2, vr), fSurvival(d1, d2, vr)))
 	}
 	if !grpFinite(r.Ratio, r.Lo, r.Hi, r.F, r.P) {
 		return SDRatioResult{}, grpErr(GroupsNotFinite, -1, 0)

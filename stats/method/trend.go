@@ -5,8 +5,6 @@ import (
 	"fmt"
 	"math"
 	"slices"
-
-	"gonum.org/v1/gonum/stat/distuv"
 )
 
 // The drift checks take the readings in order. Where a decision rests on
@@ -66,7 +64,7 @@ func Lag1Autocorrelation(x []float64) (Autocorrelation, error) {
 	z := r * math.Sqrt(fn)
 	q := fn * (fn + 2) * r * r / (fn - 1)
 	return Autocorrelation{N: n, R1: r, Z: z, PZ: math.Erfc(math.Abs(z) / math.Sqrt2), Q: q,
-		P: distuv.ChiSquared{K: 1}.Survival(q)}, nil
+		P: chiSquaredSurvival(1, q)}, nil
 }
 
 // RunsTest is the Wald-Wolfowitz runs test about the median.
@@ -428,7 +426,7 @@ func SenSlopeEstimate[T int64 | float64](x []T, confidence float64) (SenSlope, e
 	// three order statistics of n(n−1)/2 slopes: by selection, O(n²)
 	// instead of a sort
 	np := float64(len(sl))
-	c := distuv.UnitNormal.Quantile((1+confidence)/2) * math.Sqrt(mk.VarS)
+	c := NormalQuantile((1+confidence)/2) * math.Sqrt(mk.VarS)
 	st := ctlSelectStats(sl, (np+1)/2, (np-c)/2, (np+c)/2+1)
 	res := SenSlope{N: n, Confidence: confidence, Slope: st[0], Lower: st[1], Upper: st[2]}
 	r := make([]float64, n)
