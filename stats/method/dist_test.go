@@ -106,3 +106,35 @@ func TestDistributionsOutsideRange(t *testing.T) {
 		}
 	}
 }
+
+// TestRankTestsFarTail: the normal approximations of the Mann-Whitney test
+// and of Dunn's test give a two-sided p of erfc(|z|/√2), which stays above
+// 0 far out; (1 - erf)/2, which they used before, cancels to 0 beyond
+// |z| ≈ 8.3 (TestNormalSFTail). Two groups of 600 with no overlap (with a
+// tie, so the normal approximation applies) give |z| ≈ 30.
+func TestRankTestsFarTail(t *testing.T) {
+	x, y := make([]float64, 600), make([]float64, 600)
+	for i := range x {
+		x[i], y[i] = float64(i), float64(1000+i)
+	}
+	x[1] = x[0]
+	for _, g := range [][2][]float64{{x, y}, {y, x}} { // z < 0, then z > 0
+		mw, err := MannWhitney(g[0], g[1], 0.95)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if mw.Exact || !(math.Abs(mw.Z) > 25) {
+			t.Fatalf("Mann-Whitney: exact %v, z %v; want the normal approximation far out", mw.Exact, mw.Z)
+		}
+		if want := math.Erfc(math.Abs(mw.Z) / math.Sqrt2); !(mw.P > 0) || math.Abs(mw.P-want) > 1e-12*want {
+			t.Errorf("Mann-Whitney p = %v at z = %v, want erfc(|z|/√2) = %v", mw.P, mw.Z, want)
+		}
+		pairs, err := Dunn([][]float64{g[0], g[1]})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(pairs) != 1 || !(pairs[0].P > 0) || pairs[0].P > 1e-100 {
+			t.Errorf("Dunn's test: %+v, want one pair with 0 < p < 1e-100", pairs)
+		}
+	}
+}
