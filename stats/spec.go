@@ -3,8 +3,8 @@ package stats
 import (
 	"math"
 	"math/big"
-	"strconv"
 
+	"lotlens/stats/decimal"
 	"lotlens/stats/method"
 )
 
@@ -741,8 +741,8 @@ func specStatement(w words, sp *Spec, opts Options) string {
 // (the numbers as the user typed them), correctly rounded: 5.3 − 4.9 is
 // 0.4, not 0.39999999999999947.
 func exactDifference(a, b float64) float64 {
-	ra, okA := new(big.Rat).SetString(strconv.FormatFloat(a, 'g', -1, 64))
-	rb, okB := new(big.Rat).SetString(strconv.FormatFloat(b, 'g', -1, 64))
+	ra, okA := decimal.ShortestRat(a)
+	rb, okB := decimal.ShortestRat(b)
 	if !okA || !okB {
 		return a - b
 	}

@@ -127,10 +127,16 @@ func (g Grid) Holds(sorted []float64) bool {
 	return ok1 && ok2
 }
 
-// Denom is 10^Scale as a big integer.
+// Denom is 10^Scale as a big integer (by multiplication: big.Int.Exp
+// would link its modular exponentiation, about 35 KB of the WebAssembly
+// engine, for a power of ten).
 func (g Grid) Denom() *big.Int {
-	return new(big.Int).Exp(big.NewInt(10), big.NewInt(int64(g.Scale)), nil)
+	return pow10Int(g.Scale)
 }
+
+// pow10u holds 10^0 .. 10^19, the powers of ten a uint64 holds.
+var pow10u = [20]uint64{1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10,
+	1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19}
 
 // Rat is m/10^Scale exactly.
 func (g Grid) Rat(m int64) *big.Rat {
@@ -223,6 +229,42 @@ func (g Grid) CountAbove(sorted []float64, t *big.Rat) int {
 	}
 	v := g.Float(f)
 	return len(sorted) - sort.Search(len(sorted), func(i int) bool { return sorted[i] > v })
+}
+
+// ShortestRat is, exactly, the shortest decimal that reads back as x (what
+// a user typed for a limit), on a grid or not; ok is false for NaN and ±Inf.
+// (Written out rather than through big.Rat.SetString, whose exponent
+// handling links math/big's modular exponentiation into the engine.)
+func ShortestRat(x float64) (r *big.Rat, ok bool) {
+	if math.IsNaN(x) || math.IsInf(x, 0) {
+		return nil, false
+	}
+	s := strconv.FormatFloat(x, 'e', -1, 64) // -d.ddddde±XX
+	mant, exp, _ := strings.Cut(s, "e")
+	e, err := strconv.Atoi(exp)
+	if err != nil {
+		return nil, false
+	}
+	ip, fp, _ := strings.Cut(mant, ".")
+	n, ok := new(big.Int).SetString(ip+fp, 10) // keeps the sign
+	if !ok {
+		return nil, false
+	}
+	e -= len(fp)
+	p := pow10Int(max(e, -e))
+	if e >= 0 {
+		return new(big.Rat).SetInt(n.Mul(n, p)), true
+	}
+	return new(big.Rat).SetFrac(n, p), true
+}
+
+// pow10Int is 10^k for k >= 0.
+func pow10Int(k int) *big.Int {
+	p := new(big.Int).SetUint64(pow10u[k%19])
+	for ; k >= 19; k -= 19 {
+		p.Mul(p, new(big.Int).SetUint64(pow10u[19]))
+	}
+	return p
 }
 
 // FromFloat returns the shortest decimal that reads back as x (what a user

@@ -165,6 +165,44 @@ func TestAppendPlaces(t *testing.T) {
 // The written-out powers of ten are the exact ones: each equals the
 // float64 that strconv reads from "1e<d>" (correctly rounded, and exact up
 // to 1e22; definition), and none was left out of the literal.
+// TestDenom: 10^Scale for every scale, against math/big's own power.
+func TestDenom(t *testing.T) {
+	for d := 0; d <= MaxScale; d++ {
+		g, ok := NewGrid(d)
+		if !ok {
+			t.Fatalf("NewGrid(%d) refused", d)
+		}
+		want := new(big.Int).Exp(big.NewInt(10), big.NewInt(int64(d)), nil)
+		if got := g.Denom(); got.Cmp(want) != 0 {
+			t.Errorf("Denom at scale %d = %v, want %v", d, got, want)
+		}
+	}
+}
+
+// TestShortestRat: the exact value of x's shortest decimal, against
+// big.Rat.SetString of strconv's shortest form, from the smallest
+// subnormal to the largest double, on a grid and off it.
+func TestShortestRat(t *testing.T) {
+	xs := []float64{0, math.Copysign(0, -1), 1, -1, 0.1, 5.3, 4.9, -12.75, 1e-300, 5e-324, math.MaxFloat64,
+		-math.MaxFloat64, 123456789012345678, 1.0000000000000002, 0.30000000000000004, 1e22, 1e23, 2.5e-7, 6.02214076e23}
+	rng := rand.New(rand.NewPCG(3, 4))
+	for i := 0; i < 2000; i++ {
+		xs = append(xs, math.Float64frombits(rng.Uint64()&^(0x7ff<<52)|uint64(rng.IntN(2046)+1)<<52))
+	}
+	for _, x := range xs {
+		got, ok := ShortestRat(x)
+		want, _ := new(big.Rat).SetString(strconv.FormatFloat(x, 'g', -1, 64))
+		if !ok || got.Cmp(want) != 0 {
+			t.Errorf("ShortestRat(%v) = %v, %v; want %v", x, got, ok, want)
+		}
+	}
+	for _, x := range []float64{math.NaN(), math.Inf(1), math.Inf(-1)} {
+		if _, ok := ShortestRat(x); ok {
+			t.Errorf("ShortestRat(%v) accepted", x)
+		}
+	}
+}
+
 func TestPow10Table(t *testing.T) {
 	for d := 0; d <= MaxScale; d++ {
 		want, err := strconv.ParseFloat("1e"+strconv.Itoa(d), 64)

@@ -86,12 +86,12 @@ func QuantileAt(n int, p Prob, def QuantileDef) QuantilePos {
 		r := new(big.Rat).SetFrac64(p.Num, p.Den)
 		var d float64
 		n4 := math.Floor(float64(n+3)/2) / 2
-		switch r.String() {
-		case "1/4":
+		switch {
+		case r.Cmp(big.NewRat(1, 4)) == 0:
 			d = n4
-		case "1/2":
+		case r.Cmp(big.NewRat(1, 2)) == 0:
 			d = float64(n+1) / 2
-		case "3/4":
+		case r.Cmp(big.NewRat(3, 4)) == 0:
 			d = float64(n+1) - n4
 		default:
 			return QuantileAt(n, p, HF7)
