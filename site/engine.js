@@ -50,9 +50,10 @@ async function load() {
 // answers any request that has arrived, so a user's first action waits at
 // most for one stage, and the
 // warm-up stops for good at the user's first request (it must not touch the
-// user's file or table). A helper worker sharing the compiled module was
-// tried first: the engine's own instance was no faster afterwards (the heap
-// and, in practice, the optimised code are per instance).
+// user's file or table). A helper worker warming up a copy of the compiled
+// module was tried (the browser shares the compiled code between workers)
+// and was no faster for a first request, during its warm-up or after it
+// (DEVELOPERS.md, "The page", the warm-up).
 function warmText(n, header) {
   const a = header ? ["Warm-up (g)"] : [];
   let x = 7;
