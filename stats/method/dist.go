@@ -17,18 +17,6 @@ import (
 // starts. Unlike distuv, a probability outside [0, 1] gives NaN, not a
 // panic.
 
-// tCDF is P(T <= x) for Student's t with nu degrees of freedom.
-func tCDF(nu, x float64) float64 {
-	if x == 0 {
-		return 0.5
-	}
-	t := nu / (x*x + nu)
-	if x > 0 {
-		return 1 - 0.5*mathext.RegIncBeta(0.5*nu, 0.5, t)
-	}
-	return 0.5 * mathext.RegIncBeta(nu/2, 0.5, t)
-}
-
 // tSurvival is P(T > x) for Student's t with nu degrees of freedom.
 func tSurvival(nu, x float64) float64 {
 	if x == 0 {

@@ -42,7 +42,6 @@ func TestDistributionsLikeDistuv(t *testing.T) {
 		st := distuv.StudentsT{Mu: 0, Sigma: 1, Nu: nu}
 		chi := distuv.ChiSquared{K: nu}
 		for _, x := range xs {
-			check("tCDF", func() float64 { return tCDF(nu, x) }, func() float64 { return st.CDF(x) }, nu, x)
 			check("tSurvival", func() float64 { return tSurvival(nu, x) }, func() float64 { return st.Survival(x) }, nu, x)
 			check("chiSquaredSurvival", func() float64 { return chiSquaredSurvival(nu, x) }, func() float64 { return chi.Survival(x) }, nu, x)
 			for _, d2 := range dfs {
