@@ -18,6 +18,7 @@ import (
 	"testing"
 	"time"
 
+	"github.com/chromedp/cdproto/emulation"
 	"github.com/chromedp/chromedp"
 	"github.com/chromedp/chromedp/kb"
 
@@ -393,6 +394,39 @@ func TestScreensAndFocus(t *testing.T) {
 		})
 	}
 	s.run(t, chromedp.EmulateViewport(1024, 768))
+
+	// A folded section (a <details>) must show that it opens: with its
+	// summary a flex box the browser draws no marker, and a bold line alone
+	// reads as a heading with nothing under it. Each summary, in the
+	// settings and in the report, draws a sign whose turn differs between
+	// folded and open (read with reduced motion, so no turn is under way).
+	t.Run("folded sections show that they open", func(t *testing.T) {
+		s.open(t)
+		s.run(t, emulation.SetEmulatedMedia().WithFeatures([]*emulation.MediaFeature{{Name: "prefers-reduced-motion", Value: "reduce"}}))
+		defer s.run(t, emulation.SetEmulatedMedia().WithFeatures(nil))
+		s.run(t, chromedp.Click("#demo", chromedp.ByID), analysed(1))
+		s.state(t)
+		var bad []string
+		s.eval(t, `(() => { const out = [];
+			const sign = (sm) => { const b = getComputedStyle(sm, "::before"), cs = getComputedStyle(sm);
+				if (cs.display === "list-item" && cs.listStyleType !== "none") return "marker";
+				if (b.content === "none" || b.content === "normal" || !(parseFloat(b.width) > 0) || !(parseFloat(b.borderRightWidth) > 0)) return "";
+				return b.transform };
+			const all = [...document.querySelectorAll("details > summary")].filter((sm) => sm.offsetParent !== null);
+			if (all.length < 5) out.push("only " + all.length + " visible summaries");
+			for (const sm of all) {
+				const d = sm.parentElement, was = d.open, name = sm.textContent.trim().slice(0, 40);
+				d.open = false; const shut = sign(sm);
+				d.open = true; const open = sign(sm);
+				d.open = was;
+				if (!shut) out.push(name + ": no sign");
+				else if (shut !== "marker" && shut === open) out.push(name + ": the same sign folded and open");
+			}
+			return out })()`, &bad)
+		if len(bad) > 0 {
+			t.Errorf("folded sections: %v", bad)
+		}
+	})
 
 	t.Run("focus ring contrast", func(t *testing.T) {
 		s.open(t)
