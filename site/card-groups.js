@@ -2,7 +2,7 @@
 // sentence, a table per group, the tests, the pairs and the chart. Only
 // what the engine reports is shown; nothing is computed here.
 import { state, actions } from "./state.js";
-import { fmt, fmtP, pct, unit, el, num, helpLinks, table, missing } from "./dom.js";
+import { fmt, fmtP, pct, unit, el, num, helpLinks, table, missing, methodName } from "./dom.js";
 import { addCard, card, chartFigure } from "./card-kit.js";
 
 const LINKS = [["groups", "groups"], ["anova", "ANOVA and Welch's ANOVA"], ["kruskal-wallis", "Kruskal-Wallis"],
@@ -115,7 +115,7 @@ function groupsCard(rep) {
   const pw = g.pairwise;
   if (pw) for (const [key, set] of [["means", pw.means], ["medians", pw.medians]]) {
     if (!set) continue;
-    kids.push(el("details", null, el("summary", { text: "Pairs, " + key + ": " + set.method + (set.lead ? " (gives the letters)" : "") }),
+    kids.push(el("details", null, el("summary", { text: "Pairs, " + key + ": " + methodName(set.method) + (set.lead ? " (gives the letters)" : "") }),
       el("p", { class: "why", text: set.why }), pairTable(set)));
   }
   if (g.shape === "wide") kids.push(sideBySide(rep));

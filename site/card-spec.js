@@ -3,7 +3,7 @@
 // outside, capability indices with their bounds, the model, the tolerance
 // intervals and the sample sizes, as the engine reports them. Nothing is
 // computed here but the display of ppm.
-import { el, num, pct, comma, table, helpLinks, withUnit, missing } from "./dom.js";
+import { el, num, pct, comma, table, helpLinks, withUnit, missing, methodName } from "./dom.js";
 import { addCard, card, testRows, chartFigure } from "./card-kit.js";
 
 // ppm writes a fraction given in ppm: ppm below 1 %, a percentage above.
@@ -33,13 +33,6 @@ const modelNames = {
   "gamma": "gamma", "gamma-3": "gamma (3 parameters)",
   "box-cox": "Box-Cox-transformed normal", "empirical": "the data's own percentiles",
 };
-const methodNames = { "chi-square": "chi-square", "bissell-1990": "Bissell 1990", "boyles-1991": "Boyles 1991" };
-const sigmaNames = {
-  "moving-range": "average moving range / d2", "median-moving-range": "median moving range / d4",
-  "pooled-sd": "pooled SD of the subgroups / c4", "mean-range": "average subgroup range / d2",
-  "mean-sd": "average subgroup SD / c4", "sample-sd": "sample SD of all readings",
-};
-
 // specSection returns the elements of the spec part, or a hint when no
 // limit is given.
 function specSection(rep) {
@@ -77,7 +70,7 @@ function specSection(rep) {
     out.push(el("h4", { text: "Capability" }));
     const sig = sp.sigma;
     const sl = el("p", { class: "why" }, "Within-process sigma: ");
-    if (sig.within) sl.append(...withUnit(num(sig.within.value, 2, "spec.sigma.within.value")), " (" + (sigmaNames[sig.within.method] || sig.within.method) + "; " + String(Math.round(sig.within.df)) + " degrees of freedom). ");
+    if (sig.within) sl.append(...withUnit(num(sig.within.value, 2, "spec.sigma.within.value")), " (" + methodName(sig.within.method) + "; " + String(Math.round(sig.within.df)) + " degrees of freedom). ");
     else sl.append("not available. ");
     sl.append("Overall SD: ", ...withUnit(num(sig.overall.value, 2, "spec.sigma.overall.value")), ".");
     out.push(sl);
@@ -85,7 +78,7 @@ function specSection(rep) {
       x.name, x.basis === "percentile" ? "percentiles" : x.basis, idx(x.value, "spec." + x.name),
       x.ci ? el("span", null, idx(x.ci.lo), " to ", idx(x.ci.hi)) : "\u2013",
       x.lowerBound !== undefined ? idx(x.lowerBound) : "\u2013",
-      x.ci ? (methodNames[x.ci.method] || x.ci.method) : (x.basis === "percentile" ? "ISO 22514-2" : "")])));
+      x.ci ? methodName(x.ci.method) : (x.basis === "percentile" ? "ISO 22514-2" : "")])));
   }
 
   // The model (non-normal data).

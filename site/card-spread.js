@@ -1,6 +1,6 @@
 // Spread: the quoted spread with its interval, every spread figure, the quantiles.
 import { state } from "./state.js";
-import { pct, comma, el, num, helpLinks, table, intervalText, missing, quoteIsMedian, ordinal } from "./dom.js";
+import { pct, comma, el, num, helpLinks, table, intervalText, missing, quoteIsMedian, ordinal, methodName } from "./dom.js";
 import { addCard, card, quote } from "./card-kit.js";
 
 function spreadCard(rep) {
@@ -22,9 +22,9 @@ function spreadCard(rep) {
   if (q) {
     const qrows = [["Minimum", num(q.min, 0)], ["Q1", num(q.q1, 1)], ["Median", num(q.median, 1)], ["Q3", num(q.q3, 1)], ["Maximum", num(q.max, 0)]];
     for (const p of q.percentiles || []) qrows.push([ordinal(p.p) + " percentile", num(p.value, 1)]);
-    const d = el("details", null, el("summary", { text: "Quantiles (" + q.method + ")" }), table(["Quantile", "Value"], qrows));
+    const d = el("details", null, el("summary", { text: "Quantiles (" + methodName(q.method) + ")" }), table(["Quantile", "Value"], qrows));
     if (q.all && q.all.length) d.append(el("p", { text: "Quartiles under every definition:" }),
-      table(["Definition", "Q1", "Median", "Q3"], q.all.map((a) => [a.method, num(a.q1, 1), num(a.median, 1), num(a.q3, 1)])));
+      table(["Definition", "Q1", "Median", "Q3"], q.all.map((a) => [methodName(a.method), num(a.q1, 1), num(a.median, 1), num(a.q3, 1)])));
     if (q.sensitive) d.append(el("p", { class: "warn-text" }, el("strong", { text: "Note: " }), q.note || "Another quartile definition would flag different readings."));
     kids.push(d);
   } else kids.push(missing("quantiles", "Quantiles"));

@@ -3,7 +3,7 @@
 // and the section's settings (baseline rows, check switches, EWMA and CUSUM
 // parameters). Only what the engine reports is shown; nothing is computed.
 import { $ } from "./state.js";
-import { el, num, fmt, fmtP, helpLinks, table, parseNum } from "./dom.js";
+import { el, num, fmt, fmtP, helpLinks, table, parseNum, methodName } from "./dom.js";
 import { addCard, card, chartFigure } from "./card-kit.js";
 
 const CHECKS = [
@@ -41,7 +41,7 @@ function timeCard(rep) {
       (ch.sigmaShared ? ", the same one the spec section uses." : " of the baseline readings.") }));
     const l = ch.limits[0];
     const rows = [["Centre line", num(ch.centre, 2, "ctl-centre")], ["Lower and upper limit", [num(l.lower, 2, "ctl-lcl"), " to ", num(l.upper, 2, "ctl-ucl")]],
-      ["Within-process sigma", [num(ch.sigma, 2, "ctl-sigma"), " (" + ch.sigmaMethod + ", " + Math.round(ch.sigmaDF) + " degrees of freedom)"]],
+      ["Within-process sigma", [num(ch.sigma, 2, "ctl-sigma"), " (" + methodName(ch.sigmaMethod) + ", " + Math.round(ch.sigmaDF) + " degrees of freedom)"]],
       ["Spread chart centre and upper limit", [num(l.spreadCentre, 2), " and ", num(l.spreadUpper, 2)]], ["Points on the chart", String(ch.count)]];
     if (ch.limits.length > 1) rows.push(["Limits", "per subgroup (sizes differ); the first are shown"]);
     kids.push(el("details", null, el("summary", { text: "Limits and sigma" }), table(["Figure", "Value"], rows)));

@@ -428,6 +428,24 @@ func TestScreensAndFocus(t *testing.T) {
 		}
 	})
 
+	// Every method a figure names is in words, not the report's code for it
+	// ("interpolated-order-statistics", "hf7", "tukey-kramer"), on a report
+	// with every section: limits and a target, groups, an order column.
+	t.Run("methods named in words", func(t *testing.T) {
+		s.open(t)
+		s.run(t, chromedp.Click("#demo", chromedp.ByID), analysed(1))
+		s.run(t, chromedp.SetValue("#target", "5.1", chromedp.ByID), chromedp.SetValue("#lsl", "4.9", chromedp.ByID), chromedp.SetValue("#usl", "5.3", chromedp.ByID),
+			setChoice("col-group", "Line"), setChoice("col-order", "Sampled at"),
+			waitFor(`!!document.querySelector("#card-groups:not(.placeholder)") && !!document.querySelector("#card-spec:not(.placeholder)") && /Cpk/.test(document.getElementById("card-spec").textContent)`))
+		s.state(t)
+		var text string
+		s.eval(t, `(() => { for (const d of document.querySelectorAll("#report details")) d.open = true; return document.getElementById("report").innerText })()`, &text)
+		codes := regexp.MustCompile(`\b(?:[a-z0-9]+-)+(?:statistics|t|pearson|distribution|lehmann|kramer|howell|holm|exact|sd|range|1941|1990|1991)\b|\bhf[1-9]\b|\btukey\b`)
+		for _, at := range codes.FindAllStringIndex(text, -1) {
+			t.Errorf("a method code shown as it is in the report: %q in %q", text[at[0]:at[1]], text[max(0, at[0]-60):min(len(text), at[1]+20)])
+		}
+	})
+
 	t.Run("focus ring contrast", func(t *testing.T) {
 		s.open(t)
 		var ratio float64

@@ -110,12 +110,35 @@ export function table(head, rows, cls) {
   t.append(tb);
   return el("div", { class: "tablewrap" }, t); // narrow screens scroll the table, not the page
 }
+// methodName is the words for a method the report names by a code (an
+// interval's method, a sigma estimator, a set of pairwise comparisons, a
+// quartile definition); the page shows no code as it is. Quartile
+// definitions take their names from the Quartile definition choice in the
+// settings; a code not known here is shown as it is.
+const methodWords = {
+  "student-t": "Student's t", "chi-square": "chi-square", "f-distribution": "F distribution",
+  "order-statistics": "order statistics, exact",
+  "interpolated-order-statistics": "interpolated order statistics, Hettmansperger and Sheather",
+  "clopper-pearson": "Clopper-Pearson, exact", "welch": "Welch", "hodges-lehmann": "Hodges-Lehmann",
+  "tukey-kramer": "Tukey-Kramer", "games-howell": "Games-Howell", "dunn-holm": "Dunn's test with Holm's adjustment",
+  "bissell-1990": "Bissell 1990", "boyles-1991": "Boyles 1991",
+  "odeh-owen-exact": "Odeh and Owen, exact", "noncentral-t": "noncentral t", "wilks-1941": "Wilks 1941",
+  "moving-range": "average moving range / d2", "median-moving-range": "median moving range / d4",
+  "pooled-sd": "pooled SD of the subgroups / c4", "mean-range": "average subgroup range / d2",
+  "mean-sd": "average subgroup SD / c4", "sample-sd": "sample SD of all readings",
+};
+export function methodName(code) {
+  if (!code) return "";
+  if (methodWords[code]) return methodWords[code];
+  const opt = [...document.querySelectorAll("#quantile option")].find((o) => o.value === code);
+  return opt ? opt.textContent : code;
+}
 export function intervalText(ci, extra) {
   if (!ci) return null;
   const p = el("p", { class: "interval" },
     pct(ci.level) + " confidence interval: ", num(ci.lo, extra, "lo"), " to ", num(ci.hi, extra, "hi"));
   if (unit()) p.append(" " + unit());
-  if (ci.method) p.append(el("span", { class: "method", text: " (" + ci.method + ")" }));
+  if (ci.method) p.append(el("span", { class: "method", text: " (" + methodName(ci.method) + ")" }));
   return p;
 }
 export function notesFor(field) {

@@ -491,9 +491,14 @@ func quantileNames(code string) string {
 func (w words) quantileName(code string) string { return quantileNames(code) }
 
 // quartileCaption names the definition behind the quartile-based figures
-// (IQR, fences, box plot) of a report.
+// (IQR, fences, box plot) of a report, in words: "quartiles by
+// Hyndman-Fan type 7 (p = (k - 1)/(n - 1))".
 func (w words) quartileCaption(code string) string {
-	return "quartiles by " + code + " (" + quantileNames(code) + ")"
+	name, formula, ok := strings.Cut(quantileNames(code), ": ")
+	if !ok {
+		return "quartiles by " + name
+	}
+	return "quartiles by " + name + " (" + formula + ")"
 }
 
 // quantileMedian: the quantile section's median (under code) differs from
