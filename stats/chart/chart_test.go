@@ -568,3 +568,59 @@ func TestAppendFAgreesWithStrconv(t *testing.T) {
 		}
 	}
 }
+
+// TestHistogramMarkerLabels: the labels of the target and limits sit above
+// every bar, and stagger only where they would collide; the legend names
+// only the lines drawn. Settings and bins are invented to put a label over
+// the tallest bar (the target at the peak) and two labels close together.
+func TestHistogramMarkerLabels(t *testing.T) {
+	for _, c := range []struct {
+		name                   string
+		target, lsl, usl       *float64
+		wantLanes              int
+		wantTarget, wantLimits bool
+	}{
+		{"apart", f64(5.1), f64(4.8), f64(5.4), 1, true, true},
+		{"target beside a limit", f64(5.0), f64(4.98), f64(5.4), 2, true, true},
+		{"limits only", nil, f64(4.8), f64(5.4), 1, false, true},
+		{"target only", f64(5.1), nil, nil, 1, true, false},
+	} {
+		r := sample()
+		r.Settings.Target, r.Settings.LSL, r.Settings.USL = c.target, c.lsl, c.usl
+		root := parse(t, Histogram(r))
+		top := math.Inf(1)
+		for _, b := range root.all(byClass("bar")) {
+			top = math.Min(top, b.num(t, "y"))
+		}
+		type box struct{ x0, x1, y float64 }
+		var boxes []box
+		ys := map[float64]bool{}
+		for _, l := range root.all(byClass("marker-label")) {
+			x, y := l.num(t, "x"), l.num(t, "y")
+			if y > top-4 {
+				t.Errorf("%s: label %q at baseline %g reaches the bars (top %g)", c.name, l.Text, y, top)
+			}
+			w := textWidth(l.Text, 15)
+			for _, o := range boxes {
+				if o.y == y && x-w/2 < o.x1 && x+w/2 > o.x0 {
+					t.Errorf("%s: label %q overlaps another on the same line", c.name, l.Text)
+				}
+			}
+			boxes = append(boxes, box{x - w/2, x + w/2, y})
+			ys[y] = true
+		}
+		if len(ys) != c.wantLanes {
+			t.Errorf("%s: labels on %d lines, want %d", c.name, len(ys), c.wantLanes)
+		}
+		var legend []string
+		for _, g := range root.all(byClass("legend")) {
+			for _, tx := range g.all(func(n node) bool { return n.XMLName.Local == "text" }) {
+				legend = append(legend, tx.Text)
+			}
+		}
+		j := strings.Join(legend, "|")
+		if strings.Contains(j, "target") != c.wantTarget || strings.Contains(j, "spec limits") != c.wantLimits {
+			t.Errorf("%s: legend %q, want target %v, spec limits %v", c.name, j, c.wantTarget, c.wantLimits)
+		}
+	}
+}

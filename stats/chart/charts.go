@@ -160,7 +160,10 @@ func Histogram(r *stats.Report) string {
 	yt, ydec := Ticks(0, peak, 5)
 	ytop := math.Max(peak, yt[len(yt)-1])
 	xs := scale{lo, hi, marginL, Width - marginR}
-	ys := scale{0, ytop, Height - marginB, marginT + 12}
+	// the labels of the target and limits sit above the bars: a second
+	// lane (labels that would collide) lowers the top of the plot
+	lanes, used := markerLanes(refs, xs, 15)
+	ys := scale{0, ytop, Height - marginB, marginT + 16 + 13*float64(max(used-1, 0))}
 	xt, xdec := Ticks(lo, hi, 7)
 	xdec = max(xdec, 0)
 	desc := fmt.Sprintf("%d values in %d bins (%s rule)", n, len(h.Counts), h.Rule)
@@ -180,15 +183,18 @@ func Histogram(r *stats.Report) string {
 		}, `class="normal-fit" stroke="`+Blue+`" stroke-width="2.5"`)
 		items = append(items, legendItem{"line", Blue, "", "normal curve"})
 	}
+	hasTarget, hasLimit := false, false
 	for i, rl := range refs {
-		x := xs.at(rl.v)
-		c.vMarker(x, ys.at(0), marginT+26, rl.colour, rl.dash, rl.label, rl.class, marginT+10+float64(i%2)*13)
+		x, lane := xs.at(rl.v), float64(lanes[i])
+		c.vMarker(x, ys.at(0), marginT+26+13*lane, rl.colour, rl.dash, rl.label, rl.class, marginT+10+13*lane)
+		hasTarget = hasTarget || rl.class == "target"
+		hasLimit = hasLimit || rl.class != "target"
 	}
-	if len(refs) > 0 {
+	if hasTarget {
 		items = append(items, legendItem{"line", Black, "8 4", "target"})
-		if len(refs) > 1 || refs[0].class != "target" {
-			items = append(items, legendItem{"line", Vermilion, "10 4 2 4", "spec limits"})
-		}
+	}
+	if hasLimit {
+		items = append(items, legendItem{"line", Vermilion, "10 4 2 4", "spec limits"})
 	}
 	c.xAxis(xs, xt, xdec, f, valueLabel(r), Height-marginB)
 	c.legend(items)

@@ -58,8 +58,9 @@ func Groups(r *stats.Report) string {
 	desc := fmt.Sprintf("%d groups on one scale: box plots above dot plots, the %s of each group with its interval; suspect readings labelled by row", len(g.Levels), centreWord)
 	c := newCanvas(Width, h, "groups", "Groups of "+valueLabel(r), desc)
 	top := marginT + 24
+	lanes, _ := markerLanes(refs, xs, 15)
 	for i, rl := range refs {
-		c.vMarker(xs.at(rl.v), h-marginB, top-4, rl.colour, rl.dash, rl.label, rl.class, top-8-float64(i%2)*13)
+		c.vMarker(xs.at(rl.v), h-marginB, top-4, rl.colour, rl.dash, rl.label, rl.class, top-8-13*float64(lanes[i]))
 	}
 	for gi, l := range g.Levels {
 		st := groupStyle[gi%len(groupStyle)]

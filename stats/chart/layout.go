@@ -19,6 +19,35 @@ func textWidth(s string, px float64) float64 {
 	return 0.62*px*float64(len([]rune(s))) + 4
 }
 
+// markerLanes puts the labels of vertical reference lines (target and
+// limits; each centred on its line at x, at font size px) on lanes: each
+// label on the first lane where it clears those already there, so labels
+// stagger only where they would collide. It gives each label's lane, in
+// the order given, and the number of lanes used (0 for no labels).
+func markerLanes(refs []refLine, xs scale, px float64) (lanes []int, used int) {
+	const gap = 6.0
+	order := make([]int, len(refs))
+	for i := range order {
+		order[i] = i
+	}
+	sort.SliceStable(order, func(a, b int) bool { return refs[order[a]].v < refs[order[b]].v })
+	lanes = make([]int, len(refs))
+	var ends []float64 // the right end of the last label on each lane
+	for _, i := range order {
+		x, w := xs.at(refs[i].v), textWidth(refs[i].label, px)
+		lane := 0
+		for lane < len(ends) && x-w/2 < ends[lane]+gap {
+			lane++
+		}
+		if lane == len(ends) {
+			ends = append(ends, 0)
+		}
+		ends[lane] = x + w/2
+		lanes[i] = lane
+	}
+	return lanes, len(ends)
+}
+
 // labelPoint is a flagged reading to label: its x on the chart and its row.
 type labelPoint struct {
 	x   float64

@@ -122,8 +122,9 @@ func SpecFit(r *stats.Report) string {
 		}, attrs)
 		items = append(items, legendItem{"line", st.colour, st.dash, st.label})
 	}
+	lanes, _ := markerLanes(refs, xs, 15)
 	for i, rl := range refs {
-		c.vMarker(xs.at(rl.v), ys.at(0), top+20, rl.colour, rl.dash, rl.label, rl.class, top+14+float64(i%2)*15)
+		c.vMarker(xs.at(rl.v), ys.at(0), top+20, rl.colour, rl.dash, rl.label, rl.class, top+14+15*float64(lanes[i]))
 	}
 	if len(refs) > 0 {
 		hasTarget, hasLimit := false, false
@@ -276,9 +277,10 @@ func SpecSpread(r *stats.Report) string {
 		}
 		c.printf(`</g>`)
 	}
-	for i, rl := range refLines(r, f) {
-		x := xs.at(rl.v)
-		c.vMarker(x, plotBottom, top-6, rl.colour, rl.dash, rl.label, rl.class, 16+float64(i%2)*15)
+	refs := refLines(r, f)
+	lanes, _ := markerLanes(refs, xs, 15)
+	for i, rl := range refs {
+		c.vMarker(xs.at(rl.v), plotBottom, top-6, rl.colour, rl.dash, rl.label, rl.class, 16+15*float64(lanes[i]))
 	}
 	c.xAxis(xs, xt, xdec, f, valueLabel(r), plotBottom)
 	return c.done()
