@@ -444,6 +444,25 @@ func TestScreensAndFocus(t *testing.T) {
 		for _, at := range codes.FindAllStringIndex(text, -1) {
 			t.Errorf("a method code shown as it is in the report: %q in %q", text[at[0]:at[1]], text[max(0, at[0]-60):min(len(text), at[1]+20)])
 		}
+		// the verdict gives the other sections' verdicts, in their words,
+		// each a link to its card
+		var glance []string
+		s.eval(t, `(() => { const spec = document.querySelector("#card-spec .spec-statement").textContent;
+			const time = document.querySelector("#card-time [data-field=stability-verdict]").textContent.replace(/^\S+\s/, "");
+			const groups = document.querySelector("#card-groups [data-field=groups-statement]").textContent;
+			return [...document.querySelectorAll("#card-verdict ul.glance li")].map((li) => {
+				const a = li.querySelector("a"), rest = li.textContent.slice(a.textContent.length + 2);
+				// the target's statement is the spec card's too, in a paragraph of its own
+				const want = a.textContent === "Against the target"
+					? ([...document.querySelectorAll("#card-spec p.lead-small")].some((p) => p.textContent === rest) ? rest : "")
+					: {spec, time, groups}[a.getAttribute("href").slice(6)];
+				const same = want === rest;
+				return a.getAttribute("href") + " " + a.textContent + (same ? "" : " differs: " + rest);
+			}) })()`, &glance)
+		want := []string{"#card-spec Against the limits", "#card-spec Against the target", "#card-time Over time", "#card-groups Between groups"}
+		if strings.Join(glance, "|") != strings.Join(want, "|") {
+			t.Errorf("the verdict's list of the other sections: %q, want %q", glance, want)
+		}
 	})
 
 	t.Run("focus ring contrast", func(t *testing.T) {
