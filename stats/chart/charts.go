@@ -60,6 +60,24 @@ type refLine struct {
 	class  string
 }
 
+// refLegend is the legend's entries for the reference lines drawn: the
+// target's and the limits', each only when drawn.
+func refLegend(refs []refLine) []legendItem {
+	hasTarget, hasLimit := false, false
+	for _, rl := range refs {
+		hasTarget = hasTarget || rl.class == "target"
+		hasLimit = hasLimit || rl.class != "target"
+	}
+	var items []legendItem
+	if hasTarget {
+		items = append(items, legendItem{"line", Black, "8 4", "target"})
+	}
+	if hasLimit {
+		items = append(items, legendItem{"line", Vermilion, "10 4 2 4", "spec limits"})
+	}
+	return items
+}
+
 func refLines(r *stats.Report, f Format) []refLine {
 	var out []refLine
 	s := r.Settings
@@ -183,19 +201,11 @@ func Histogram(r *stats.Report) string {
 		}, `class="normal-fit" stroke="`+Blue+`" stroke-width="2.5"`)
 		items = append(items, legendItem{"line", Blue, "", "normal curve"})
 	}
-	hasTarget, hasLimit := false, false
 	for i, rl := range refs {
 		x, lane := xs.at(rl.v), float64(lanes[i])
 		c.vMarker(x, ys.at(0), marginT+26+13*lane, rl.colour, rl.dash, rl.label, rl.class, marginT+10+13*lane)
-		hasTarget = hasTarget || rl.class == "target"
-		hasLimit = hasLimit || rl.class != "target"
 	}
-	if hasTarget {
-		items = append(items, legendItem{"line", Black, "8 4", "target"})
-	}
-	if hasLimit {
-		items = append(items, legendItem{"line", Vermilion, "10 4 2 4", "spec limits"})
-	}
+	items = append(items, refLegend(refs)...)
 	c.xAxis(xs, xt, xdec, f, valueLabel(r), Height-marginB)
 	c.legend(items)
 	return c.done()

@@ -126,19 +126,7 @@ func SpecFit(r *stats.Report) string {
 	for i, rl := range refs {
 		c.vMarker(xs.at(rl.v), ys.at(0), top+20, rl.colour, rl.dash, rl.label, rl.class, top+14+15*float64(lanes[i]))
 	}
-	if len(refs) > 0 {
-		hasTarget, hasLimit := false, false
-		for _, rl := range refs {
-			hasTarget = hasTarget || rl.class == "target"
-			hasLimit = hasLimit || rl.class != "target"
-		}
-		if hasTarget {
-			items = append(items, legendItem{"line", Black, "8 4", "target"})
-		}
-		if hasLimit {
-			items = append(items, legendItem{"line", Vermilion, "10 4 2 4", "spec limits"})
-		}
-	}
+	items = append(items, refLegend(refs)...)
 	c.xAxis(xs, xt, xdec, f, valueLabel(r), height-marginB)
 	c.legend(items)
 	return c.done()

@@ -236,26 +236,40 @@ func (g Grid) CountAbove(sorted []float64, t *big.Rat) int {
 // (Written out rather than through big.Rat.SetString, whose exponent
 // handling links math/big's modular exponentiation into the engine.)
 func ShortestRat(x float64) (r *big.Rat, ok bool) {
-	if math.IsNaN(x) || math.IsInf(x, 0) {
-		return nil, false
-	}
-	s := strconv.FormatFloat(x, 'e', -1, 64) // -d.ddddde±XX
-	mant, exp, _ := strings.Cut(s, "e")
-	e, err := strconv.Atoi(exp)
-	if err != nil {
-		return nil, false
-	}
-	ip, fp, _ := strings.Cut(mant, ".")
-	n, ok := new(big.Int).SetString(ip+fp, 10) // keeps the sign
+	neg, digits, e, ok := shortest(x)
 	if !ok {
 		return nil, false
 	}
-	e -= len(fp)
+	n, ok := new(big.Int).SetString(digits, 10)
+	if !ok {
+		return nil, false
+	}
+	if neg {
+		n.Neg(n)
+	}
 	p := pow10Int(max(e, -e))
 	if e >= 0 {
 		return new(big.Rat).SetInt(n.Mul(n, p)), true
 	}
 	return new(big.Rat).SetFrac(n, p), true
+}
+
+// shortest splits the shortest decimal that reads back as x into its sign
+// and digits and a power of ten: |x| = digits·10^e. ok is false for NaN
+// and ±Inf.
+func shortest(x float64) (neg bool, digits string, e int, ok bool) {
+	if math.IsNaN(x) || math.IsInf(x, 0) {
+		return false, "", 0, false
+	}
+	s := strconv.FormatFloat(x, 'e', -1, 64) // -d.ddddde±XX
+	mant, exp, _ := strings.Cut(s, "e")
+	e, err := strconv.Atoi(exp)
+	if err != nil {
+		return false, "", 0, false
+	}
+	neg = strings.HasPrefix(mant, "-")
+	ip, fp, _ := strings.Cut(strings.TrimPrefix(mant, "-"), ".")
+	return neg, ip + fp, e - len(fp), true
 }
 
 // pow10Int is 10^k for k >= 0.
@@ -271,20 +285,11 @@ func pow10Int(k int) *big.Int {
 // typed for a target or a limit given as a JSON number): x = m/10^d. ok is
 // false for non-finite x or when the decimal does not fit a grid.
 func FromFloat(x float64) (m int64, d int, ok bool) {
-	if math.IsNaN(x) || math.IsInf(x, 0) {
+	neg, digits, e, ok := shortest(x)
+	if !ok {
 		return 0, 0, false
 	}
-	s := strconv.FormatFloat(x, 'e', -1, 64) // d.ddddde±XX
-	mant, exp, _ := strings.Cut(s, "e")
-	e, err := strconv.Atoi(exp)
-	if err != nil {
-		return 0, 0, false
-	}
-	neg := strings.HasPrefix(mant, "-")
-	mant = strings.TrimPrefix(mant, "-")
-	ip, fp, _ := strings.Cut(mant, ".")
-	digits := ip + fp
-	d = len(fp) - e
+	d = -e
 	if d < 0 {
 		digits += strings.Repeat("0", -d)
 		d = 0

@@ -107,7 +107,9 @@ func TestDistributionsOutsideRange(t *testing.T) {
 }
 
 // TestRankTestsFarTail: the normal approximations of the Mann-Whitney test
-// and of Dunn's test give a two-sided p of erfc(|z|/√2), which stays above
+// and of Dunn's test give a two-sided p of erfc(|z|/√2) (the check value:
+// the definition of the two-sided normal tail, 2·(1 - Φ(|z|)), computed by
+// Go's math.Erfc), which stays above
 // 0 far out; (1 - erf)/2, which they used before, cancels to 0 beyond
 // |z| ≈ 8.3 (TestNormalSFTail). Two groups of 600 with no overlap (with a
 // tie, so the normal approximation applies) give |z| ≈ 30.

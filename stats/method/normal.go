@@ -26,7 +26,7 @@ func NormalQuantile(p float64) float64 {
 	if !(p >= 0 && p <= 1) {
 		return math.NaN()
 	}
-	return mathext.NormalQuantile(p) + 0
+	return mathext.NormalQuantile(p) + 0 // + 0 as distuv's μ + σ·z: -0 becomes 0
 }
 
 // TwoSidedNormalP is 2·P(Z > |z|), accurate in the far tail.
